@@ -1,0 +1,214 @@
+package dev.circa.format;
+
+import java.util.List;
+import tools.jackson.databind.JsonNode;
+
+/**
+ * A circuit document (FORMAT.md section 2) as read, before any validation: node ids, child
+ * references and variable indices are kept as written, so a validator can report what is wrong
+ * with them. {@link #nodeLocation(int)} gives where each node starts in the source.
+ *
+ * <p>Instances are immutable once built and safe to share between threads.
+ */
+public final class CircuitDocument {
+    /** The value of {@code format} for a circuit. */
+    public static final String FORMAT = "circa.circuit";
+
+    private final String version;
+    private final String name;
+    private final String description;
+    private final Provenance provenance;
+    private final List<Variable> variables;
+    private final List<Node> nodes;
+    private final List<Output> outputs;
+    private final Checks checks;
+    private final JsonNode extensions;
+    private final NodeLocations nodeLocations;
+    private final DocumentLocations locations;
+    private final List<ReadFinding> findings;
+    private final String source;
+
+    private CircuitDocument(Builder b) {
+        this.version = b.version;
+        this.name = b.name;
+        this.description = b.description;
+        this.provenance = b.provenance;
+        this.variables = List.copyOf(b.variables);
+        this.nodes = List.copyOf(b.nodes);
+        this.outputs = List.copyOf(b.outputs);
+        this.checks = b.checks;
+        this.extensions = b.extensions;
+        this.nodeLocations = b.nodeLocations == null ? NodeLocations.NONE : b.nodeLocations;
+        this.locations = b.locations == null ? DocumentLocations.NONE : b.locations;
+        this.findings = List.copyOf(b.findings);
+        this.source = b.source;
+    }
+
+    /** A builder for documents made in code (converters, tests). */
+    public static Builder builder() {
+        return new Builder();
+    }
+
+    /** The document's {@code version}, e.g. {@code "1.0"}. */
+    public String version() {
+        return version;
+    }
+
+    /** Optional name, or {@code null}. */
+    public String name() {
+        return name;
+    }
+
+    /** Optional description, or {@code null}. */
+    public String description() {
+        return description;
+    }
+
+    /** Optional provenance, or {@code null}. */
+    public Provenance provenance() {
+        return provenance;
+    }
+
+    /** The variables, by index. */
+    public List<Variable> variables() {
+        return variables;
+    }
+
+    /** The nodes in document order. */
+    public List<Node> nodes() {
+        return nodes;
+    }
+
+    /** The outputs in document order. */
+    public List<Output> outputs() {
+        return outputs;
+    }
+
+    /** The embedded checks, or {@code null}. */
+    public Checks checks() {
+        return checks;
+    }
+
+    /** The free-form {@code extensions} object, or {@code null}. */
+    public JsonNode extensions() {
+        return extensions;
+    }
+
+    /** Things the reader noticed that did not stop it (unknown properties). */
+    public List<ReadFinding> findings() {
+        return findings;
+    }
+
+    /** The file the document was read from (for messages), or {@code null}. */
+    public String source() {
+        return source;
+    }
+
+    /** Where node {@code index} (its position in {@link #nodes()}) starts: pointer {@code /nodes/INDEX}. */
+    public SourceLocation nodeLocation(int index) {
+        return new SourceLocation("/nodes/" + index, nodeLocations.line(index), nodeLocations.column(index));
+    }
+
+    /** Where the member at {@code pointer} (other than a node) starts, when the reader recorded it. */
+    public SourceLocation location(String pointer) {
+        return locations.get(pointer);
+    }
+
+    /** Total number of child references (duplicates counted). */
+    public long edgeCount() {
+        long e = 0;
+        for (Node n : nodes) {
+            e += n.children().length;
+        }
+        return e;
+    }
+
+    /** Builds a {@link CircuitDocument}. Not thread-safe. */
+    public static final class Builder {
+        private String version = "1.0";
+        private String name;
+        private String description;
+        private Provenance provenance;
+        private List<Variable> variables = List.of();
+        private List<Node> nodes = List.of();
+        private List<Output> outputs = List.of();
+        private Checks checks;
+        private JsonNode extensions;
+        private NodeLocations nodeLocations;
+        private DocumentLocations locations;
+        private List<ReadFinding> findings = List.of();
+        private String source;
+
+        private Builder() {
+        }
+
+        public Builder version(String v) {
+            this.version = v;
+            return this;
+        }
+
+        public Builder name(String v) {
+            this.name = v;
+            return this;
+        }
+
+        public Builder description(String v) {
+            this.description = v;
+            return this;
+        }
+
+        public Builder provenance(Provenance v) {
+            this.provenance = v;
+            return this;
+        }
+
+        public Builder variables(List<Variable> v) {
+            this.variables = v;
+            return this;
+        }
+
+        public Builder nodes(List<Node> v) {
+            this.nodes = v;
+            return this;
+        }
+
+        public Builder outputs(List<Output> v) {
+            this.outputs = v;
+            return this;
+        }
+
+        public Builder checks(Checks v) {
+            this.checks = v;
+            return this;
+        }
+
+        public Builder extensions(JsonNode v) {
+            this.extensions = v;
+            return this;
+        }
+
+        public Builder nodeLocations(NodeLocations v) {
+            this.nodeLocations = v;
+            return this;
+        }
+
+        public Builder locations(DocumentLocations v) {
+            this.locations = v;
+            return this;
+        }
+
+        public Builder findings(List<ReadFinding> v) {
+            this.findings = v;
+            return this;
+        }
+
+        public Builder source(String v) {
+            this.source = v;
+            return this;
+        }
+
+        public CircuitDocument build() {
+            return new CircuitDocument(this);
+        }
+    }
+}

@@ -1,0 +1,623 @@
+package dev.circa.format.io;
+
+import dev.circa.format.CheckCase;
+import dev.circa.format.Checks;
+import dev.circa.format.CircuitDocument;
+import dev.circa.format.DocumentLocations;
+import dev.circa.format.Family;
+import dev.circa.format.InputNode;
+import dev.circa.format.Node;
+import dev.circa.format.NodeLocations;
+import dev.circa.format.Output;
+import dev.circa.format.ProductNode;
+import dev.circa.format.Provenance;
+import dev.circa.format.ReadFinding;
+import dev.circa.format.SourceLocation;
+import dev.circa.format.SumNode;
+import dev.circa.format.Variable;
+import java.io.InputStream;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import tools.jackson.core.JsonToken;
+import tools.jackson.databind.JsonNode;
+
+/**
+ * Reads a circuit document (FORMAT.md section 2) in one streaming pass, in any member order.
+ *
+ * <p>Structure is checked while reading: JSON syntax, member types, required members, exactly one
+ * kind per node, the {@code format} and major {@code version}, finite numbers, duplicate keys and
+ * the {@link ReadLimits}. Any of these ends the read with a located {@link FormatException}.
+ * Values are not judged here (ranges, references, order, scopes): that is the validator's work.
+ * Unknown properties outside {@code extensions} are kept as {@link ReadFinding}s.
+ *
+ * <p>Instances hold only their limits and are safe to share between threads.
+ */
+public final class CircuitReader {
+    /** The newest minor version of format 1 this reader knows. */
+    public static final int SUPPORTED_MINOR = 0;
+
+    private final ReadLimits limits;
+
+    public CircuitReader() {
+        this(ReadLimits.DEFAULT);
+    }
+
+    public CircuitReader(ReadLimits limits) {
+        this.limits = limits;
+    }
+
+    /** Reads {@code path} ({@code .gz} decompressed, {@code -} for standard input). */
+    public CircuitDocument read(Path path) throws FormatException {
+        try (JsonInput in = JsonInput.openJson(path, limits)) {
+            return read(in);
+        }
+    }
+
+    /** Reads from {@code stream}; {@code file} names it in messages. */
+    public CircuitDocument read(InputStream stream, String file) throws FormatException {
+        try (JsonInput in = JsonInput.fromStream(stream, file, limits)) {
+            return read(in);
+        }
+    }
+
+    /** Reads a document from text (tests, small inputs). */
+    public CircuitDocument readString(String json, String file) throws FormatException {
+        return read(new java.io.ByteArrayInputStream(json.getBytes(java.nio.charset.StandardCharsets.UTF_8)), file);
+    }
+
+    private CircuitDocument read(JsonInput in) throws FormatException {
+        return new Pass(in, limits).run();
+    }
+
+    /** The state of one read. */
+    private static final class Pass {
+        private final JsonInput in;
+        private final ReadLimits limits;
+        private final String file;
+        private final List<ReadFinding> unknown = new ArrayList<>();
+        private final DocumentLocations.Recorder locations = new DocumentLocations.Recorder();
+        private final NodeLocations.Recorder nodeLocations = new NodeLocations.Recorder();
+        private final List<Node> nodes = new ArrayList<>();
+        private final NodeFields fields = new NodeFields();
+        private int[] intBuffer = new int[64];
+
+        Pass(JsonInput in, ReadLimits limits) {
+            this.in = in;
+            this.limits = limits;
+            this.file = in.file();
+        }
+
+        CircuitDocument run() throws FormatException {
+            in.startDocument("a circuit document");
+            CircuitDocument.Builder b = CircuitDocument.builder().source(file);
+            String format = null;
+            String version = null;
+            int formatLine = 1;
+            int formatColumn = 1;
+            boolean sawNodes = false;
+            boolean sawOutputs = false;
+            boolean sawVariables = false;
+            String member;
+            while ((member = in.nextProperty()) != null) {
+                String ptr = "/" + member;
+                locations.put(ptr, in.line(), in.column());
+                switch (member) {
+                    case "format" -> {
+                        formatLine = in.line();
+                        formatColumn = in.column();
+                        format = in.readString(ptr);
+                        if (!CircuitDocument.FORMAT.equals(format)) {
+                            throw in.error(ptr, "unknown format \"" + format + "\"; expected \""
+                                    + CircuitDocument.FORMAT + "\"");
+                        }
+                    }
+                    case "version" -> {
+                        version = in.readString(ptr);
+                        checkVersion(version, ptr);
+                        b.version(version);
+                    }
+                    case "name" -> b.name(in.readString(ptr));
+                    case "description" -> b.description(in.readString(ptr));
+                    case "provenance" -> b.provenance(readProvenance(ptr));
+                    case "variables" -> {
+                        b.variables(VariableListReader.read(in, ptr, unknown));
+                        sawVariables = true;
+                    }
+                    case "nodes" -> {
+                        readNodes(ptr);
+                        sawNodes = true;
+                    }
+                    case "outputs" -> {
+                        b.outputs(readOutputs(ptr));
+                        sawOutputs = true;
+                    }
+                    case "checks" -> b.checks(readChecks(ptr));
+                    case "extensions" -> {
+                        in.expect(JsonToken.START_OBJECT, ptr, "an object");
+                        JsonNode ext = in.readTree();
+                        b.extensions(ext);
+                    }
+                    default -> {
+                        unknown(ptr, "unknown property \"" + member + "\" in a circuit document");
+                        in.skipValue();
+                    }
+                }
+            }
+            in.endDocument();
+            if (format == null) {
+                throw new FormatException(file, formatLine, formatColumn, "/format",
+                        "missing \"format\"; expected \"format\": \"" + CircuitDocument.FORMAT + "\"");
+            }
+            if (version == null) {
+                throw new FormatException(file, formatLine, formatColumn, "/version",
+                        "missing \"version\"; expected \"version\": \"1.0\"");
+            }
+            if (!sawVariables) {
+                throw new FormatException(file, 1, 1, "/variables", "missing \"variables\"; expected an array of variables");
+            }
+            if (!sawNodes) {
+                throw new FormatException(file, 1, 1, "/nodes", "missing \"nodes\"; expected an array of nodes");
+            }
+            if (!sawOutputs) {
+                throw new FormatException(file, 1, 1, "/outputs", "missing \"outputs\"; expected an array of outputs");
+            }
+            boolean newerMinor = minor(version) > SUPPORTED_MINOR;
+            List<ReadFinding> findings = new ArrayList<>(unknown.size());
+            for (ReadFinding f : unknown) {
+                findings.add(newerMinor
+                        ? new ReadFinding(ReadFinding.Kind.UNKNOWN_PROPERTY_NEWER_MINOR,
+                                f.message() + " (ignored: the document is version " + version + ")", f.location())
+                        : f);
+            }
+            return b.nodes(nodes).nodeLocations(nodeLocations.build()).locations(locations.build())
+                    .findings(findings).build();
+        }
+
+        private void unknown(String ptr, String message) {
+            unknown.add(new ReadFinding(ReadFinding.Kind.UNKNOWN_PROPERTY, message,
+                    new SourceLocation(ptr, in.line(), in.column())));
+        }
+
+        private void checkVersion(String version, String ptr) throws FormatException {
+            if (!version.matches("[0-9]+\\.[0-9]+")) {
+                throw in.error(ptr, "version \"" + version + "\" is not MAJOR.MINOR; expected \"1.0\"");
+            }
+            if (!version.startsWith("1.")) {
+                throw in.error(ptr, "unsupported major version \"" + version + "\"; this reader reads version 1.x");
+            }
+        }
+
+        private static int minor(String version) {
+            try {
+                return Integer.parseInt(version.substring(version.indexOf('.') + 1));
+            } catch (NumberFormatException e) {
+                return Integer.MAX_VALUE;
+            }
+        }
+
+        private Provenance readProvenance(String ptr) throws FormatException {
+            in.expect(JsonToken.START_OBJECT, ptr, "an object");
+            String producer = null;
+            String created = null;
+            String source = null;
+            String m;
+            while ((m = in.nextProperty()) != null) {
+                String p = ptr + "/" + m;
+                switch (m) {
+                    case "producer" -> producer = in.readString(p);
+                    case "created" -> created = in.readString(p);
+                    case "source" -> source = in.readString(p);
+                    default -> {
+                        unknown(p, "unknown property \"" + m + "\" in provenance");
+                        in.skipValue();
+                    }
+                }
+            }
+            return new Provenance(producer, created, source);
+        }
+
+        private List<Output> readOutputs(String ptr) throws FormatException {
+            in.expect(JsonToken.START_ARRAY, ptr, "an array of outputs");
+            List<Output> outs = new ArrayList<>();
+            while (in.nextElement()) {
+                String p = ptr + "/" + outs.size();
+                locations.put(p, in.line(), in.column());
+                in.expect(JsonToken.START_OBJECT, p, "an output object {\"name\": ..., \"node\": ...}");
+                String name = null;
+                Integer node = null;
+                String m;
+                while ((m = in.nextProperty()) != null) {
+                    switch (m) {
+                        case "name" -> name = in.readString(p + "/name");
+                        case "node" -> node = in.readInt(p + "/node", 0, Integer.MAX_VALUE);
+                        default -> {
+                            unknown(p + "/" + m, "unknown property \"" + m + "\" in an output");
+                            in.skipValue();
+                        }
+                    }
+                }
+                SourceLocation at = locations.build().get(p);
+                if (name == null || node == null) {
+                    throw new FormatException(file, at.line(), at.column(), p,
+                            "an output needs \"name\" and \"node\"; missing " + (name == null ? "\"name\"" : "\"node\""));
+                }
+                outs.add(new Output(name, node));
+            }
+            return outs;
+        }
+
+        private Checks readChecks(String ptr) throws FormatException {
+            in.expect(JsonToken.START_OBJECT, ptr, "an object");
+            double atol = Checks.DEFAULT_TOLERANCE;
+            double rtol = Checks.DEFAULT_TOLERANCE;
+            List<CheckCase> cases = new ArrayList<>();
+            String m;
+            while ((m = in.nextProperty()) != null) {
+                String p = ptr + "/" + m;
+                switch (m) {
+                    case "atol" -> atol = in.readDouble(p);
+                    case "rtol" -> rtol = in.readDouble(p);
+                    case "cases" -> {
+                        in.expect(JsonToken.START_ARRAY, p, "an array of cases");
+                        while (in.nextElement()) {
+                            cases.add(readCase(p + "/" + cases.size()));
+                        }
+                    }
+                    default -> {
+                        unknown(p, "unknown property \"" + m + "\" in checks");
+                        in.skipValue();
+                    }
+                }
+            }
+            return new Checks(atol, rtol, cases);
+        }
+
+        private CheckCase readCase(String p) throws FormatException {
+            locations.put(p, in.line(), in.column());
+            int line = in.line();
+            int col = in.column();
+            in.expect(JsonToken.START_OBJECT, p, "a case object");
+            String output = null;
+            Map<String, Object> values = null;
+            Double logDensity = null;
+            boolean sawDensity = false;
+            String m;
+            while ((m = in.nextProperty()) != null) {
+                String q = p + "/" + m;
+                switch (m) {
+                    case "output" -> output = in.readString(q);
+                    case "values" -> {
+                        in.expect(JsonToken.START_OBJECT, q, "an object of values keyed by variable name");
+                        values = new LinkedHashMap<>();
+                        String v;
+                        while ((v = in.nextProperty()) != null) {
+                            String r = q + "/" + v;
+                            if (in.token() == JsonToken.VALUE_STRING) {
+                                values.put(v, in.readString(r));
+                            } else {
+                                values.put(v, in.readDouble(r));
+                            }
+                        }
+                    }
+                    case "logDensity" -> {
+                        sawDensity = true;
+                        logDensity = in.token() == JsonToken.VALUE_NULL ? Double.NEGATIVE_INFINITY : in.readDouble(q);
+                    }
+                    default -> {
+                        unknown(q, "unknown property \"" + m + "\" in a check case");
+                        in.skipValue();
+                    }
+                }
+            }
+            if (!sawDensity) {
+                throw new FormatException(file, line, col, p, "a check case needs \"logDensity\" (a number, or null for -inf)");
+            }
+            return new CheckCase(output, values == null ? Map.of() : values, logDensity);
+        }
+
+        private void readNodes(String ptr) throws FormatException {
+            in.expect(JsonToken.START_ARRAY, ptr, "an array of nodes");
+            while (in.nextElement()) {
+                int index = nodes.size();
+                if (index >= limits.maxNodes()) {
+                    throw LimitExceededException.of(file, in.line(), in.column(), ptr + "/" + index,
+                            "the number of nodes", ReadLimits.MAX_NODES, limits.maxNodes());
+                }
+                nodeLocations.add(in.line(), in.column());
+                nodes.add(readNode(ptr + "/" + index, in.line(), in.column()));
+            }
+        }
+
+        private Node readNode(String p, int line, int col) throws FormatException {
+            in.expect(JsonToken.START_OBJECT, p, "a node object");
+            NodeFields f = fields;
+            f.reset();
+            String m;
+            while ((m = in.nextProperty()) != null) {
+                String q = p + "/" + m;
+                switch (m) {
+                    case "id" -> f.id = in.readInt(q, 0, Integer.MAX_VALUE);
+                    case "label" -> f.label = in.readString(q);
+                    case "input" -> {
+                        f.kinds++;
+                        String fam = in.readString(q);
+                        f.family = Family.fromJsonName(fam);
+                        if (f.family == null) {
+                            throw in.error(q, "unknown input family \"" + fam + "\"; expected one of "
+                                    + familyNames());
+                        }
+                    }
+                    case "product" -> {
+                        f.kinds++;
+                        f.isProduct = true;
+                        f.children = readIds(q);
+                    }
+                    case "sum" -> {
+                        f.kinds++;
+                        f.isSum = true;
+                        f.children = readIds(q);
+                    }
+                    case "weights" -> {
+                        f.weightForms++;
+                        f.weights = in.readDoubleArray(q);
+                    }
+                    case "logWeights" -> {
+                        f.weightForms++;
+                        f.weights = in.readDoubleArray(q);
+                        f.logWeights = true;
+                    }
+                    case "var" -> f.vars = new int[] {in.readInt(q, 0, Integer.MAX_VALUE)};
+                    case "vars" -> {
+                        f.varsArray = true;
+                        f.vars = in.readIntArray(q, 0, Integer.MAX_VALUE);
+                    }
+                    default -> {
+                        if (ParamNames.isParameter(m)) {
+                            f.paramLocations.put(m, new int[] {in.line(), in.column()});
+                            f.params.put(m, readParamValue(q));
+                        } else {
+                            unknown(q, "unknown property \"" + m + "\" in a node");
+                            in.skipValue();
+                        }
+                    }
+                }
+            }
+            return f.build(p, line, col, this);
+        }
+
+        private int[] readIds(String q) throws FormatException {
+            in.expect(JsonToken.START_ARRAY, q, "an array of node ids");
+            int n = 0;
+            while (in.nextElement()) {
+                if (n == intBuffer.length) {
+                    intBuffer = Arrays.copyOf(intBuffer, n * 2);
+                }
+                intBuffer[n] = in.readInt(q + "/" + n, 0, Integer.MAX_VALUE);
+                n++;
+            }
+            return Arrays.copyOf(intBuffer, n);
+        }
+
+        /** A parameter value: a number, an array of numbers or an array of arrays of numbers. */
+        private Object readParamValue(String q) throws FormatException {
+            if (in.token() == JsonToken.START_ARRAY) {
+                List<Object> rows = new ArrayList<>();
+                double[] flat = new double[8];
+                int n = 0;
+                boolean nested = false;
+                while (in.nextElement()) {
+                    String r = q + "/" + (nested ? rows.size() : n);
+                    if (in.token() == JsonToken.START_ARRAY) {
+                        if (n > 0) {
+                            throw in.error(r, "expected a number like the elements before it, found an array");
+                        }
+                        nested = true;
+                        rows.add(in.readDoubleArray(r));
+                    } else {
+                        if (nested) {
+                            throw in.error(r, "expected an array like the rows before it, found " + JsonInput.describe(in.token()));
+                        }
+                        if (n == flat.length) {
+                            flat = Arrays.copyOf(flat, n * 2);
+                        }
+                        flat[n++] = in.readDouble(r);
+                    }
+                }
+                if (nested) {
+                    return rows.toArray(new double[0][]);
+                }
+                return Arrays.copyOf(flat, n);
+            }
+            return in.readDouble(q);
+        }
+
+        FormatException error(String pointer, int line, int col, String problem) {
+            return new FormatException(file, line, col, pointer, problem);
+        }
+
+        void unknownAt(String pointer, int line, int col, String message) {
+            unknown.add(new ReadFinding(ReadFinding.Kind.UNKNOWN_PROPERTY, message, new SourceLocation(pointer, line, col)));
+        }
+    }
+
+    private static String familyNames() {
+        StringBuilder sb = new StringBuilder();
+        for (Family f : Family.values()) {
+            if (sb.length() > 0) {
+                sb.append(", ");
+            }
+            sb.append(f.jsonName());
+        }
+        return sb.toString();
+    }
+
+    /** The members of the node being read; reused from node to node. */
+    private static final class NodeFields {
+        Integer id;
+        String label;
+        int kinds;
+        Family family;
+        boolean isProduct;
+        boolean isSum;
+        int[] children;
+        int weightForms;
+        double[] weights;
+        boolean logWeights;
+        int[] vars;
+        boolean varsArray;
+        final Map<String, Object> params = new LinkedHashMap<>();
+        final Map<String, int[]> paramLocations = new LinkedHashMap<>();
+
+        void reset() {
+            id = null;
+            label = null;
+            kinds = 0;
+            family = null;
+            isProduct = false;
+            isSum = false;
+            children = null;
+            weightForms = 0;
+            weights = null;
+            logWeights = false;
+            vars = null;
+            varsArray = false;
+            params.clear();
+            paramLocations.clear();
+        }
+
+        Node build(String p, int line, int col, Pass pass) throws FormatException {
+            if (id == null) {
+                throw pass.error(p + "/id", line, col, "a node needs an integer \"id\"");
+            }
+            if (kinds == 0) {
+                throw pass.error(p, line, col, "node " + id + " has no kind; expected one of \"input\", \"product\" or \"sum\"");
+            }
+            if (kinds > 1) {
+                throw pass.error(p, line, col, "node " + id + " has more than one kind; expected exactly one of \"input\", \"product\" or \"sum\"");
+            }
+            if (isProduct || isSum) {
+                if (vars != null) {
+                    throw pass.error(p, line, col, "node " + id + " is a " + (isSum ? "sum" : "product")
+                            + " and cannot have \"var\" or \"vars\"");
+                }
+                for (String name : params.keySet()) {
+                    int[] at = paramLocations.get(name);
+                    pass.unknownAt(p + "/" + name, at[0], at[1], "unknown property \"" + name + "\" in a "
+                            + (isSum ? "sum" : "product") + " node");
+                }
+            }
+            if (isProduct) {
+                if (weightForms > 0) {
+                    throw pass.error(p, line, col, "product node " + id + " cannot have weights; only sums are weighted");
+                }
+                return new ProductNode(id, label, children);
+            }
+            if (isSum) {
+                if (weightForms == 0) {
+                    throw pass.error(p, line, col, "sum node " + id + " needs \"weights\" or \"logWeights\", one per child");
+                }
+                if (weightForms > 1) {
+                    throw pass.error(p, line, col, "sum node " + id + " has both \"weights\" and \"logWeights\"; expected exactly one");
+                }
+                return new SumNode(id, label, children, weights, logWeights);
+            }
+            return buildInput(p, line, col, pass);
+        }
+
+        private Node buildInput(String p, int line, int col, Pass pass) throws FormatException {
+            if (weightForms > 0) {
+                throw pass.error(p, line, col, "input node " + id + " cannot have weights; only sums are weighted");
+            }
+            boolean mv = family == Family.MVNORMAL;
+            if (vars == null) {
+                throw pass.error(p, line, col, "input node " + id + " needs " + (mv ? "\"vars\"" : "\"var\"")
+                        + " (a variable index" + (mv ? " array" : "") + ")");
+            }
+            if (mv != varsArray) {
+                throw pass.error(p, line, col, mv ? "mvnormal node " + id + " needs \"vars\" (an array of variable indices), not \"var\""
+                        : family.jsonName() + " node " + id + " needs \"var\" (one variable index), not \"vars\"");
+            }
+            double[] values;
+            boolean logForm = false;
+            String fam = family.jsonName();
+            switch (family) {
+                case CATEGORICAL -> {
+                    boolean hasProbs = params.containsKey("probs");
+                    boolean hasLog = params.containsKey("logProbs");
+                    if (hasProbs == hasLog) {
+                        throw pass.error(p, line, col, "categorical node " + id
+                                + " needs exactly one of \"probs\" or \"logProbs\"");
+                    }
+                    logForm = hasLog;
+                    values = vector(hasLog ? "logProbs" : "probs", p, line, col, pass);
+                    rejectOthers(p, pass, hasLog ? "logProbs" : "probs");
+                }
+                case MVNORMAL -> {
+                    double[] mean = vector("mean", p, line, col, pass);
+                    Object c = params.get("cov");
+                    if (!(c instanceof double[][] cov)) {
+                        throw pass.error(p + "/cov", line, col, "mvnormal node " + id
+                                + " needs \"cov\", a d x d array of arrays of numbers");
+                    }
+                    int d = mean.length;
+                    if (vars.length != d || cov.length != d) {
+                        throw pass.error(p, line, col, "mvnormal node " + id + " has " + vars.length + " vars, a mean of length "
+                                + d + " and " + cov.length + " covariance rows; expected the same number d");
+                    }
+                    values = new double[d + d * d];
+                    System.arraycopy(mean, 0, values, 0, d);
+                    for (int i = 0; i < d; i++) {
+                        if (cov[i].length != d) {
+                            throw pass.error(p + "/cov/" + i, line, col, "covariance row " + i + " of mvnormal node " + id
+                                    + " has " + cov[i].length + " entries; expected " + d);
+                        }
+                        System.arraycopy(cov[i], 0, values, d + i * d, d);
+                    }
+                    rejectOthers(p, pass, "mean", "cov");
+                }
+                default -> {
+                    List<String> names = family.parameters();
+                    values = new double[names.size()];
+                    for (int i = 0; i < values.length; i++) {
+                        Object v = params.get(names.get(i));
+                        if (v == null) {
+                            throw pass.error(p, line, col, fam + " node " + id + " needs \"" + names.get(i) + "\" (a number)");
+                        }
+                        if (!(v instanceof Double d)) {
+                            int[] at = paramLocations.get(names.get(i));
+                            throw pass.error(p + "/" + names.get(i), at[0], at[1], "\"" + names.get(i) + "\" of " + fam
+                                    + " node " + id + " must be a number, found an array");
+                        }
+                        values[i] = d;
+                    }
+                    rejectOthers(p, pass, names.toArray(new String[0]));
+                }
+            }
+            return new InputNode(id, label, family, vars, values, logForm);
+        }
+
+        private double[] vector(String name, String p, int line, int col, Pass pass) throws FormatException {
+            Object v = params.get(name);
+            if (!(v instanceof double[] a)) {
+                int[] at = paramLocations.getOrDefault(name, new int[] {line, col});
+                throw pass.error(p + "/" + name, at[0], at[1], family.jsonName() + " node " + id + " needs \"" + name
+                        + "\", an array of numbers");
+            }
+            return a;
+        }
+
+        private void rejectOthers(String p, Pass pass, String... allowed) {
+            List<String> ok = List.of(allowed);
+            for (Map.Entry<String, int[]> e : paramLocations.entrySet()) {
+                if (!ok.contains(e.getKey())) {
+                    pass.unknownAt(p + "/" + e.getKey(), e.getValue()[0], e.getValue()[1], "unknown property \""
+                            + e.getKey() + "\" for a " + family.jsonName() + " input");
+                }
+            }
+        }
+    }
+}

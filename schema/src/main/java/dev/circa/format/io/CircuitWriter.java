@@ -1,0 +1,288 @@
+package dev.circa.format.io;
+
+import dev.circa.format.CheckCase;
+import dev.circa.format.Checks;
+import dev.circa.format.CircuitDocument;
+import dev.circa.format.Family;
+import dev.circa.format.InputNode;
+import dev.circa.format.Node;
+import dev.circa.format.Output;
+import dev.circa.format.ProductNode;
+import dev.circa.format.Provenance;
+import dev.circa.format.SumNode;
+import dev.circa.format.Variable;
+import java.io.IOException;
+import java.io.OutputStream;
+import java.nio.file.Path;
+import java.util.List;
+import java.util.Map;
+import tools.jackson.core.JacksonException;
+import tools.jackson.core.JsonGenerator;
+import tools.jackson.databind.ObjectMapper;
+
+/**
+ * Writes a circuit document in the canonical member order of FORMAT.md (format, version, name,
+ * description, provenance, variables, nodes, outputs, checks, extensions), nodes in the order
+ * given (children first when the document is valid), one node per line. Every double is written
+ * so that it reads back bit for bit ({@link Double#toString(double)} round-trips). Stateless and
+ * thread-safe.
+ */
+public final class CircuitWriter {
+    private static final ObjectMapper MAPPER = JsonInput.mapperFor(ReadLimits.DEFAULT);
+
+    /** Writes {@code doc} to {@code target} whole or not at all ({@code .gz} compressed, {@code -} standard output). */
+    public void write(CircuitDocument doc, Path target, Path... inputs) throws IOException {
+        AtomicOutput.write(target, out -> write(doc, out), inputs);
+    }
+
+    /** Writes {@code doc} to {@code out} (not closed). */
+    public void write(CircuitDocument doc, OutputStream out) throws IOException {
+        try (JsonGenerator g = MAPPER.createGenerator(new NonClosing(out))) {
+            g.writeStartObject();
+            g.writeRaw("\n");
+            g.writeName("format");
+            g.writeString(CircuitDocument.FORMAT);
+            g.writeName("version");
+            g.writeString(doc.version() == null ? "1.0" : doc.version());
+            if (doc.name() != null) {
+                g.writeName("name");
+                g.writeString(doc.name());
+            }
+            if (doc.description() != null) {
+                g.writeName("description");
+                g.writeString(doc.description());
+            }
+            if (doc.provenance() != null) {
+                writeProvenance(g, doc.provenance());
+            }
+            writeVariables(g, doc.variables());
+            g.writeRaw("\n");
+            g.writeName("nodes");
+            g.writeStartArray();
+            for (Node n : doc.nodes()) {
+                g.writeRaw("\n");
+                writeNode(g, n);
+            }
+            g.writeRaw("\n");
+            g.writeEndArray();
+            g.writeRaw("\n");
+            g.writeName("outputs");
+            g.writeStartArray();
+            for (Output o : doc.outputs()) {
+                g.writeStartObject();
+                g.writeName("name");
+                g.writeString(o.name());
+                g.writeName("node");
+                g.writeNumber(o.node());
+                g.writeEndObject();
+            }
+            g.writeEndArray();
+            if (doc.checks() != null) {
+                writeChecks(g, doc.checks());
+            }
+            if (doc.extensions() != null) {
+                g.writeRaw("\n");
+                g.writeName("extensions");
+                g.writeTree(doc.extensions());
+            }
+            g.writeRaw("\n");
+            g.writeEndObject();
+            g.writeRaw("\n");
+        } catch (JacksonException e) {
+            Throwable c = e.getCause();
+            if (c instanceof IOException io) {
+                throw io;
+            }
+            throw new IOException(e.getMessage(), e);
+        }
+    }
+
+    private static void writeProvenance(JsonGenerator g, Provenance p) {
+        g.writeRaw("\n");
+        g.writeName("provenance");
+        g.writeStartObject();
+        if (p.producer() != null) {
+            g.writeName("producer");
+            g.writeString(p.producer());
+        }
+        if (p.created() != null) {
+            g.writeName("created");
+            g.writeString(p.created());
+        }
+        if (p.source() != null) {
+            g.writeName("source");
+            g.writeString(p.source());
+        }
+        g.writeEndObject();
+    }
+
+    /** Writes a {@code variables} member (shared with the other document writers). */
+    public static void writeVariables(JsonGenerator g, List<Variable> variables) {
+        g.writeRaw("\n");
+        g.writeName("variables");
+        g.writeStartArray();
+        for (Variable v : variables) {
+            g.writeRaw("\n  ");
+            g.writeStartObject();
+            g.writeName("name");
+            g.writeString(v.name());
+            g.writeName("type");
+            g.writeString(v.type().jsonName());
+            if (!v.states().isEmpty()) {
+                g.writeName("states");
+                g.writeStartArray();
+                for (String s : v.states()) {
+                    g.writeString(s);
+                }
+                g.writeEndArray();
+            }
+            if (v.unit() != null) {
+                g.writeName("unit");
+                g.writeString(v.unit());
+            }
+            if (v.description() != null) {
+                g.writeName("description");
+                g.writeString(v.description());
+            }
+            g.writeEndObject();
+        }
+        g.writeRaw("\n");
+        g.writeEndArray();
+    }
+
+    private static void writeNode(JsonGenerator g, Node n) {
+        g.writeStartObject();
+        g.writeName("id");
+        g.writeNumber(n.id());
+        if (n.label() != null) {
+            g.writeName("label");
+            g.writeString(n.label());
+        }
+        if (n instanceof InputNode in) {
+            writeInput(g, in);
+        } else if (n instanceof ProductNode p) {
+            g.writeName("product");
+            writeInts(g, p.children());
+        } else if (n instanceof SumNode s) {
+            g.writeName("sum");
+            writeInts(g, s.children());
+            g.writeName(s.logWeights() ? "logWeights" : "weights");
+            writeDoubles(g, s.weights(), 0, s.weights().length);
+        }
+        g.writeEndObject();
+    }
+
+    private static void writeInput(JsonGenerator g, InputNode in) {
+        Family f = in.family();
+        g.writeName("input");
+        g.writeString(f.jsonName());
+        double[] p = in.params();
+        if (f == Family.MVNORMAL) {
+            g.writeName("vars");
+            writeInts(g, in.vars());
+            int d = in.vars().length;
+            g.writeName("mean");
+            writeDoubles(g, p, 0, d);
+            g.writeName("cov");
+            g.writeStartArray();
+            for (int i = 0; i < d; i++) {
+                writeDoubles(g, p, d + i * d, d);
+            }
+            g.writeEndArray();
+            return;
+        }
+        g.writeName("var");
+        g.writeNumber(in.var());
+        if (f == Family.CATEGORICAL) {
+            g.writeName(in.logForm() ? "logProbs" : "probs");
+            writeDoubles(g, p, 0, p.length);
+            return;
+        }
+        List<String> names = f.parameters();
+        for (int i = 0; i < names.size(); i++) {
+            g.writeName(names.get(i));
+            writeNumber(g, p[i], f == Family.BINOMIAL && i == 0 || f == Family.INDICATOR);
+        }
+    }
+
+    private static void writeNumber(JsonGenerator g, double v, boolean integral) {
+        if (integral && v == Math.rint(v) && Math.abs(v) < 9.007199254740992E15) {
+            g.writeNumber((long) v);
+        } else {
+            g.writeNumber(v);
+        }
+    }
+
+    private static void writeChecks(JsonGenerator g, Checks c) {
+        g.writeRaw("\n");
+        g.writeName("checks");
+        g.writeStartObject();
+        g.writeName("atol");
+        g.writeNumber(c.atol());
+        g.writeName("rtol");
+        g.writeNumber(c.rtol());
+        g.writeName("cases");
+        g.writeStartArray();
+        for (CheckCase cc : c.cases()) {
+            g.writeRaw("\n  ");
+            g.writeStartObject();
+            if (cc.output() != null) {
+                g.writeName("output");
+                g.writeString(cc.output());
+            }
+            g.writeName("values");
+            g.writeStartObject();
+            for (Map.Entry<String, Object> e : cc.values().entrySet()) {
+                g.writeName(e.getKey());
+                if (e.getValue() instanceof Number num) {
+                    g.writeNumber(num.doubleValue());
+                } else {
+                    g.writeString(String.valueOf(e.getValue()));
+                }
+            }
+            g.writeEndObject();
+            g.writeName("logDensity");
+            if (cc.logDensity() == Double.NEGATIVE_INFINITY) {
+                g.writeNull();
+            } else {
+                g.writeNumber(cc.logDensity());
+            }
+            g.writeEndObject();
+        }
+        g.writeEndArray();
+        g.writeEndObject();
+    }
+
+    private static void writeInts(JsonGenerator g, int[] a) {
+        g.writeStartArray();
+        for (int v : a) {
+            g.writeNumber(v);
+        }
+        g.writeEndArray();
+    }
+
+    private static void writeDoubles(JsonGenerator g, double[] a, int from, int len) {
+        g.writeStartArray();
+        for (int i = from; i < from + len; i++) {
+            g.writeNumber(a[i]);
+        }
+        g.writeEndArray();
+    }
+
+    /** Keeps the generator from closing the caller's stream. */
+    private static final class NonClosing extends java.io.FilterOutputStream {
+        NonClosing(OutputStream out) {
+            super(out);
+        }
+
+        @Override
+        public void write(byte[] b, int off, int len) throws IOException {
+            out.write(b, off, len);
+        }
+
+        @Override
+        public void close() throws IOException {
+            flush();
+        }
+    }
+}

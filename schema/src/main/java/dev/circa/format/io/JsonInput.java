@@ -1,0 +1,384 @@
+package dev.circa.format.io;
+
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.file.Path;
+import java.util.Arrays;
+import java.util.Locale;
+import tools.jackson.core.JacksonException;
+import tools.jackson.core.JsonParser;
+import tools.jackson.core.JsonToken;
+import tools.jackson.core.StreamReadConstraints;
+import tools.jackson.core.StreamReadFeature;
+import tools.jackson.core.TokenStreamLocation;
+import tools.jackson.core.exc.StreamConstraintsException;
+import tools.jackson.core.json.JsonFactory;
+import tools.jackson.core.json.JsonReadFeature;
+import tools.jackson.databind.JsonNode;
+import tools.jackson.databind.ObjectMapper;
+import tools.jackson.databind.json.JsonMapper;
+
+/**
+ * A token-by-token reader over JSON (or YAML, through any Jackson parser) that turns every problem
+ * into a located {@link FormatException}: syntax errors, wrong types, non-finite numbers, duplicate
+ * keys and limits. The document readers of circa are built on it. Not thread-safe.
+ */
+public final class JsonInput implements AutoCloseable {
+    private final JsonParser parser;
+    private final String file;
+
+    /** Wraps an existing parser (its stream-read constraints should come from {@link #mapperFor(ReadLimits)}). */
+    public JsonInput(JsonParser parser, String file) {
+        this.parser = parser;
+        this.file = file;
+    }
+
+    /** Opens a JSON file (or standard input for {@code -}) under {@code limits}. */
+    public static JsonInput openJson(Path path, ReadLimits limits) throws FormatException {
+        InputStream in = InputFiles.open(path, limits.maxBytes());
+        return fromStream(in, InputFiles.displayName(path), limits);
+    }
+
+    /** Reads JSON from {@code in} under {@code limits}; {@code file} names it in messages. */
+    public static JsonInput fromStream(InputStream in, String file, ReadLimits limits) throws FormatException {
+        try {
+            return new JsonInput(mapperFor(limits).createParser(in), file);
+        } catch (JacksonException e) {
+            throw translate(e, file);
+        }
+    }
+
+    /** A JSON mapper that enforces {@code limits}, rejects duplicate keys and NaN literals. */
+    public static ObjectMapper mapperFor(ReadLimits limits) {
+        JsonFactory factory = JsonFactory.builder()
+                .streamReadConstraints(constraints(limits))
+                .enable(StreamReadFeature.STRICT_DUPLICATE_DETECTION)
+                .disable(JsonReadFeature.ALLOW_NON_NUMERIC_NUMBERS)
+                .build();
+        return JsonMapper.builder(factory).build();
+    }
+
+    /** The Jackson constraints that implement {@code limits}. */
+    public static StreamReadConstraints constraints(ReadLimits limits) {
+        return StreamReadConstraints.builder()
+                .maxNestingDepth(limits.maxDepth())
+                .maxNumberLength(limits.maxNumber())
+                .maxStringLength(limits.maxString())
+                .maxNameLength(Math.max(limits.maxString(), 1))
+                .maxDocumentLength(-1)
+                .build();
+    }
+
+    /** The file name used in messages. */
+    public String file() {
+        return file;
+    }
+
+    /** The underlying parser (for callers that need raw access). */
+    public JsonParser parser() {
+        return parser;
+    }
+
+    /** Advances to the next token; {@code null} at the end of input. */
+    public JsonToken next() throws FormatException {
+        try {
+            return parser.nextToken();
+        } catch (JacksonException e) {
+            throw translate(e, file);
+        }
+    }
+
+    /** The current token. */
+    public JsonToken token() {
+        return parser.currentToken();
+    }
+
+    /** The current property name (after a {@link JsonToken#PROPERTY_NAME}). */
+    public String name() {
+        return parser.currentName();
+    }
+
+    /** Line of the current token (1-based). */
+    public int line() {
+        TokenStreamLocation l = parser.currentTokenLocation();
+        return l == null ? 0 : Math.max(l.getLineNr(), 0);
+    }
+
+    /** Column of the current token (1-based). */
+    public int column() {
+        TokenStreamLocation l = parser.currentTokenLocation();
+        return l == null ? 0 : Math.max(l.getColumnNr(), 0);
+    }
+
+    /** A located error at the current token. */
+    public FormatException error(String pointer, String problem) {
+        return new FormatException(file, line(), column(), pointer, problem);
+    }
+
+    /** Reads the first token and requires an object. */
+    public void startDocument(String what) throws FormatException {
+        JsonToken t = next();
+        if (t == null) {
+            throw new FormatException(file, 1, 1, "", "the file is empty; expected " + what);
+        }
+        if (t != JsonToken.START_OBJECT) {
+            throw error("", "expected " + what + " (a JSON object), found " + describe(t));
+        }
+    }
+
+    /** After the root object closes: requires the end of input. */
+    public void endDocument() throws FormatException {
+        JsonToken t = next();
+        if (t != null) {
+            throw error("", "unexpected content after the end of the document: " + describe(t));
+        }
+    }
+
+    /** Requires the current token to be {@code expected}. */
+    public void expect(JsonToken expected, String pointer, String what) throws FormatException {
+        JsonToken t = token();
+        if (t != expected) {
+            throw error(pointer, "expected " + what + ", found " + describe(t));
+        }
+    }
+
+    /** The next property name inside the current object, or {@code null} at its end. */
+    public String nextProperty() throws FormatException {
+        JsonToken t = next();
+        if (t == JsonToken.END_OBJECT) {
+            return null;
+        }
+        if (t != JsonToken.PROPERTY_NAME) {
+            throw error(null, "expected a property name or '}', found " + describe(t));
+        }
+        String n = parser.currentName();
+        next();
+        return n;
+    }
+
+    /** Whether the current array has another element (advances onto it). */
+    public boolean nextElement() throws FormatException {
+        JsonToken t = next();
+        if (t == null) {
+            throw error(null, "the input ends inside an array");
+        }
+        return t != JsonToken.END_ARRAY;
+    }
+
+    /** Skips the current value (and its children). */
+    public void skipValue() throws FormatException {
+        try {
+            parser.skipChildren();
+        } catch (JacksonException e) {
+            throw translate(e, file);
+        }
+    }
+
+    /** Reads the current value as a tree (for free-form members such as {@code extensions}). */
+    public JsonNode readTree() throws FormatException {
+        try {
+            JsonNode n = parser.readValueAsTree();
+            return n;
+        } catch (JacksonException e) {
+            throw translate(e, file);
+        }
+    }
+
+    /** The current value as a string. */
+    public String readString(String pointer) throws FormatException {
+        if (token() != JsonToken.VALUE_STRING) {
+            throw error(pointer, "expected a string, found " + describe(token()));
+        }
+        try {
+            return parser.getString();
+        } catch (JacksonException e) {
+            throw translate(e, file);
+        }
+    }
+
+    /** The current value as a string, or {@code null} for JSON null. */
+    public String readNullableString(String pointer) throws FormatException {
+        return token() == JsonToken.VALUE_NULL ? null : readString(pointer);
+    }
+
+    /** Whether the current token is a number. */
+    public boolean isNumber() {
+        JsonToken t = token();
+        return t == JsonToken.VALUE_NUMBER_INT || t == JsonToken.VALUE_NUMBER_FLOAT;
+    }
+
+    /** The current value as a finite double. */
+    public double readDouble(String pointer) throws FormatException {
+        if (!isNumber()) {
+            throw error(pointer, "expected a number, found " + describe(token()));
+        }
+        double v;
+        try {
+            v = parser.getDoubleValue();
+        } catch (JacksonException e) {
+            throw translate(e, file);
+        }
+        if (!Double.isFinite(v)) {
+            throw error(pointer, "the number " + abbreviate(parser) + " is out of double range; expected a finite number");
+        }
+        return v;
+    }
+
+    /** The current value as an integer in [{@code min}, {@code max}]; an integral float such as 2.0 is accepted. */
+    public long readLong(String pointer, long min, long max) throws FormatException {
+        if (!isNumber()) {
+            throw error(pointer, "expected an integer, found " + describe(token()));
+        }
+        long v;
+        try {
+            if (token() == JsonToken.VALUE_NUMBER_INT) {
+                JsonParser.NumberType nt = parser.getNumberType();
+                if (nt == JsonParser.NumberType.BIG_INTEGER) {
+                    throw error(pointer, "the integer " + abbreviate(parser) + " is out of range; expected an integer from "
+                            + min + " to " + max);
+                }
+                v = parser.getLongValue();
+            } else {
+                double d = parser.getDoubleValue();
+                if (d != Math.rint(d) || Math.abs(d) > 9.007199254740992E15) {
+                    throw error(pointer, "expected an integer, found " + parser.getText());
+                }
+                v = (long) d;
+            }
+        } catch (JacksonException e) {
+            throw translate(e, file);
+        }
+        if (v < min || v > max) {
+            throw error(pointer, "the integer " + v + " is out of range; expected an integer from " + min + " to " + max);
+        }
+        return v;
+    }
+
+    /** The current value as an int in [{@code min}, {@code max}]. */
+    public int readInt(String pointer, int min, int max) throws FormatException {
+        return (int) readLong(pointer, min, max);
+    }
+
+    /** Reads an array of finite numbers (the current token must start it). */
+    public double[] readDoubleArray(String pointer) throws FormatException {
+        expect(JsonToken.START_ARRAY, pointer, "an array of numbers");
+        double[] buf = new double[8];
+        int n = 0;
+        while (nextElement()) {
+            if (n == buf.length) {
+                buf = Arrays.copyOf(buf, n * 2);
+            }
+            buf[n] = readDouble(pointer + "/" + n);
+            n++;
+        }
+        return Arrays.copyOf(buf, n);
+    }
+
+    /** Reads an array of ints in [{@code min}, {@code max}] (the current token must start it). */
+    public int[] readIntArray(String pointer, int min, int max) throws FormatException {
+        expect(JsonToken.START_ARRAY, pointer, "an array of integers");
+        int[] buf = new int[8];
+        int n = 0;
+        while (nextElement()) {
+            if (n == buf.length) {
+                buf = Arrays.copyOf(buf, n * 2);
+            }
+            buf[n] = readInt(pointer + "/" + n, min, max);
+            n++;
+        }
+        return Arrays.copyOf(buf, n);
+    }
+
+    @Override
+    public void close() throws FormatException {
+        try {
+            parser.close();
+        } catch (JacksonException e) {
+            throw translate(e, file);
+        }
+    }
+
+    /** A short description of a token for messages. */
+    public static String describe(JsonToken t) {
+        if (t == null) {
+            return "the end of the input";
+        }
+        return switch (t) {
+            case START_OBJECT -> "an object";
+            case END_OBJECT -> "'}'";
+            case START_ARRAY -> "an array";
+            case END_ARRAY -> "']'";
+            case PROPERTY_NAME -> "a property name";
+            case VALUE_STRING -> "a string";
+            case VALUE_NUMBER_INT -> "an integer";
+            case VALUE_NUMBER_FLOAT -> "a number";
+            case VALUE_TRUE, VALUE_FALSE -> "a boolean";
+            case VALUE_NULL -> "null";
+            default -> t.name().toLowerCase(Locale.ROOT);
+        };
+    }
+
+    private static String abbreviate(JsonParser p) {
+        String s = p.getText();
+        return s.length() > 40 ? s.substring(0, 20) + "..." + " (" + s.length() + " characters)" : s;
+    }
+
+    /** Turns a Jackson exception into a located {@link FormatException}. */
+    public static FormatException translate(JacksonException e, String file) {
+        Throwable c = e.getCause();
+        while (c != null) {
+            if (c instanceof FormatException fe) {
+                return fe;
+            }
+            c = c.getCause();
+        }
+        TokenStreamLocation l = e.getLocation();
+        int line = l == null ? 0 : Math.max(0, l.getLineNr());
+        int col = l == null ? 0 : Math.max(0, l.getColumnNr());
+        String msg = e.getOriginalMessage();
+        if (msg == null) {
+            msg = e.getClass().getSimpleName();
+        }
+        if (e instanceof StreamConstraintsException) {
+            return limitFrom(msg, file, line, col);
+        }
+        if (msg.startsWith("Duplicate Object property") || msg.startsWith("Duplicate field")
+                || msg.contains("Duplicate Object property")) {
+            return new FormatException(file, line, col, null,
+                    "duplicate key: " + firstLine(msg) + "; every key may appear once in an object");
+        }
+        if (msg.contains("Non-standard token 'NaN'") || msg.contains("'Infinity'") || msg.contains("'NaN'")) {
+            return new FormatException(file, line, col, null,
+                    "NaN and Infinity are not JSON numbers; expected a finite number");
+        }
+        if (e.getCause() instanceof IOException io && !(e.getCause() instanceof java.io.CharConversionException)) {
+            return new FormatException(file, line, col, null, "cannot be read: " + io.getMessage());
+        }
+        return new FormatException(file, line, col, null, "not valid JSON: " + firstLine(msg));
+    }
+
+    private static FormatException limitFrom(String msg, String file, int line, int col) {
+        String lower = msg.toLowerCase(Locale.ROOT);
+        if (lower.contains("nesting depth")) {
+            return new LimitExceededException(file, line, col, null,
+                    "the nesting depth exceeds the limit set by " + ReadLimits.MAX_DEPTH + " (raise it with "
+                            + ReadLimits.MAX_DEPTH + "): " + firstLine(msg), ReadLimits.MAX_DEPTH);
+        }
+        if (lower.contains("number value length") || lower.contains("number length")) {
+            return new LimitExceededException(file, line, col, null,
+                    "a number is longer than the limit set by " + ReadLimits.MAX_NUMBER + " (raise it with "
+                            + ReadLimits.MAX_NUMBER + "): " + firstLine(msg), ReadLimits.MAX_NUMBER);
+        }
+        if (lower.contains("string value length") || lower.contains("name length")) {
+            return new LimitExceededException(file, line, col, null,
+                    "a string is longer than the limit set by " + ReadLimits.MAX_STRING + " (raise it with "
+                            + ReadLimits.MAX_STRING + "): " + firstLine(msg), ReadLimits.MAX_STRING);
+        }
+        return new FormatException(file, line, col, null, "a read limit was hit: " + firstLine(msg));
+    }
+
+    private static String firstLine(String s) {
+        int i = s.indexOf('\n');
+        return i < 0 ? s : s.substring(0, i);
+    }
+}
