@@ -190,7 +190,8 @@ public final class SchemaCatalog {
                 at = "";
             }
             String keyword = e.getKeyword();
-            if ("additionalProperties".equals(keyword) && e.getProperty() != null) {
+            if (("additionalProperties".equals(keyword) || "unevaluatedProperties".equals(keyword))
+                    && e.getProperty() != null) {
                 at = at + "/" + escape(e.getProperty());
             }
             out.add(new SchemaViolation(prefix + at, keyword, e.getMessage()));
