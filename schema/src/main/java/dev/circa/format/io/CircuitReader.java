@@ -560,7 +560,8 @@ public final class CircuitReader {
                     double[] mean = vector("mean", p, line, col, pass);
                     Object c = params.get("cov");
                     if (!(c instanceof double[][] cov)) {
-                        throw pass.error(p + "/cov", line, col, "mvnormal node " + id
+                        int[] at = paramLocations.getOrDefault("cov", new int[] {line, col});
+                        throw pass.error(p + "/cov", at[0], at[1], "mvnormal node " + id
                                 + " needs \"cov\", a d x d array of arrays of numbers");
                     }
                     int d = mean.length;
