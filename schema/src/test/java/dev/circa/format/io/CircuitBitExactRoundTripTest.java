@@ -36,7 +36,12 @@ import tools.jackson.databind.json.JsonMapper;
 /** read(write(x)) == x, every double bit for bit (FORMAT.md section 2: "writers emit each double so that it reads back bit for bit"). */
 class CircuitBitExactRoundTripTest {
     private static final Path EXAMPLE = Path.of("..", "fixtures", "circuits", "pump-station.json");
-    /** The hard cases named in issue 2: a non-terminating binary fraction, 1/3, the smallest subnormal, the smallest normal, a huge value, negative zero. */
+    /**
+     * The hard cases named in issue 2. IEEE 754 binary64 (common practice): 0.1 and 1/3 have no finite
+     * binary expansion, 4.9e-324 is the smallest subnormal (Double.MIN_VALUE), 2.2250738585072014e-308 the
+     * smallest normal (Double.MIN_NORMAL), 1e300 is near the top of the range, and -0.0 differs from 0.0
+     * only in its sign bit.
+     */
     private static final double[] HARD = {0.1, 1.0 / 3.0, 4.9e-324, 2.2250738585072014e-308, 1e300, -0.0};
 
     @TempDir

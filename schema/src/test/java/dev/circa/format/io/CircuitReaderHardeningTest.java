@@ -69,6 +69,7 @@ class CircuitReaderHardeningTest {
         t.add(new Case("top-level array", () -> utf8("[1, 2]"), d, 1, 1, "", "expected a circuit document (a JSON object)"));
         t.add(new Case("content after the document", () -> utf8(HEAD + NORMAL + TAIL + "{}"), d, 7, 1, "",
                 "unexpected content after the end of the document"));
+        // RFC 8259 section 6: "Numeric values that cannot be represented ... (such as Infinity and NaN) are not permitted".
         // Column 49 is where NaN starts; Jackson reports the position where it stopped reading the token.
         t.add(new Case("NaN literal", () -> node("{\"id\": 0, \"input\": \"normal\", \"var\": 0, \"mean\": NaN, \"sd\": 1}"),
                 d, 4, 51, null, "NaN and Infinity are not JSON numbers"));
@@ -76,6 +77,7 @@ class CircuitReaderHardeningTest {
                 d, 4, 56, null, "NaN and Infinity are not JSON numbers"));
         t.add(new Case("-Infinity literal", () -> node("{\"id\": 0, \"input\": \"normal\", \"var\": 0, \"mean\": -Infinity, \"sd\": 1}"),
                 d, 4, 57, null, "NaN and Infinity are not JSON numbers"));
+        // IEEE 754 binary64: the largest finite value is about 1.8e308, so 1e999999 overflows (common practice).
         t.add(new Case("1e999999", () -> node("{\"id\": 0, \"input\": \"normal\", \"var\": 0, \"mean\": 1e999999, \"sd\": 1}"),
                 d, 4, 48, "/nodes/0/mean", "out of double range"));
         t.add(new Case("100,000-digit number", () -> node("{\"id\": 0, \"input\": \"normal\", \"var\": 0, \"mean\": "
@@ -86,6 +88,7 @@ class CircuitReaderHardeningTest {
                 d, 4, 8, "/nodes/0/id", "is out of range"));
         t.add(new Case("id 1e300", () -> node("{\"id\": 1e300, \"input\": \"normal\", \"var\": 0, \"mean\": 1, \"sd\": 1}"),
                 d, 4, 8, "/nodes/0/id", "expected an integer"));
+        // RFC 8259 section 4: names within an object SHOULD be unique; CLI.md makes a duplicate an error.
         t.add(new Case("duplicate key in a node", () -> node("{\"id\": 0, \"input\": \"normal\", \"var\": 0, \"mean\": 1, \"sd\": 1, \"mean\": 2}"),
                 d, 4, 66, null, "duplicate key"));
         t.add(new Case("duplicate top-level key", () -> utf8(HEAD + NORMAL + "\n],\n\"nodes\": []}"), d, 6, 8, null, "duplicate key"));
@@ -178,6 +181,7 @@ class CircuitReaderHardeningTest {
         }
     }
 
+    /** RFC 1952 section 2.2: a gzip file is a series of members; truncating one anywhere must be reported. */
     @Test
     void read_everyTruncationOfGzippedExample_formatException() throws Exception {
         byte[] gz = gzip(readExample());
@@ -411,6 +415,21 @@ class CircuitReaderHardeningTest {
     }
 
     @Test
+    void read_missingFileOrDirectory_formatExceptionNamingIt() {
+        Path missing = dir.resolve("absent.json");
+        for (Path p : List.of(missing, dir)) {
+            try {
+                new CircuitReader().read(p);
+                fail("read without error");
+            } catch (FormatException e) {
+                assertTrue(e.getMessage().startsWith(p + ": "), e.getMessage());
+            } catch (Throwable t) {
+                throw new AssertionError(p + ": " + t, t);
+            }
+        }
+    }
+
+    @Test
     void read_gzippedExample_sameAsPlain() throws Exception {
         Path p = dir.resolve("pump-station.json.gz");
         Files.write(p, gzip(readExample()));
@@ -426,7 +445,10 @@ class CircuitReaderHardeningTest {
         }
     }
 
-    /** "{" followed by {@code mebibytes} MiB of spaces, as that many concatenated gzip members. */
+    /**
+     * "{" followed by {@code mebibytes} MiB of spaces, as that many concatenated gzip members
+     * (RFC 1952 section 2.2 allows several members; GZIPInputStream reads them in sequence).
+     */
     private static void writeSpaceBomb(Path p, int mebibytes) throws IOException {
         byte[] spaces = new byte[1 << 20];
         Arrays.fill(spaces, (byte) ' ');

@@ -93,6 +93,10 @@ class SchemaCatalogTest {
         assertTrue(n >= 8, "valid corpus has " + n + " documents");
     }
 
+    /**
+     * Each invalid document breaks one rule of FORMAT.md; the keyword expected is the one of JSON Schema
+     * 2020-12 (draft-bhutton-json-schema-01 and draft-bhutton-json-schema-validation-01) that states that rule.
+     */
     @Test
     void validate_invalidCorpus_expectedViolationAtExpectedPointer() throws Exception {
         Map<String, String[]> expected = expectations();
