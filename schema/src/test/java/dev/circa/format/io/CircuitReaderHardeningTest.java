@@ -118,6 +118,11 @@ class CircuitReaderHardeningTest {
                 "/nodes/0/input", "unknown input family \"gaussian\""));
         t.add(new Case("unknown major version", () -> utf8("{\"format\": \"circa.circuit\", \"version\": \"2.0\"}"), d, 1, 40,
                 "/version", "unsupported major version"));
+        t.add(new Case("missing nodes after a BOM and blank lines", () -> concat(new byte[] {(byte) 0xEF, (byte) 0xBB, (byte) 0xBF},
+                utf8("\n\n  {\"format\": \"circa.circuit\", \"version\": \"1.0\", \"variables\": [], \"outputs\": []}")),
+                d, 3, 3, "/nodes", "missing \"nodes\""));
+        t.add(new Case("missing format", () -> utf8("{\"version\": \"1.0\", \"variables\": [], \"nodes\": [], \"outputs\": []}"),
+                d, 1, 1, "/format", "missing \"format\""));
         t.add(new Case("wrong format", () -> utf8("{\n  \"format\": \"circa.regions\"}"), d, 2, 13, "/format", "unknown format"));
         return t;
     }
@@ -205,7 +210,7 @@ class CircuitReaderHardeningTest {
         Random random = new Random(20261201L);
         int documents = 0;
         int errors = 0;
-        for (int i = 0; i < 3000; i++) {
+        for (int i = 0; i < 10_000; i++) {
             byte[] b = full.clone();
             int flips = 1 + random.nextInt(3);
             for (int f = 0; f < flips; f++) {
