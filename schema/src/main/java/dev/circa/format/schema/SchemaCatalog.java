@@ -10,13 +10,22 @@ import com.networknt.schema.path.PathType;
 import com.networknt.schema.resource.InputStreamSource;
 import com.networknt.schema.resource.ResourceLoader;
 import com.networknt.schema.resource.SchemaLoader;
+import dev.circa.format.io.FormatException;
+import dev.circa.format.io.JsonInput;
+import dev.circa.format.io.LimitExceededException;
+import dev.circa.format.io.ReadLimits;
 import java.io.InputStream;
+import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.EnumMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import tools.jackson.core.JsonToken;
 import tools.jackson.databind.JsonNode;
+import tools.jackson.databind.node.ArrayNode;
+import tools.jackson.databind.node.JsonNodeFactory;
+import tools.jackson.databind.node.ObjectNode;
 
 /**
  * The bundled JSON Schemas (draft 2020-12) of the circa documents and validation against them.
@@ -180,6 +189,59 @@ public final class SchemaCatalog {
      */
     public List<SchemaViolation> validateNode(JsonNode node, String pointer) {
         return convert(nodeSchema.validate(node), pointer == null ? "" : pointer);
+    }
+
+    /**
+     * Validates a circuit file against the circuit schema in one streaming pass, holding one node at a
+     * time: each node is checked against the node sub-schema, the rest of the document as a whole. The
+     * verdict is the same as {@link #validate(Kind, JsonNode)} on the whole tree.
+     *
+     * @param path the file ({@code .gz} decompressed, {@code -} for standard input)
+     * @return document-level violations first, then each node's in node order
+     * @throws FormatException when the file is not JSON or a read limit is hit
+     */
+    public List<SchemaViolation> validateCircuit(Path path, ReadLimits limits) throws FormatException {
+        try (JsonInput json = JsonInput.openJson(path, limits)) {
+            return validateCircuit(json, limits);
+        }
+    }
+
+    /** As {@link #validateCircuit(Path, ReadLimits)}, from a stream; {@code file} names it in messages. */
+    public List<SchemaViolation> validateCircuit(InputStream in, String file, ReadLimits limits) throws FormatException {
+        try (JsonInput json = JsonInput.fromStream(in, file, limits)) {
+            return validateCircuit(json, limits);
+        }
+    }
+
+    private List<SchemaViolation> validateCircuit(JsonInput json, ReadLimits limits) throws FormatException {
+        List<SchemaViolation> nodeViolations = new ArrayList<>();
+        ObjectNode skeleton = JsonNodeFactory.instance.objectNode();
+        json.startDocument("a circuit document");
+        String member;
+        while ((member = json.nextProperty()) != null) {
+            if (member.equals("nodes") && json.token() == JsonToken.START_ARRAY) {
+                long count = 0;
+                while (json.nextElement()) {
+                    if (count >= limits.maxNodes()) {
+                        throw LimitExceededException.of(json.file(), json.line(), json.column(), "/nodes/" + count,
+                                "the number of nodes", ReadLimits.MAX_NODES, limits.maxNodes());
+                    }
+                    nodeViolations.addAll(validateNode(json.readTree(), "/nodes/" + count));
+                    count++;
+                }
+                // The nodes were checked one by one; a valid stand-in keeps the array's own rules (minItems) in play.
+                ArrayNode stand = skeleton.putArray("nodes");
+                if (count > 0) {
+                    stand.addObject().put("id", 0).putArray("product").add(0);
+                }
+            } else {
+                skeleton.set(member, json.readTree());
+            }
+        }
+        json.endDocument();
+        List<SchemaViolation> out = new ArrayList<>(validate(Kind.CIRCUIT, skeleton));
+        out.addAll(nodeViolations);
+        return out;
     }
 
     private static List<SchemaViolation> convert(List<com.networknt.schema.Error> errors, String prefix) {

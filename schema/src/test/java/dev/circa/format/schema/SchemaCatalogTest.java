@@ -9,6 +9,9 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import com.networknt.schema.Schema;
 import com.networknt.schema.SchemaLocation;
 import com.networknt.schema.SchemaRegistry;
+import dev.circa.format.io.FormatException;
+import dev.circa.format.io.LimitExceededException;
+import dev.circa.format.io.ReadLimits;
 import dev.circa.format.schema.SchemaCatalog.Kind;
 import java.io.IOException;
 import java.io.InputStream;
@@ -155,6 +158,38 @@ class SchemaCatalogTest {
             }
             assertEquals(whole, perNode, p.toString());
         }
+    }
+
+    @Test
+    void validateCircuit_streamingOverCorpus_sameViolationsAsWholeTree() throws Exception {
+        List<Path> all = new ArrayList<>(files(Kind.CIRCUIT, "valid"));
+        all.addAll(files(Kind.CIRCUIT, "invalid"));
+        all.add(EXAMPLE);
+        for (Path p : all) {
+            List<String> whole = sorted(SchemaCatalog.get().validate(Kind.CIRCUIT, tree(p)));
+            List<String> streamed = sorted(SchemaCatalog.get().validateCircuit(p, ReadLimits.DEFAULT));
+            assertEquals(whole, streamed, p.toString());
+        }
+    }
+
+    @Test
+    void validateCircuit_tooManyNodes_limitNamed() {
+        LimitExceededException e = assertThrows(LimitExceededException.class,
+                () -> SchemaCatalog.get().validateCircuit(EXAMPLE, ReadLimits.DEFAULT.withMaxNodes(2)));
+        assertEquals(ReadLimits.MAX_NODES, e.option());
+        assertEquals(12, e.line());
+    }
+
+    @Test
+    void validateCircuit_notJson_formatExceptionWithPosition() {
+        FormatException e = assertThrows(FormatException.class, () -> SchemaCatalog.get().validateCircuit(
+                new java.io.ByteArrayInputStream("{\"nodes\": [1, 2,]}".getBytes(StandardCharsets.UTF_8)), "bad.json",
+                ReadLimits.DEFAULT));
+        assertTrue(e.getMessage().startsWith("bad.json:1:"), e.getMessage());
+    }
+
+    private static List<String> sorted(List<SchemaViolation> v) {
+        return v.stream().map(SchemaViolation::toString).sorted().toList();
     }
 
     @Test
