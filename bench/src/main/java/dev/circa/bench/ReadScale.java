@@ -2,12 +2,16 @@ package dev.circa.bench;
 
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.io.CircuitReader;
+import dev.circa.format.io.ReadLimits;
+import dev.circa.format.schema.SchemaCatalog;
+import dev.circa.format.schema.SchemaViolation;
 import java.lang.management.ManagementFactory;
 import java.lang.management.MemoryMXBean;
 import java.lang.management.MemoryPoolMXBean;
 import java.lang.management.MemoryType;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.atomic.AtomicBoolean;
 import java.util.concurrent.atomic.AtomicLong;
@@ -17,7 +21,8 @@ import java.util.concurrent.atomic.AtomicLong;
  * it with {@link CircuitReader} three times, and prints for each read the wall time, then the file
  * size and the heap: used after a forced GC before the read (baseline), the highest used heap seen
  * during the read (sampled every 2 ms, garbage included), the sum of the heap pools' peaks (an upper
- * bound), and the heap retained by the document after a forced GC.
+ * bound), and the heap retained by the document after a forced GC. Last, the time of a streaming
+ * schema validation of the same file ({@link SchemaCatalog#validateCircuit}).
  *
  * <p>Run from the repository root (Java 17), one command:
  * <pre>
@@ -43,6 +48,10 @@ public final class ReadScale {
             for (int run = 1; run <= 3; run++) {
                 measure(reader, file, run, nodes);
             }
+            long t1 = System.nanoTime();
+            List<SchemaViolation> violations = SchemaCatalog.get().validateCircuit(file, ReadLimits.DEFAULT);
+            System.out.printf(Locale.ROOT, "schema validation, streaming one node at a time: %.2f s, %d violations%n",
+                    (System.nanoTime() - t1) / 1e9, violations.size());
         } finally {
             Files.deleteIfExists(file);
             Files.deleteIfExists(dir);
