@@ -78,6 +78,32 @@ class SchemaCatalogTest {
     }
 
     @Test
+    void bundledSchemas_families_matchFamilyEnumAndParameters() throws Exception {
+        // FORMAT.md section 2, input table: every family and its parameter names, in the schemas and in the model.
+        JsonNode circuit = bundled(Kind.CIRCUIT).get("$defs");
+        JsonNode mixture = bundled(Kind.MIXTURE).get("$defs");
+        List<String> names = new ArrayList<>();
+        circuit.get("family").get("enum").forEach(n -> names.add(n.asString()));
+        List<String> expected = new ArrayList<>();
+        for (dev.circa.format.Family f : dev.circa.format.Family.values()) {
+            expected.add(f.jsonName());
+            JsonNode props = circuit.get("input-" + f.jsonName()).get("properties");
+            assertNotNull(props, f.jsonName());
+            for (String param : f.parameters()) {
+                assertNotNull(props.get(param), f.jsonName() + "." + param + " in circuit.schema.json");
+            }
+            JsonNode mix = mixture.get("params-" + f.jsonName());
+            assertNotNull(mix, f.jsonName() + " in mixture.schema.json");
+            if (f.isScalar() || f == dev.circa.format.Family.MVNORMAL) {
+                for (String param : f.parameters()) {
+                    assertNotNull(mix.get("properties").get(param), f.jsonName() + "." + param + " in mixture.schema.json");
+                }
+            }
+        }
+        assertEquals(expected, names);
+    }
+
+    @Test
     void validate_formatExample_noViolations() throws Exception {
         assertEquals(List.of(), SchemaCatalog.get().validate(Kind.CIRCUIT, tree(EXAMPLE)));
         assertEquals(List.of(), SchemaCatalog.get().validate(tree(EXAMPLE)));
