@@ -5,6 +5,8 @@ import java.io.InputStream;
 import java.nio.file.Path;
 import java.util.Arrays;
 import java.util.Locale;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
 import tools.jackson.core.JacksonException;
 import tools.jackson.core.JsonParser;
 import tools.jackson.core.JsonToken;
@@ -24,6 +26,8 @@ import tools.jackson.databind.json.JsonMapper;
  * keys and limits. The document readers of circa are built on it. Not thread-safe.
  */
 public final class JsonInput implements AutoCloseable {
+    private static final Pattern ALLOWED = Pattern.compile("maximum allowed \\(([0-9]+)");
+
     private final JsonParser parser;
     private final String file;
 
@@ -399,7 +403,7 @@ public final class JsonInput implements AutoCloseable {
 
     /** The limit Jackson names in "... exceeds the maximum allowed (N, from ...)". */
     private static String allowed(String msg) {
-        java.util.regex.Matcher m = java.util.regex.Pattern.compile("maximum allowed \\(([0-9]+)").matcher(msg);
+        Matcher m = ALLOWED.matcher(msg);
         return m.find() ? m.group(1) : "the configured number of";
     }
 
