@@ -60,7 +60,8 @@ class MvNormalTest {
         double[] row = new double[D];
         double[] out = new double[1];
         for (int mask = 0; mask < 1 << D; mask++) {
-            int[] observed = java.util.stream.IntStream.range(0, D).filter(v -> (mask >> v & 1) == 0).toArray();
+            final int pattern = mask;
+            int[] observed = java.util.stream.IntStream.range(0, D).filter(v -> (pattern >> v & 1) == 0).toArray();
             for (int trial = 0; trial < 25; trial++) {
                 for (int v = 0; v < D; v++) {
                     row[v] = (mask >> v & 1) != 0 ? Double.NaN : MEAN[v] + 1.5 * random.nextGaussian();

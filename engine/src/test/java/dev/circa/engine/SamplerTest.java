@@ -108,7 +108,7 @@ class SamplerTest {
             node = i % 2 == 0 ? t.sum(new double[] {0.5}, node) : t.product(node);
         }
         t.output("joint", node);
-        double[] out = new double[4000];
+        double[] out = new double[2000];
         new Sampler(t.compile(), 5).sample(0, out.length, out);
         // the chain scales the mass but not the distribution: Poisson mean 2 (commons-math3 3.6.1 moments)
         org.apache.commons.math3.distribution.PoissonDistribution ref = new org.apache.commons.math3.distribution.PoissonDistribution(2.0);
