@@ -165,6 +165,19 @@ abstract class EvaluatorContractTest {
     }
 
     @Test
+    void conditional_evidenceOfProbabilityZero_notANumber() {
+        TestCircuits t = new TestCircuits().variable("alarm", VariableType.BINARY)
+                .variable("inlet_pressure", VariableType.REAL);
+        t.output("joint", t.product(t.input(Family.INDICATOR, 0, 1), t.input(Family.NORMAL, 1, 3.1, 0.2)));
+        double[] out = new double[2];
+        create(t.compile()).conditional(new double[] {0, 3.0, 1, 3.0}, 2, new boolean[] {true, false}, out);
+        // p(q | e) is undefined when p(e) = 0 (common practice)
+        assertTrue(Double.isNaN(out[0]), "alarm 0 has probability 0");
+        // the indicator is certain, so the conditional is the normal density (commons-math3 3.6.1)
+        assertClose(new NormalDistribution(null, 3.1, 0.2).logDensity(3.0), out[1], "alarm 1");
+    }
+
+    @Test
     void mpe_deterministicCircuit_equalsBruteForceArgmax() {
         Random random = new Random(11);
         TestCircuits t = new TestCircuits()

@@ -2,6 +2,7 @@ package dev.circa.engine;
 
 import static dev.circa.engine.Tolerances.assertClose;
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import dev.circa.format.Family;
 import dev.circa.format.VariableType;
@@ -202,5 +203,57 @@ class FamilyDensityTest {
             // FORMAT.md semantics: an input over a missing variable is 1 (its integral)
             assertEquals(0.0, out[0], c[0].toString());
         }
+    }
+
+    private static double[] mode(Family family, VariableType type, double[] params) {
+        TestCircuits t = new TestCircuits().variable("x", type);
+        t.output("joint", t.input(family, 0, params));
+        double[] completed = new double[1];
+        double[] logValue = new double[1];
+        new Evaluator(t.compile()).mpe(new double[] {Double.NaN}, 1, 0, completed, logValue);
+        return new double[] {completed[0], logValue[0]};
+    }
+
+    @ParameterizedTest
+    @MethodSource("realCases")
+    void mpe_realFamilyMissing_modeIsLocalMaximumOfCommonsDensity(Family family, double[] params,
+            AbstractRealDistribution reference) {
+        double[] m = mode(family, VariableType.REAL, params);
+        boolean unbounded = (family == Family.GAMMA && params[0] < 1) || (family == Family.BETA && (params[0] < 1 || params[1] < 1));
+        if (unbounded) {
+            // the density grows without bound at the edge of the support (common practice)
+            assertEquals(Double.POSITIVE_INFINITY, m[1], family.jsonName());
+            return;
+        }
+        double step = 1e-4 * Math.sqrt(reference.getNumericalVariance());
+        if (m[0] == reference.getSupportLowerBound()) {
+            // a mode on the open edge of the support (gamma shape 1, beta alpha 1): the value is the
+            // limit of commons-math3 3.6.1 logDensity there, which exceeds the density further in
+            double near = reference.logDensity(m[0] + 1e-12);
+            assertClose(near, m[1], 1e-9, family.jsonName() + " limit at the edge");
+            assertTrue(m[1] >= reference.logDensity(m[0] + step), family.jsonName());
+            return;
+        }
+        double at = reference.logDensity(m[0]);
+        // commons-math3 3.6.1 logDensity: the mode is not beaten by its neighbours, and the
+        // max-product value is the density there
+        assertTrue(at >= reference.logDensity(m[0] - step) && at >= reference.logDensity(m[0] + step),
+                family.jsonName() + " mode " + m[0]);
+        assertClose(at, m[1], family.jsonName() + " value at the mode");
+    }
+
+    @ParameterizedTest
+    @MethodSource("countCases")
+    void mpe_countFamilyMissing_modeIsArgmaxOfCommonsMass(Family family, double[] params,
+            AbstractIntegerDistribution reference) {
+        double[] m = mode(family, VariableType.COUNT, params);
+        double best = Double.NEGATIVE_INFINITY;
+        int upper = (int) Math.min(reference.getSupportUpperBound(), reference.getNumericalMean() * 3 + 25);
+        for (int k = 0; k <= upper; k++) {
+            best = Math.max(best, reference.logProbability(k));
+        }
+        // commons-math3 3.6.1 logProbability: the mode's mass is the largest (ties allowed)
+        assertClose(best, reference.logProbability((int) m[0]), family.jsonName() + " mode " + m[0]);
+        assertClose(best, m[1], family.jsonName() + " value at the mode");
     }
 }
