@@ -168,7 +168,8 @@ class FamilyDensityTest {
         Object[][] cases = {
             {Family.EXPONENTIAL, VariableType.REAL, new double[] {2}, new double[] {-0.5, -1e-300}},
             {Family.LOGNORMAL, VariableType.REAL, new double[] {0, 1}, new double[] {0, -1}},
-            {Family.GAMMA, VariableType.REAL, new double[] {2, 1}, new double[] {-1, 0}},
+            {Family.GAMMA, VariableType.REAL, new double[] {2, 1}, new double[] {-1, 0, Double.POSITIVE_INFINITY}},
+            {Family.NORMAL, VariableType.REAL, new double[] {0, 1}, new double[] {Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY}},
             {Family.BETA, VariableType.REAL, new double[] {2, 2}, new double[] {-0.1, 1.1, 0, 1}},
             {Family.UNIFORM, VariableType.REAL, new double[] {0, 1}, new double[] {-0.1, 1.1}},
             {Family.POISSON, VariableType.COUNT, new double[] {3}, new double[] {2.5, -1, Double.POSITIVE_INFINITY}},

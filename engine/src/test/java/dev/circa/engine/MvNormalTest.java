@@ -98,6 +98,17 @@ class MvNormalTest {
     }
 
     @Test
+    void logDensity_infiniteValue_negativeInfinity() {
+        Evaluator evaluator = new Evaluator(circuit(covariance()));
+        double[] out = new double[2];
+        evaluator.logDensity(new double[] {Double.POSITIVE_INFINITY, Double.POSITIVE_INFINITY, 0, 0,
+            Double.NaN, Double.NEGATIVE_INFINITY, 1, Double.NaN}, 2, out);
+        // a Gaussian density vanishes at infinity (common practice)
+        assertEquals(Double.NEGATIVE_INFINITY, out[0]);
+        assertEquals(Double.NEGATIVE_INFINITY, out[1]);
+    }
+
+    @Test
     void mpe_someVariablesMissing_conditionalMeanFromCommonsMath() {
         double[][] cov = covariance();
         Evaluator evaluator = new Evaluator(circuit(cov));

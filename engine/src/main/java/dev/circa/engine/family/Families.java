@@ -106,7 +106,7 @@ public final class Families {
     }
 
     private static double logGamma(double x, double shape, double rate) {
-        if (x < 0 || Double.isNaN(x)) {
+        if (x < 0 || Double.isNaN(x) || x == Double.POSITIVE_INFINITY) {
             return NEG_INF;
         }
         double norm = shape * Math.log(rate) - SpecialFunctions.logGamma(shape);

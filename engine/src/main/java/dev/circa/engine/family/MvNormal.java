@@ -21,6 +21,9 @@ public final class MvNormal {
         if (k == 0) {
             return 0;
         }
+        if (anyInfinite(k, ws)) {
+            return Double.NEGATIVE_INFINITY;
+        }
         if (k == d) {
             return fullLogDensity(p, off, d, factor, fOff, ws);
         }
@@ -49,6 +52,9 @@ public final class MvNormal {
      */
     public static double maxLogDensity(double[] p, int off, int d, double[] factor, int fOff, MvNormalWorkspace ws) {
         int k = partition(d, ws);
+        if (anyInfinite(k, ws)) {
+            return Double.NEGATIVE_INFINITY;
+        }
         if (k < d) {
             int m = d - k;
             if (k == 0) {
@@ -122,6 +128,15 @@ public final class MvNormal {
 
     private static double cov(double[] p, int off, int d, int i, int j) {
         return i >= j ? p[off + d + i * d + j] : p[off + d + j * d + i];
+    }
+
+    private static boolean anyInfinite(int k, MvNormalWorkspace ws) {
+        for (int a = 0; a < k; a++) {
+            if (Double.isInfinite(ws.value[ws.observed[a]])) {
+                return true;
+            }
+        }
+        return false;
     }
 
     /** Splits the variables into observed and missing; returns the number observed. */
