@@ -7,7 +7,6 @@ import dev.circa.format.Family;
 import dev.circa.format.InputNode;
 import dev.circa.format.Node;
 import dev.circa.format.Output;
-import dev.circa.format.ProductNode;
 import dev.circa.format.SumNode;
 import dev.circa.format.Variable;
 import dev.circa.format.VariableType;
@@ -147,7 +146,6 @@ public final class CircuitCompiler {
                     }
                     e++;
                 }
-                assert node instanceof ProductNode || sum;
             }
         }
         childStart[n] = e;
