@@ -3,6 +3,8 @@ package dev.circa.engine;
 import dev.circa.engine.family.Families;
 import dev.circa.engine.internal.CircuitCompiler;
 import dev.circa.engine.internal.CircuitData;
+import dev.circa.engine.internal.DenseBlockFinder;
+import dev.circa.engine.internal.DenseBlocks;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.Family;
 import dev.circa.format.Variable;
@@ -24,6 +26,8 @@ import java.util.List;
 public final class CompiledCircuit {
     private final CircuitData data;
     private final List<Variable> variables;
+    private volatile DenseBlocks denseBlocks;
+    private volatile DenseBlocks everyCandidateBlocks;
 
     private CompiledCircuit(CircuitData data, List<Variable> variables) {
         this.data = data;
@@ -44,6 +48,47 @@ public final class CompiledCircuit {
 
     CircuitData data() {
         return data;
+    }
+
+    /** The dense blocks the automatic evaluators use, found on first request and cached. */
+    DenseBlocks denseBlocks() {
+        DenseBlocks d = denseBlocks;
+        if (d == null) {
+            synchronized (this) {
+                d = denseBlocks;
+                if (d == null) {
+                    d = DenseBlockFinder.find(data, false);
+                    denseBlocks = d;
+                }
+            }
+        }
+        return d;
+    }
+
+    /** Every candidate group as a block, whatever it saves: for tests of the dense kernel. */
+    DenseBlocks everyCandidateBlocks() {
+        DenseBlocks d = everyCandidateBlocks;
+        if (d == null) {
+            synchronized (this) {
+                d = everyCandidateBlocks;
+                if (d == null) {
+                    d = DenseBlockFinder.find(data, true);
+                    everyCandidateBlocks = d;
+                }
+            }
+        }
+        return d;
+    }
+
+    /**
+     * What the automatic evaluation path found in this circuit's structure: groups of sums over one
+     * common list of products that are cross products of node groups (the dense blocks of region-graph
+     * circuits), evaluated as matrix products. The analysis runs once, on first use by this method or by
+     * an {@link Evaluator}, and is cached; safe to call from any thread.
+     */
+    public DenseBlockSummary denseBlockSummary() {
+        DenseBlocks d = denseBlocks();
+        return new DenseBlockSummary(d.blockCount(), d.sumCount(), d.blockEdges);
     }
 
     /** The document's variables; index = column of a data row. */

@@ -4,6 +4,9 @@ import dev.circa.engine.family.Families;
 import dev.circa.engine.family.MvNormal;
 import dev.circa.engine.family.MvNormalWorkspace;
 import dev.circa.engine.internal.CircuitData;
+import dev.circa.engine.internal.DenseBlocks;
+import dev.circa.engine.internal.DenseKernel;
+import dev.circa.engine.internal.DenseWorkspace;
 import dev.circa.engine.internal.ForwardKernel;
 import java.util.Arrays;
 
@@ -19,6 +22,13 @@ import java.util.Arrays;
  * later call; rows are processed in chunks of at most {@value #MAX_CHUNK_ROWS} rows, fewer for circuits
  * so large that the workspace would pass {@value #VALUE_BUDGET} doubles, so memory stays bounded for any
  * batch size. No call allocates inside its evaluation loop.
+ *
+ * <p>Two evaluation paths give the same results to rounding (within 1e-12 relative, tested): the generic
+ * one, node by node in log space, and the automatic one (the default), which evaluates the circuit's
+ * dense blocks ({@link CompiledCircuit#denseBlockSummary()}) as matrix products in linear space with
+ * per-row scaling and every other node the generic way. The automatic path serves {@link #logDensity},
+ * {@link #conditional} and {@link #logPartition}; {@link #mpe} is always generic. On a region-graph
+ * circuit of 10^6 edges at batch 1024 the automatic path is many times faster (see bench/run).
  */
 public final class Evaluator {
     /** Largest number of rows evaluated together. */
@@ -26,8 +36,18 @@ public final class Evaluator {
     /** Largest number of doubles in the value workspace (64 MiB), unless one row alone needs more. */
     public static final int VALUE_BUDGET = 1 << 23;
 
+    /** Which evaluation path an evaluator takes. */
+    public enum Mode {
+        /** Dense blocks as matrix products where the circuit has them, every other node generic. */
+        AUTOMATIC,
+        /** Every node by itself in log space. */
+        GENERIC
+    }
+
     private final CompiledCircuit circuit;
     private final CircuitData c;
+    private final DenseBlocks blocks;
+    private DenseWorkspace dense;
     private final int chunk;
     private final double[] scratch;
     private final MvNormalWorkspace mvn;
@@ -38,13 +58,33 @@ public final class Evaluator {
     private int[] stamp;
     private int generation;
 
-    /** An evaluator for {@code circuit}. */
+    /** An evaluator for {@code circuit} on the automatic path. */
     public Evaluator(CompiledCircuit circuit) {
+        this(circuit, Mode.AUTOMATIC);
+    }
+
+    /** An evaluator for {@code circuit} on the path {@code mode}. */
+    public Evaluator(CompiledCircuit circuit, Mode mode) {
+        this(circuit, mode == Mode.AUTOMATIC ? circuit.denseBlocks() : null);
+    }
+
+    /** An evaluator that takes every candidate group of sums as a dense block: for tests of the kernel. */
+    static Evaluator everyCandidateBlock(CompiledCircuit circuit) {
+        return new Evaluator(circuit, circuit.everyCandidateBlocks());
+    }
+
+    private Evaluator(CompiledCircuit circuit, DenseBlocks blocks) {
         this.circuit = circuit;
+        this.blocks = blocks == null || blocks.blockCount() == 0 ? null : blocks;
         this.c = circuit.data();
         this.chunk = Math.max(1, Math.min(MAX_CHUNK_ROWS, VALUE_BUDGET / Math.max(1, c.nodeCount)));
         this.scratch = new double[chunk];
         this.mvn = new MvNormalWorkspace(c.maxInputDimension);
+    }
+
+    /** Whether this evaluator evaluates some dense blocks as matrix products (else it is generic throughout). */
+    public boolean usesDenseBlocks() {
+        return blocks != null;
     }
 
     /** The circuit this evaluator evaluates. */
@@ -61,8 +101,13 @@ public final class Evaluator {
      */
     public void logDensity(double[] data, int rows, double[] out) {
         checkBatch(data, rows, out, (long) rows * c.outputNode.length);
-        for (int row0 = 0; row0 < rows; row0 += chunk) {
-            int n = Math.min(chunk, rows - row0);
+        logDensityRange(data, 0, rows, out);
+    }
+
+    /** {@link #logDensity} on rows {@code from .. to-1} only; arguments checked by the caller. */
+    void logDensityRange(double[] data, int from, int to, double[] out) {
+        for (int row0 = from; row0 < to; row0 += chunk) {
+            int n = Math.min(chunk, to - row0);
             double[] v = run(data, row0, n, null, false);
             copyOutputs(v, row0, n, out);
         }
@@ -79,12 +124,22 @@ public final class Evaluator {
      * @param out output: as {@link #logDensity}
      */
     public void conditional(double[] data, int rows, boolean[] given, double[] out) {
-        int outs = c.outputNode.length;
-        checkBatch(data, rows, out, (long) rows * outs);
+        checkConditional(data, rows, given, out);
+        conditionalRange(data, 0, rows, given, out);
+    }
+
+    /** Throws when the arguments of {@link #conditional} do not fit the circuit. */
+    void checkConditional(double[] data, int rows, boolean[] given, double[] out) {
+        checkBatch(data, rows, out, (long) rows * c.outputNode.length);
         if (given.length != c.variableCount) {
             throw new IllegalArgumentException("given has " + given.length + " entries (expected "
                     + c.variableCount + ", one per variable)");
         }
+    }
+
+    /** {@link #conditional} on rows {@code from .. to-1} only; arguments checked by the caller. */
+    void conditionalRange(double[] data, int from, int to, boolean[] given, double[] out) {
+        int outs = c.outputNode.length;
         if (hide == null) {
             hide = new boolean[c.variableCount];
         }
@@ -94,8 +149,8 @@ public final class Evaluator {
         if (partial.length < chunk * outs) {
             partial = new double[chunk * outs];
         }
-        for (int row0 = 0; row0 < rows; row0 += chunk) {
-            int n = Math.min(chunk, rows - row0);
+        for (int row0 = from; row0 < to; row0 += chunk) {
+            int n = Math.min(chunk, to - row0);
             double[] v = run(data, row0, n, null, false);
             for (int r = 0; r < n; r++) {
                 for (int o = 0; o < outs; o++) {
@@ -235,7 +290,14 @@ public final class Evaluator {
         if (value.length < need) {
             value = new double[(int) Math.min(Integer.MAX_VALUE - 8, (long) c.nodeCount * chunk)];
         }
-        ForwardKernel.run(c, data, row0, n, hidden, max, value, scratch, mvn);
+        if (blocks != null && !max) {
+            if (dense == null) {
+                dense = new DenseWorkspace(blocks, chunk);
+            }
+            DenseKernel.run(c, blocks, data, row0, n, hidden, value, scratch, mvn, dense);
+        } else {
+            ForwardKernel.run(c, data, row0, n, hidden, max, value, scratch, mvn);
+        }
         return value;
     }
 
@@ -248,7 +310,7 @@ public final class Evaluator {
         }
     }
 
-    private void checkBatch(double[] data, int rows, double[] out, long outNeeded) {
+    void checkBatch(double[] data, int rows, double[] out, long outNeeded) {
         if (rows < 0) {
             throw new IllegalArgumentException("rows = " + rows + " (expected >= 0)");
         }

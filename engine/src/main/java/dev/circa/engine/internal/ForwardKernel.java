@@ -26,44 +26,48 @@ public final class ForwardKernel {
      */
     public static void run(CircuitData c, double[] data, int row0, int rows, boolean[] hide, boolean max,
             double[] value, double[] scratch, MvNormalWorkspace mvn) {
-        final int nv = c.variableCount;
-        final byte[] kind = c.kind;
+        for (int i = 0; i < c.nodeCount; i++) {
+            node(c, i, data, row0, rows, hide, max, value, scratch, mvn);
+        }
+    }
+
+    /** Evaluates node {@code i} alone, its children being done; arguments as {@link #run}. */
+    static void node(CircuitData c, int i, double[] data, int row0, int rows, boolean[] hide, boolean max,
+            double[] value, double[] scratch, MvNormalWorkspace mvn) {
         final int[] childStart = c.childStart;
         final int[] childIndex = c.childIndex;
         final double[] logWeight = c.logWeight;
-        for (int i = 0; i < c.nodeCount; i++) {
-            final int base = i * rows;
-            final int s = childStart[i];
-            final int end = childStart[i + 1];
-            if (kind[i] == CircuitData.PRODUCT) {
-                int first = childIndex[s] * rows;
-                System.arraycopy(value, first, value, base, rows);
-                for (int e = s + 1; e < end; e++) {
-                    int cb = childIndex[e] * rows;
-                    for (int r = 0; r < rows; r++) {
-                        value[base + r] += value[cb + r];
-                    }
-                }
-            } else if (kind[i] == CircuitData.SUM) {
+        final int base = i * rows;
+        final int s = childStart[i];
+        final int end = childStart[i + 1];
+        if (c.kind[i] == CircuitData.PRODUCT) {
+            int first = childIndex[s] * rows;
+            System.arraycopy(value, first, value, base, rows);
+            for (int e = s + 1; e < end; e++) {
+                int cb = childIndex[e] * rows;
                 for (int r = 0; r < rows; r++) {
-                    value[base + r] = Double.NEGATIVE_INFINITY;
+                    value[base + r] += value[cb + r];
                 }
-                for (int e = s; e < end; e++) {
-                    int cb = childIndex[e] * rows;
-                    double w = logWeight[e];
-                    for (int r = 0; r < rows; r++) {
-                        double t = w + value[cb + r];
-                        if (t > value[base + r]) {
-                            value[base + r] = t;
-                        }
+            }
+        } else if (c.kind[i] == CircuitData.SUM) {
+            for (int r = 0; r < rows; r++) {
+                value[base + r] = Double.NEGATIVE_INFINITY;
+            }
+            for (int e = s; e < end; e++) {
+                int cb = childIndex[e] * rows;
+                double w = logWeight[e];
+                for (int r = 0; r < rows; r++) {
+                    double t = w + value[cb + r];
+                    if (t > value[base + r]) {
+                        value[base + r] = t;
                     }
                 }
-                if (!max) {
-                    logSumExp(value, base, rows, s, end, childIndex, logWeight, scratch);
-                }
-            } else {
-                input(c, data, row0, rows, hide, max, value, base, c.inputSlot[i], nv, mvn);
             }
+            if (!max) {
+                logSumExp(value, base, rows, s, end, childIndex, logWeight, scratch);
+            }
+        } else {
+            input(c, data, row0, rows, hide, max, value, base, c.inputSlot[i], c.variableCount, mvn);
         }
     }
 

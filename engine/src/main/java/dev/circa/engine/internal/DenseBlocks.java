@@ -1,0 +1,97 @@
+package dev.circa.engine.internal;
+
+import org.ejml.data.DMatrixRMaj;
+
+/**
+ * The dense blocks of a circuit, found by {@link DenseBlockFinder}: groups of sums with one common child
+ * list of products, each list cut into segments that are full cross products of node groups. Block b has
+ * sums {@code sumNode[sumStart[b] .. sumStart[b+1]-1]} (K of them, with {@code maxLogWeight} per sum), a
+ * child list of {@code width[b]} = n products, and a weight matrix {@code weights[b]} (K x n, row-major):
+ * entry (k, j) is {@code exp(logWeight(k, j) - maxLogWeight(k))}, so every entry is in [0, 1] and a
+ * row's largest is 1 (a row of zeros when every weight of that sum is 0). The block's segments are
+ * {@code segStart[b] .. segStart[b+1]-1}; segment s covers list positions {@code segOffset[s] ..
+ * segOffset[s] + segLength[s] - 1} and has parts {@code partStart[s] .. partStart[s+1]-1}; part p is the
+ * node group {@code groupNode[groupStart[p] .. groupStart[p+1]-1]}. The product at position
+ * {@code segOffset[s] + u} has as children one node of each part, in part order, the first part varying
+ * slowest (u read in mixed radix over the part sizes).
+ *
+ * <p>Per node, {@code action[i]} says how the dense kernel treats it: {@link #GENERIC} (evaluated as
+ * usual), {@link #SKIP} (a product used only by its block's sums, never materialised, or a block sum
+ * after the block's first) or {@link #BLOCK} (the first sum of block {@code blockAt[i]}: the whole block
+ * is evaluated there, after all its parts, which precede its products). Never modified after the analysis.
+ */
+public final class DenseBlocks {
+    public static final byte GENERIC = 0;
+    public static final byte SKIP = 1;
+    public static final byte BLOCK = 2;
+
+    public final byte[] action;
+    public final int[] blockAt;
+    public final int[] sumStart;
+    public final int[] sumNode;
+    public final double[] maxLogWeight;
+    public final int[] width;
+    public final DMatrixRMaj[] weights;
+    public final int[] segStart;
+    public final int[] segOffset;
+    public final int[] segLength;
+    public final int[] partStart;
+    public final int[] groupStart;
+    public final int[] groupNode;
+    /** Largest child list, sum count, part size, part count and segment count of one block. */
+    public final int maxWidth;
+    public final int maxSums;
+    public final int maxPartSize;
+    public final int maxParts;
+    public final int maxSegments;
+    /** Edges evaluated inside blocks: sum edges plus the edges of products that are not materialised. */
+    public final long blockEdges;
+
+    DenseBlocks(byte[] action, int[] blockAt, int[] sumStart, int[] sumNode, double[] maxLogWeight, int[] width,
+            DMatrixRMaj[] weights, int[] segStart, int[] segOffset, int[] segLength, int[] partStart,
+            int[] groupStart, int[] groupNode, long blockEdges) {
+        this.action = action;
+        this.blockAt = blockAt;
+        this.sumStart = sumStart;
+        this.sumNode = sumNode;
+        this.maxLogWeight = maxLogWeight;
+        this.width = width;
+        this.weights = weights;
+        this.segStart = segStart;
+        this.segOffset = segOffset;
+        this.segLength = segLength;
+        this.partStart = partStart;
+        this.groupStart = groupStart;
+        this.groupNode = groupNode;
+        this.blockEdges = blockEdges;
+        int w = 0;
+        int k = 0;
+        int ps = 0;
+        int pc = 0;
+        int sc = 0;
+        for (int b = 0; b < width.length; b++) {
+            w = Math.max(w, width[b]);
+            k = Math.max(k, sumStart[b + 1] - sumStart[b]);
+            sc = Math.max(sc, segStart[b + 1] - segStart[b]);
+            pc = Math.max(pc, partStart[segStart[b + 1]] - partStart[segStart[b]]);
+        }
+        for (int p = 0; p + 1 < groupStart.length; p++) {
+            ps = Math.max(ps, groupStart[p + 1] - groupStart[p]);
+        }
+        this.maxWidth = w;
+        this.maxSums = k;
+        this.maxPartSize = ps;
+        this.maxParts = pc;
+        this.maxSegments = sc;
+    }
+
+    /** Number of blocks. */
+    public int blockCount() {
+        return width.length;
+    }
+
+    /** Number of sums inside blocks. */
+    public int sumCount() {
+        return sumNode.length;
+    }
+}

@@ -1,0 +1,220 @@
+package dev.circa.engine.internal;
+
+import dev.circa.engine.family.MvNormalWorkspace;
+import org.ejml.data.DMatrixRMaj;
+import org.ejml.dense.row.CommonOps_DDRM;
+
+/**
+ * One upward sum-product pass like {@link ForwardKernel#run} (same layout, same results to rounding), with
+ * each dense block of {@link DenseBlocks} evaluated in linear space with per-row scaling. For block b with
+ * K sums over n products and row r: every part's maximum log-value is subtracted from its nodes before
+ * the exp; a segment's linear product values are the outer product of its parts' exponentials (the
+ * product layer never goes back to log space, and products used only by the block are never
+ * materialised), times exp(segment maximum - block maximum) when there are several segments; then one
+ * matrix product, sums (K x rows) = weights (K x n) times products (n x rows); then
+ * value = log(sum) + largest log-weight of the sum + block maximum. So a row costs one exp per part node
+ * and K x n multiply-adds instead of one exp per edge.
+ *
+ * <p>Exactness: every linear factor is in [0, 1] and the argmax product of a row is exactly 1, so a sum
+ * below {@value #TINY} can only come from weights that are tiny where the products are large; such an
+ * entry, a row whose block reads +inf or NaN, and nothing else, is recomputed by the generic log-sum-exp
+ * over the sum's edges. A row whose block maximum is -inf (every product 0) gives -inf; so does a sum whose
+ * weights are all 0. The kernel trusts its input.
+ */
+public final class DenseKernel {
+    /** Smallest linear sum taken as exact; below it an entry goes the generic way. */
+    static final double TINY = 1e-200;
+
+    private DenseKernel() {
+    }
+
+    /**
+     * Sum-product pass; arguments as {@link ForwardKernel#run} with {@code max = false}, plus the blocks of
+     * {@code c} and a workspace for at least {@code rows} rows. Values of skipped products are left
+     * untouched.
+     */
+    public static void run(CircuitData c, DenseBlocks blocks, double[] data, int row0, int rows, boolean[] hide,
+            double[] value, double[] scratch, MvNormalWorkspace mvn, DenseWorkspace ws) {
+        final byte[] action = blocks.action;
+        for (int i = 0; i < c.nodeCount; i++) {
+            byte a = action[i];
+            if (a == DenseBlocks.GENERIC) {
+                ForwardKernel.node(c, i, data, row0, rows, hide, false, value, scratch, mvn);
+            } else if (a == DenseBlocks.BLOCK) {
+                block(c, blocks, blocks.blockAt[i], rows, value, ws);
+            }
+        }
+    }
+
+    private static void block(CircuitData c, DenseBlocks d, int b, int rows, double[] value, DenseWorkspace ws) {
+        final int n = d.width[b];
+        final int seg0 = d.segStart[b];
+        final int seg1 = d.segStart[b + 1];
+        final int part0 = d.partStart[seg0];
+        final double[] partMax = ws.partMax;
+        final double[] segMax = ws.segMax;
+        final double[] blockMax = ws.blockMax;
+        final double[] check = ws.check;
+        final double neg = Double.NEGATIVE_INFINITY;
+        for (int r = 0; r < rows; r++) {
+            blockMax[r] = neg;
+            check[r] = 0;
+        }
+        for (int s = seg0; s < seg1; s++) {
+            int sm = (s - seg0) * rows;
+            for (int r = 0; r < rows; r++) {
+                segMax[sm + r] = 0;
+            }
+            for (int p = d.partStart[s]; p < d.partStart[s + 1]; p++) {
+                int pm = (p - part0) * rows;
+                int g0 = d.groupStart[p];
+                int g1 = d.groupStart[p + 1];
+                int vb = d.groupNode[g0] * rows;
+                for (int r = 0; r < rows; r++) {
+                    double v = value[vb + r];
+                    partMax[pm + r] = v;
+                    check[r] += v;
+                }
+                for (int g = g0 + 1; g < g1; g++) {
+                    vb = d.groupNode[g] * rows;
+                    for (int r = 0; r < rows; r++) {
+                        double v = value[vb + r];
+                        check[r] += v;
+                        if (v > partMax[pm + r]) {
+                            partMax[pm + r] = v;
+                        }
+                    }
+                }
+                for (int r = 0; r < rows; r++) {
+                    segMax[sm + r] += partMax[pm + r];
+                }
+            }
+            for (int r = 0; r < rows; r++) {
+                if (segMax[sm + r] > blockMax[r]) {
+                    blockMax[r] = segMax[sm + r];
+                }
+            }
+        }
+        final DMatrixRMaj products = ws.products;
+        products.reshape(n, rows, false);
+        final double[] pt = products.data;
+        final boolean single = seg1 - seg0 == 1;
+        for (int s = seg0; s < seg1; s++) {
+            int sm = (s - seg0) * rows;
+            int out = d.segOffset[s] * rows;
+            if (single) {
+                for (int r = 0; r < rows; r++) {
+                    pt[out + r] = 1;
+                }
+            } else {
+                for (int r = 0; r < rows; r++) {
+                    double m = segMax[sm + r];
+                    pt[out + r] = m == neg || !(m < Double.POSITIVE_INFINITY) ? 0 : Math.exp(m - blockMax[r]);
+                }
+            }
+            int cur = 1;
+            for (int p = d.partStart[s]; p < d.partStart[s + 1]; p++) {
+                int g0 = d.groupStart[p];
+                int size = d.groupStart[p + 1] - g0;
+                if (size == 1) {
+                    continue;
+                }
+                int pm = (p - part0) * rows;
+                double[] e = ws.partExp;
+                for (int j = 0; j < size; j++) {
+                    int vb = d.groupNode[g0 + j] * rows;
+                    int eb = j * rows;
+                    for (int r = 0; r < rows; r++) {
+                        double v = value[vb + r];
+                        e[eb + r] = v == neg ? 0 : Math.exp(v - partMax[pm + r]);
+                    }
+                }
+                expand(pt, out, cur, size, e, rows, ws.row);
+                cur *= size;
+            }
+        }
+        final DMatrixRMaj sums = ws.sums;
+        final DMatrixRMaj weights = d.weights[b];
+        sums.reshape(weights.numRows, rows, false);
+        CommonOps_DDRM.mult(weights, products, sums);
+        final double[] ct = sums.data;
+        final int k0 = d.sumStart[b];
+        final int k1 = d.sumStart[b + 1];
+        for (int k = k0; k < k1; k++) {
+            int node = d.sumNode[k];
+            int base = node * rows;
+            int cb = (k - k0) * rows;
+            double lw = d.maxLogWeight[k];
+            for (int r = 0; r < rows; r++) {
+                double m = blockMax[r];
+                double sum = ct[cb + r];
+                if (!(check[r] < Double.POSITIVE_INFINITY) && check[r] != neg) {
+                    value[base + r] = exact(c, node, rows, r, value);
+                } else if (m == neg || lw == neg) {
+                    value[base + r] = neg;
+                } else if (sum >= TINY) {
+                    value[base + r] = Math.log(sum) + (lw + m);
+                } else {
+                    value[base + r] = exact(c, node, rows, r, value);
+                }
+            }
+        }
+    }
+
+    /**
+     * Replaces the first {@code cur} product rows at {@code out} by their products with each of the
+     * {@code size} rows of {@code e}: row i * size + j = row i times e_j (the new part varies fastest).
+     * Works backwards so no row is overwritten before it is read.
+     */
+    private static void expand(double[] pt, int out, int cur, int size, double[] e, int rows, double[] tmp) {
+        for (int i = cur - 1; i >= 0; i--) {
+            System.arraycopy(pt, out + i * rows, tmp, 0, rows);
+            int dst = out + i * size * rows;
+            for (int j = 0; j < size; j++) {
+                int eb = j * rows;
+                int db = dst + j * rows;
+                for (int r = 0; r < rows; r++) {
+                    pt[db + r] = tmp[r] * e[eb + r];
+                }
+            }
+        }
+    }
+
+    /**
+     * Sum {@code node} at row r exactly as the generic kernel computes it, each product child's value taken
+     * as the sum of its children's, in child order.
+     */
+    private static double exact(CircuitData c, int node, int rows, int r, double[] value) {
+        final int[] cs = c.childStart;
+        final int[] ci = c.childIndex;
+        final int s = cs[node];
+        final int end = cs[node + 1];
+        double m = Double.NEGATIVE_INFINITY;
+        for (int e = s; e < end; e++) {
+            double t = c.logWeight[e] + product(cs, ci, ci[e], rows, r, value);
+            if (t > m) {
+                m = t;
+            }
+        }
+        if (!(m > Double.NEGATIVE_INFINITY && m < Double.POSITIVE_INFINITY)) {
+            return m;
+        }
+        double sum = 0;
+        for (int e = s; e < end; e++) {
+            double t = c.logWeight[e] + product(cs, ci, ci[e], rows, r, value);
+            if (t > Double.NEGATIVE_INFINITY) {
+                sum += Math.exp(t - m);
+            }
+        }
+        return m + Math.log(sum);
+    }
+
+    private static double product(int[] cs, int[] ci, int q, int rows, int r, double[] value) {
+        int s = cs[q];
+        double v = value[ci[s] * rows + r];
+        for (int e = s + 1; e < cs[q + 1]; e++) {
+            v += value[ci[e] * rows + r];
+        }
+        return v;
+    }
+}
