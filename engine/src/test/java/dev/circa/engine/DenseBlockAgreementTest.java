@@ -1,0 +1,161 @@
+package dev.circa.engine;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.Arrays;
+import org.junit.jupiter.api.Test;
+
+/**
+ * The dense-block path against the generic path on random circuits. The generic path is the reference: it
+ * is itself checked against commons-math3 densities, handbook tables and brute-force sums in
+ * {@link EvaluatorContractTest}. Agreement is FORMAT.md's rule with the engine tolerance:
+ * |dense - generic| <= 1e-12 max(1, |generic|), -inf and NaN exactly.
+ */
+class DenseBlockAgreementTest {
+    private static final int ROWS = 150;
+
+    @Test
+    void logDensity_randomRegionGraphs_denseEqualsGeneric() {
+        for (long seed = 1; seed <= 24; seed++) {
+            int k = 1 + (int) (seed % 5);
+            RandomCircuits rc = RandomCircuits.regionGraph(seed, 4 + (int) (seed % 7), k, 1 + (int) (seed % 4),
+                    1 + (int) (seed % 3), 0.3, false);
+            CompiledCircuit circuit = rc.compile();
+            assertAgree(circuit, rc.rows(ROWS, 0.2), "region graph seed " + seed);
+        }
+    }
+
+    @Test
+    void logDensity_regionGraphsWithZeroTinyAndShiftedWeights_denseEqualsGeneric() {
+        for (long seed = 100; seed < 124; seed++) {
+            RandomCircuits rc = RandomCircuits.regionGraph(seed, 5 + (int) (seed % 6), 2 + (int) (seed % 4),
+                    2 + (int) (seed % 3), 1, 0.4, true);
+            assertAgree(rc.compile(), rc.rows(ROWS, 0.25), "extreme weights seed " + seed);
+        }
+    }
+
+    @Test
+    void logDensity_randomUnstructuredCircuits_denseEqualsGeneric() {
+        for (long seed = 200; seed < 220; seed++) {
+            RandomCircuits rc = RandomCircuits.unstructured(seed, 5, 12, 150, seed % 2 == 0);
+            assertAgree(rc.compile(), rc.rows(ROWS, 0.2), "unstructured seed " + seed);
+        }
+    }
+
+    @Test
+    void logDensity_regionGraphsWithSharedProductsAndExtraSums_denseEqualsGeneric() {
+        for (long seed = 300; seed < 320; seed++) {
+            RandomCircuits rc = RandomCircuits.mixed(seed, 5 + (int) (seed % 5), 2 + (int) (seed % 3),
+                    2 + (int) (seed % 2));
+            assertAgree(rc.compile(), rc.rows(ROWS, 0.2), "mixed seed " + seed);
+        }
+    }
+
+    @Test
+    void logDensity_weightsBelowDoubleRangeWhereProductsAreLarge_exactFallbackAgrees() {
+        TestCircuits t = new TestCircuits();
+        for (int v = 0; v < 2; v++) {
+            t.variable("valve_" + v, dev.circa.format.VariableType.CATEGORICAL, "closed", "half", "open", "shut");
+        }
+        int[][] parts = new int[2][4];
+        for (int v = 0; v < 2; v++) {
+            for (int s = 0; s < 4; s++) {
+                parts[v][s] = s == 0 ? t.input(dev.circa.format.Family.INDICATOR, v, 0)
+                        : t.input(dev.circa.format.Family.CATEGORICAL, v, 0.1, 0.2, 0.3, 0.4);
+            }
+        }
+        int[] products = new int[16];
+        for (int a = 0; a < 4; a++) {
+            for (int b = 0; b < 4; b++) {
+                products[a * 4 + b] = t.product(parts[0][a], parts[1][b]);
+            }
+        }
+        // the largest weight sits on the product of the two indicators; every other weight is exp(-740),
+        // below the normal double range once scaled by the largest
+        double[] lw = new double[16];
+        Arrays.fill(lw, -740);
+        lw[0] = 0;
+        int s0 = t.logSum(lw, products);
+        double[] lw2 = lw.clone();
+        lw2[5] = 3;
+        int s1 = t.logSum(lw2, products);
+        t.output("joint", s0).output("other", s1);
+        CompiledCircuit circuit = t.compile();
+        assertEquals(1, circuit.denseBlockSummary().blocks(), "one block of two sums");
+        // rows where the indicators' states do not occur (value 3) leave only the exp(-740) terms
+        assertAgree(circuit, new double[] {3, 3, 0, 0, 3, 0, 0, 3, 2, 1, Double.NaN, 3}, "tiny weights");
+        double[] out = new double[12];
+        new Evaluator(circuit).logDensity(new double[] {3, 3, 0, 0, 3, 0, 0, 3, 2, 1, Double.NaN, 3}, 6, out);
+        // by hand: at valve 3 the indicators are 0, leaving 9 products of two categoricals, 0.4 * 0.4 each,
+        // under weight exp(-740) (common practice)
+        Tolerances.assertClose(-740 + Math.log(9 * 0.4 * 0.4), out[0], "row 0");
+        assertTrue(out[0] > -745, "not lost to underflow");
+    }
+
+    @Test
+    void logDensity_everyCellMissingOrOutsideSupport_denseEqualsGeneric() {
+        RandomCircuits rc = RandomCircuits.regionGraph(400, 9, 4, 3, 2, 0.3, true);
+        CompiledCircuit circuit = rc.compile();
+        double[] data = new double[3 * 9];
+        Arrays.fill(data, 0, 9, Double.NaN);
+        Arrays.fill(data, 9, 18, 7);
+        for (int v = 0; v < 9; v++) {
+            data[18 + v] = v % 3 == 0 ? 1.0 : 7;
+        }
+        assertAgree(circuit, data, "missing and outside support");
+        double[] out = new double[3 * circuit.outputCount()];
+        new Evaluator(circuit).logDensity(data, 3, out);
+        // a discrete value outside every input's support makes every term 0 (common practice)
+        assertEquals(Double.NEGATIVE_INFINITY, out[circuit.outputCount()], "all cells outside the support");
+    }
+
+    @Test
+    void conditionalAndLogPartition_randomRegionGraphs_denseEqualsGeneric() {
+        for (long seed = 500; seed < 510; seed++) {
+            RandomCircuits rc = RandomCircuits.regionGraph(seed, 7, 3, 2, 2, 0.3, seed % 2 == 0);
+            CompiledCircuit circuit = rc.compile();
+            double[] data = rc.rows(ROWS, 0.1);
+            boolean[] given = new boolean[7];
+            for (int v = 0; v < 7; v += 2) {
+                given[v] = true;
+            }
+            int size = ROWS * circuit.outputCount();
+            double[] generic = new double[size];
+            double[] dense = new double[size];
+            new Evaluator(circuit, Evaluator.Mode.GENERIC).conditional(data, ROWS, given, generic);
+            Evaluator automatic = new Evaluator(circuit);
+            assertTrue(automatic.usesDenseBlocks(), "seed " + seed + " has dense blocks");
+            automatic.conditional(data, ROWS, given, dense);
+            for (int i = 0; i < size; i++) {
+                Tolerances.assertClose(generic[i], dense[i], "conditional seed " + seed + " entry " + i);
+            }
+            double[] z = new Evaluator(circuit, Evaluator.Mode.GENERIC).logPartition();
+            double[] zd = automatic.logPartition();
+            for (int o = 0; o < z.length; o++) {
+                Tolerances.assertClose(z[o], zd[o], "log Z seed " + seed + " output " + o);
+            }
+        }
+    }
+
+    /** Automatic and forced dense paths both agree with the generic one on every row and output. */
+    static void assertAgree(CompiledCircuit circuit, double[] data, String what) {
+        int rows = data.length / circuit.variableCount();
+        int size = rows * circuit.outputCount();
+        double[] generic = new double[size];
+        new Evaluator(circuit, Evaluator.Mode.GENERIC).logDensity(data, rows, generic);
+        Evaluator[] variants = {new Evaluator(circuit), Evaluator.everyCandidateBlock(circuit)};
+        int finite = 0;
+        for (Evaluator e : variants) {
+            double[] out = new double[size];
+            e.logDensity(data, rows, out);
+            for (int i = 0; i < size; i++) {
+                Tolerances.assertClose(generic[i], out[i], what + " entry " + i + (e.usesDenseBlocks() ? " (dense)" : ""));
+                if (Double.isFinite(generic[i])) {
+                    finite++;
+                }
+            }
+        }
+        assertTrue(finite > 0, what + ": some values are finite");
+    }
+}
