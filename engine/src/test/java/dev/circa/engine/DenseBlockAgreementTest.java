@@ -3,6 +3,8 @@ package dev.circa.engine;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import dev.circa.format.Family;
+import dev.circa.format.VariableType;
 import java.util.Arrays;
 import org.junit.jupiter.api.Test;
 
@@ -56,13 +58,13 @@ class DenseBlockAgreementTest {
     void logDensity_weightsBelowDoubleRangeWhereProductsAreLarge_exactFallbackAgrees() {
         TestCircuits t = new TestCircuits();
         for (int v = 0; v < 2; v++) {
-            t.variable("valve_" + v, dev.circa.format.VariableType.CATEGORICAL, "closed", "half", "open", "shut");
+            t.variable("valve_" + v, VariableType.CATEGORICAL, "closed", "half", "open", "shut");
         }
         int[][] parts = new int[2][4];
         for (int v = 0; v < 2; v++) {
             for (int s = 0; s < 4; s++) {
-                parts[v][s] = s == 0 ? t.input(dev.circa.format.Family.INDICATOR, v, 0)
-                        : t.input(dev.circa.format.Family.CATEGORICAL, v, 0.1, 0.2, 0.3, 0.4);
+                parts[v][s] = s == 0 ? t.input(Family.INDICATOR, v, 0)
+                        : t.input(Family.CATEGORICAL, v, 0.1, 0.2, 0.3, 0.4);
             }
         }
         int[] products = new int[16];
@@ -91,6 +93,33 @@ class DenseBlockAgreementTest {
         // under weight exp(-740) (common practice)
         Tolerances.assertClose(-740 + Math.log(9 * 0.4 * 0.4), out[0], "row 0");
         assertTrue(out[0] > -745, "not lost to underflow");
+    }
+
+    @Test
+    void logDensity_partsWithInfiniteDensities_denseEqualsGeneric() {
+        // a gamma density with shape < 1 is +inf at 0 (its limit at the edge of the support), so products of
+        // +inf and -inf parts are NaN; both paths must give the same numbers (common practice: IEEE 754 rules)
+        TestCircuits t = new TestCircuits().variable("motor_current", VariableType.REAL)
+                .variable("alarm", VariableType.BINARY);
+        int[] a = new int[4];
+        int[] b = new int[4];
+        for (int j = 0; j < 4; j++) {
+            a[j] = j % 2 == 0 ? t.input(Family.GAMMA, 0, 0.5, 1 + j) : t.input(Family.EXPONENTIAL, 0, 1 + j);
+            b[j] = j == 0 ? t.input(Family.INDICATOR, 1, 1) : t.input(Family.BERNOULLI, 1, 0.2 * j);
+        }
+        int[] products = new int[16];
+        for (int i = 0; i < 16; i++) {
+            products[i] = t.product(a[i / 4], b[i % 4]);
+        }
+        double[] w = new double[16];
+        Arrays.fill(w, 1.0 / 16);
+        int s0 = t.sum(w, products);
+        w[3] = 0;
+        int s1 = t.sum(w, products);
+        t.output("joint", s0).output("other", s1).output("mix", t.sum(new double[] {0.5, 0.5}, s0, s1));
+        CompiledCircuit circuit = t.compile();
+        assertEquals(1, circuit.denseBlockSummary().blocks(), "one block");
+        assertAgree(circuit, new double[] {0, 0, 0, 1, 0.5, 0, 0.5, 1, Double.NaN, 0, 0, Double.NaN}, "infinite parts");
     }
 
     @Test

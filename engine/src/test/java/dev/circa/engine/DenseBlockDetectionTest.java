@@ -33,7 +33,7 @@ class DenseBlockDetectionTest {
                 // twice the exponentials, so every region pays
                 assertEquals(DenseBlocks.BLOCK, blocks.action[first], "seed " + seed + " region " + r);
                 for (int s = 1; s < regionSums.length; s++) {
-                    assertEquals(DenseBlocks.SKIP, blocks.action[circuit.nodeIndexOfId(regionSums[s])], "later sum");
+                    assertEquals(DenseBlocks.BLOCK_SUM, blocks.action[circuit.nodeIndexOfId(regionSums[s])], "later sum");
                 }
                 for (int p : products) {
                     // a region's products are used by its sums only: never materialised
@@ -46,6 +46,13 @@ class DenseBlockDetectionTest {
             assertEquals(sums, summary.sums(), "seed " + seed);
             assertEquals(edges, summary.edges(), "seed " + seed);
             assertTrue(new Evaluator(circuit).usesDenseBlocks(), "automatic path");
+            // values are kept only while read: fewer slots than evaluated nodes
+            int evaluated = 0;
+            for (int i = 0; i < circuit.nodeCount(); i++) {
+                evaluated += blocks.action[i] == DenseBlocks.SKIP ? 0 : 1;
+            }
+            assertTrue(blocks.slotCount < evaluated, "seed " + seed + ": " + blocks.slotCount + " slots for "
+                    + evaluated + " evaluated nodes");
             assertFalse(new Evaluator(circuit, Evaluator.Mode.GENERIC).usesDenseBlocks(), "generic path");
         }
     }

@@ -147,7 +147,7 @@ public final class DenseBlockFinder {
                 for (int j = 0; j < w; j++) {
                     m.data[row * w + j] = max == Double.NEGATIVE_INFINITY ? 0 : Math.exp(c.logWeight[cs[s] + j] - max);
                 }
-                action[s] = s == first ? DenseBlocks.BLOCK : DenseBlocks.SKIP;
+                action[s] = s == first ? DenseBlocks.BLOCK : DenseBlocks.BLOCK_SUM;
             }
             blockAt[first] = b;
             weights.add(m);
@@ -178,9 +178,101 @@ public final class DenseBlockFinder {
             System.arraycopy(rowMax, 0, maxLogWeight, at, rowMax.length);
             at += rowMax.length;
         }
-        return new DenseBlocks(action, blockAt, sumStart.toArray(), sumNode.toArray(), maxLogWeight, width.toArray(),
-                weights.toArray(new DMatrixRMaj[0]), segStart.toArray(), segOffset.toArray(), segLength.toArray(),
-                partStart.toArray(), groupStart.toArray(), groupNode.toArray(), blockEdges);
+        int[] sumStarts = sumStart.toArray();
+        int[] sums = sumNode.toArray();
+        int[] segStarts = segStart.toArray();
+        int[] partStarts = partStart.toArray();
+        int[] groupStarts = groupStart.toArray();
+        int[] groupNodes = groupNode.toArray();
+        int[] nodeSlot = new int[n];
+        int[] childSlot = new int[ci.length];
+        int slotCount = assignSlots(c, action, blockAt, sumStarts, sums, segStarts, partStarts, groupStarts, groupNodes,
+                nodeSlot, childSlot);
+        return new DenseBlocks(action, blockAt, sumStarts, sums, maxLogWeight, width.toArray(),
+                weights.toArray(new DMatrixRMaj[0]), segStarts, segOffset.toArray(), segLength.toArray(),
+                partStarts, groupStarts, groupNodes, blockEdges, nodeSlot, childSlot, slotCount);
+    }
+
+    /**
+     * Linear-scan slot assignment in node order: a node gets a free slot when it is evaluated (a block's
+     * sums all at the block) and gives it back after its last reader (outputs never). Fills
+     * {@code nodeSlot} and {@code childSlot}; returns the number of slots.
+     */
+    private static int assignSlots(CircuitData c, byte[] action, int[] blockAt, int[] sumStart, int[] sumNode,
+            int[] segStart, int[] partStart, int[] groupStart, int[] groupNode, int[] nodeSlot, int[] childSlot) {
+        final int n = c.nodeCount;
+        final int[] cs = c.childStart;
+        final int[] ci = c.childIndex;
+        final int never = Integer.MAX_VALUE;
+        int[] lastUse = new int[n];
+        Arrays.fill(lastUse, -1);
+        for (int i = 0; i < n; i++) {
+            if (action[i] == DenseBlocks.GENERIC) {
+                for (int e = cs[i]; e < cs[i + 1]; e++) {
+                    lastUse[ci[e]] = Math.max(lastUse[ci[e]], i);
+                }
+            } else if (action[i] == DenseBlocks.BLOCK) {
+                int b = blockAt[i];
+                for (int g = groupStart[partStart[segStart[b]]]; g < groupStart[partStart[segStart[b + 1]]]; g++) {
+                    lastUse[groupNode[g]] = Math.max(lastUse[groupNode[g]], i);
+                }
+            }
+        }
+        for (int o : c.outputNode) {
+            lastUse[o] = never;
+        }
+        Arrays.fill(nodeSlot, -1);
+        int[] free = new int[n];
+        int freeCount = 0;
+        int slots = 0;
+        for (int i = 0; i < n; i++) {
+            byte a = action[i];
+            if (a == DenseBlocks.GENERIC) {
+                nodeSlot[i] = freeCount > 0 ? free[--freeCount] : slots++;
+                for (int e = cs[i]; e < cs[i + 1]; e++) {
+                    childSlot[e] = nodeSlot[ci[e]];
+                }
+                for (int e = cs[i]; e < cs[i + 1]; e++) {
+                    int child = ci[e];
+                    if (lastUse[child] == i) {
+                        free[freeCount++] = nodeSlot[child];
+                        lastUse[child] = -2;
+                    }
+                }
+                if (lastUse[i] == -1) {
+                    free[freeCount++] = nodeSlot[i];
+                    lastUse[i] = -2;
+                }
+            } else if (a == DenseBlocks.BLOCK) {
+                int b = blockAt[i];
+                for (int k = sumStart[b]; k < sumStart[b + 1]; k++) {
+                    nodeSlot[sumNode[k]] = freeCount > 0 ? free[--freeCount] : slots++;
+                }
+                // the block's products read their children (the parts) here, for the exact path
+                int list0 = cs[i];
+                for (int j = list0; j < cs[i + 1]; j++) {
+                    int q = ci[j];
+                    for (int e = cs[q]; e < cs[q + 1]; e++) {
+                        childSlot[e] = nodeSlot[ci[e]];
+                    }
+                }
+                for (int g = groupStart[partStart[segStart[b]]]; g < groupStart[partStart[segStart[b + 1]]]; g++) {
+                    int part = groupNode[g];
+                    if (lastUse[part] == i) {
+                        free[freeCount++] = nodeSlot[part];
+                        lastUse[part] = -2;
+                    }
+                }
+                for (int k = sumStart[b]; k < sumStart[b + 1]; k++) {
+                    int s = sumNode[k];
+                    if (lastUse[s] == -1) {
+                        free[freeCount++] = nodeSlot[s];
+                        lastUse[s] = -2;
+                    }
+                }
+            }
+        }
+        return Math.max(1, slots);
     }
 
     /**

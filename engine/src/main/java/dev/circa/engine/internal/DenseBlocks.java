@@ -16,14 +16,23 @@ import org.ejml.data.DMatrixRMaj;
  * slowest (u read in mixed radix over the part sizes).
  *
  * <p>Per node, {@code action[i]} says how the dense kernel treats it: {@link #GENERIC} (evaluated as
- * usual), {@link #SKIP} (a product used only by its block's sums, never materialised, or a block sum
- * after the block's first) or {@link #BLOCK} (the first sum of block {@code blockAt[i]}: the whole block
- * is evaluated there, after all its parts, which precede its products). Never modified after the analysis.
+ * usual), {@link #SKIP} (a product used only by its block's sums, never materialised), {@link #BLOCK}
+ * (the first sum of block {@code blockAt[i]}: the whole block is evaluated there, after all its parts,
+ * which precede its products) or {@link #BLOCK_SUM} (a later sum of a block, already done).
+ *
+ * <p>Value slots: the dense kernel keeps a node's values only while a later node still reads them. Node i
+ * has slot {@code nodeSlot[i]} (-1 for skipped products), its values at {@code value[slot * rows + r]};
+ * {@code childSlot[e]} is the slot of edge e's child at the time its parent reads it (a skipped product's
+ * children are read when its block is evaluated); {@code groupSlot} and {@code sumSlot} mirror
+ * {@code groupNode} and {@code sumNode}. Slots are reused once their node's last reader is done, so a
+ * region-graph circuit needs a small fraction of one slot per node ({@code slotCount} in all), and chunks
+ * of many rows fit the evaluator's memory budget. Never modified after the analysis.
  */
 public final class DenseBlocks {
     public static final byte GENERIC = 0;
     public static final byte SKIP = 1;
     public static final byte BLOCK = 2;
+    public static final byte BLOCK_SUM = 3;
 
     public final byte[] action;
     public final int[] blockAt;
@@ -44,12 +53,17 @@ public final class DenseBlocks {
     public final int maxPartSize;
     public final int maxParts;
     public final int maxSegments;
+    public final int[] nodeSlot;
+    public final int[] childSlot;
+    public final int[] groupSlot;
+    public final int[] sumSlot;
+    public final int slotCount;
     /** Edges evaluated inside blocks: sum edges plus the edges of products that are not materialised. */
     public final long blockEdges;
 
     DenseBlocks(byte[] action, int[] blockAt, int[] sumStart, int[] sumNode, double[] maxLogWeight, int[] width,
             DMatrixRMaj[] weights, int[] segStart, int[] segOffset, int[] segLength, int[] partStart,
-            int[] groupStart, int[] groupNode, long blockEdges) {
+            int[] groupStart, int[] groupNode, long blockEdges, int[] nodeSlot, int[] childSlot, int slotCount) {
         this.action = action;
         this.blockAt = blockAt;
         this.sumStart = sumStart;
@@ -64,6 +78,17 @@ public final class DenseBlocks {
         this.groupStart = groupStart;
         this.groupNode = groupNode;
         this.blockEdges = blockEdges;
+        this.nodeSlot = nodeSlot;
+        this.childSlot = childSlot;
+        this.slotCount = slotCount;
+        this.groupSlot = new int[groupNode.length];
+        for (int g = 0; g < groupNode.length; g++) {
+            groupSlot[g] = nodeSlot[groupNode[g]];
+        }
+        this.sumSlot = new int[sumNode.length];
+        for (int k = 0; k < sumNode.length; k++) {
+            sumSlot[k] = nodeSlot[sumNode[k]];
+        }
         int w = 0;
         int k = 0;
         int ps = 0;

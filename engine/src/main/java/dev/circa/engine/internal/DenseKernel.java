@@ -17,8 +17,9 @@ import org.ejml.dense.row.CommonOps_DDRM;
  *
  * <p>Exactness: every linear factor is in [0, 1] and the argmax product of a row is exactly 1, so a sum
  * below {@value #TINY} can only come from weights that are tiny where the products are large; such an
- * entry, a row whose block reads +inf or NaN, and nothing else, is recomputed by the generic log-sum-exp
- * over the sum's edges. A row whose block maximum is -inf (every product 0) gives -inf; so does a sum whose
+ * entry is recomputed by the generic log-sum-exp over the sum's edges, and so is every entry of a row
+ * where a segment's maximum is +inf or NaN (a part with a +inf value); a NaN elsewhere in a part makes
+ * the linear sum NaN, which also goes the exact way. A row whose block maximum is -inf (every product 0) gives -inf; so does a sum whose
  * weights are all 0. The kernel trusts its input.
  */
 public final class DenseKernel {
@@ -30,8 +31,8 @@ public final class DenseKernel {
 
     /**
      * Sum-product pass; arguments as {@link ForwardKernel#run} with {@code max = false}, plus the blocks of
-     * {@code c} and a workspace for at least {@code rows} rows. Values of skipped products are left
-     * untouched.
+     * {@code c} and a workspace for at least {@code rows} rows. Values are slot-major
+     * ({@link DenseBlocks#nodeSlot}): {@code value} holds at least {@code blocks.slotCount * rows} doubles.
      */
     public static void run(CircuitData c, DenseBlocks blocks, double[] data, int row0, int rows, boolean[] hide,
             double[] value, double[] scratch, MvNormalWorkspace mvn, DenseWorkspace ws) {
@@ -39,10 +40,46 @@ public final class DenseKernel {
         for (int i = 0; i < c.nodeCount; i++) {
             byte a = action[i];
             if (a == DenseBlocks.GENERIC) {
-                ForwardKernel.node(c, i, data, row0, rows, hide, false, value, scratch, mvn);
+                node(c, blocks, i, data, row0, rows, hide, value, scratch, mvn);
             } else if (a == DenseBlocks.BLOCK) {
                 block(c, blocks, blocks.blockAt[i], rows, value, ws);
             }
+        }
+    }
+
+    /** {@link ForwardKernel#node} in slots. */
+    private static void node(CircuitData c, DenseBlocks d, int i, double[] data, int row0, int rows, boolean[] hide,
+            double[] value, double[] scratch, MvNormalWorkspace mvn) {
+        final int[] childSlot = d.childSlot;
+        final int base = d.nodeSlot[i] * rows;
+        final int s = c.childStart[i];
+        final int end = c.childStart[i + 1];
+        if (c.kind[i] == CircuitData.PRODUCT) {
+            System.arraycopy(value, childSlot[s] * rows, value, base, rows);
+            for (int e = s + 1; e < end; e++) {
+                int cb = childSlot[e] * rows;
+                for (int r = 0; r < rows; r++) {
+                    value[base + r] += value[cb + r];
+                }
+            }
+        } else if (c.kind[i] == CircuitData.SUM) {
+            final double[] logWeight = c.logWeight;
+            for (int r = 0; r < rows; r++) {
+                value[base + r] = Double.NEGATIVE_INFINITY;
+            }
+            for (int e = s; e < end; e++) {
+                int cb = childSlot[e] * rows;
+                double w = logWeight[e];
+                for (int r = 0; r < rows; r++) {
+                    double t = w + value[cb + r];
+                    if (t > value[base + r]) {
+                        value[base + r] = t;
+                    }
+                }
+            }
+            ForwardKernel.logSumExp(value, base, rows, s, end, childSlot, logWeight, scratch);
+        } else {
+            ForwardKernel.input(c, data, row0, rows, hide, false, value, base, c.inputSlot[i], c.variableCount, mvn);
         }
     }
 
@@ -69,17 +106,12 @@ public final class DenseKernel {
                 int pm = (p - part0) * rows;
                 int g0 = d.groupStart[p];
                 int g1 = d.groupStart[p + 1];
-                int vb = d.groupNode[g0] * rows;
-                for (int r = 0; r < rows; r++) {
-                    double v = value[vb + r];
-                    partMax[pm + r] = v;
-                    check[r] += v;
-                }
+                int vb = d.groupSlot[g0] * rows;
+                System.arraycopy(value, vb, partMax, pm, rows);
                 for (int g = g0 + 1; g < g1; g++) {
-                    vb = d.groupNode[g] * rows;
+                    vb = d.groupSlot[g] * rows;
                     for (int r = 0; r < rows; r++) {
                         double v = value[vb + r];
-                        check[r] += v;
                         if (v > partMax[pm + r]) {
                             partMax[pm + r] = v;
                         }
@@ -90,8 +122,12 @@ public final class DenseKernel {
                 }
             }
             for (int r = 0; r < rows; r++) {
-                if (segMax[sm + r] > blockMax[r]) {
-                    blockMax[r] = segMax[sm + r];
+                double m = segMax[sm + r];
+                if (m > blockMax[r]) {
+                    blockMax[r] = m;
+                }
+                if (m != m || m == Double.POSITIVE_INFINITY) {
+                    check[r] = 1;
                 }
             }
         }
@@ -122,7 +158,7 @@ public final class DenseKernel {
                 int pm = (p - part0) * rows;
                 double[] e = ws.partExp;
                 for (int j = 0; j < size; j++) {
-                    int vb = d.groupNode[g0 + j] * rows;
+                    int vb = d.groupSlot[g0 + j] * rows;
                     int eb = j * rows;
                     for (int r = 0; r < rows; r++) {
                         double v = value[vb + r];
@@ -142,20 +178,20 @@ public final class DenseKernel {
         final int k1 = d.sumStart[b + 1];
         for (int k = k0; k < k1; k++) {
             int node = d.sumNode[k];
-            int base = node * rows;
+            int base = d.sumSlot[k] * rows;
             int cb = (k - k0) * rows;
             double lw = d.maxLogWeight[k];
             for (int r = 0; r < rows; r++) {
                 double m = blockMax[r];
                 double sum = ct[cb + r];
-                if (!(check[r] < Double.POSITIVE_INFINITY) && check[r] != neg) {
-                    value[base + r] = exact(c, node, rows, r, value);
+                if (check[r] != 0) {
+                    value[base + r] = exact(c, d.childSlot, node, rows, r, value);
                 } else if (m == neg || lw == neg) {
                     value[base + r] = neg;
                 } else if (sum >= TINY) {
                     value[base + r] = Math.log(sum) + (lw + m);
                 } else {
-                    value[base + r] = exact(c, node, rows, r, value);
+                    value[base + r] = exact(c, d.childSlot, node, rows, r, value);
                 }
             }
         }
@@ -184,14 +220,14 @@ public final class DenseKernel {
      * Sum {@code node} at row r exactly as the generic kernel computes it, each product child's value taken
      * as the sum of its children's, in child order.
      */
-    private static double exact(CircuitData c, int node, int rows, int r, double[] value) {
+    private static double exact(CircuitData c, int[] slot, int node, int rows, int r, double[] value) {
         final int[] cs = c.childStart;
         final int[] ci = c.childIndex;
         final int s = cs[node];
         final int end = cs[node + 1];
         double m = Double.NEGATIVE_INFINITY;
         for (int e = s; e < end; e++) {
-            double t = c.logWeight[e] + product(cs, ci, ci[e], rows, r, value);
+            double t = c.logWeight[e] + product(cs, ci, slot, ci[e], rows, r, value);
             if (t > m) {
                 m = t;
             }
@@ -201,7 +237,7 @@ public final class DenseKernel {
         }
         double sum = 0;
         for (int e = s; e < end; e++) {
-            double t = c.logWeight[e] + product(cs, ci, ci[e], rows, r, value);
+            double t = c.logWeight[e] + product(cs, ci, slot, ci[e], rows, r, value);
             if (t > Double.NEGATIVE_INFINITY) {
                 sum += Math.exp(t - m);
             }
@@ -209,11 +245,11 @@ public final class DenseKernel {
         return m + Math.log(sum);
     }
 
-    private static double product(int[] cs, int[] ci, int q, int rows, int r, double[] value) {
+    private static double product(int[] cs, int[] ci, int[] slot, int q, int rows, int r, double[] value) {
         int s = cs[q];
-        double v = value[ci[s] * rows + r];
+        double v = value[slot[s] * rows + r];
         for (int e = s + 1; e < cs[q + 1]; e++) {
-            v += value[ci[e] * rows + r];
+            v += value[slot[e] * rows + r];
         }
         return v;
     }

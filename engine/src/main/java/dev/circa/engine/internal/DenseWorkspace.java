@@ -18,7 +18,7 @@ public final class DenseWorkspace {
     final double[] segMax;
     /** Per row, the block's largest segment maximum. */
     final double[] blockMax;
-    /** Per row, the sum of every value the block reads: NaN or +inf marks a row for the exact path. */
+    /** Per row, 1 when a segment maximum is NaN or +inf: the row takes the exact path. */
     final double[] check;
     /** Exponentials of one part, size x rows. */
     final double[] partExp;

@@ -72,7 +72,7 @@ public final class ForwardKernel {
     }
 
     /** Replaces the maxima at {@code value[base..]} by log sum exp over the children. */
-    private static void logSumExp(double[] value, int base, int rows, int s, int end, int[] childIndex,
+    static void logSumExp(double[] value, int base, int rows, int s, int end, int[] childIndex,
             double[] logWeight, double[] sum) {
         for (int r = 0; r < rows; r++) {
             sum[r] = 0;
@@ -96,7 +96,7 @@ public final class ForwardKernel {
         }
     }
 
-    private static void input(CircuitData c, double[] data, int row0, int rows, boolean[] hide, boolean max,
+    static void input(CircuitData c, double[] data, int row0, int rows, boolean[] hide, boolean max,
             double[] value, int base, int slot, int nv, MvNormalWorkspace mvn) {
         int code = c.family[slot];
         int off = c.paramStart[slot];
