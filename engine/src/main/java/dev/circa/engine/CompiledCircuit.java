@@ -84,7 +84,9 @@ public final class CompiledCircuit {
      * What the automatic evaluation path found in this circuit's structure: groups of sums over one
      * common list of products that are cross products of node groups (the dense blocks of region-graph
      * circuits), evaluated as matrix products. The analysis runs once, on first use by this method or by
-     * an {@link Evaluator}, and is cached; safe to call from any thread.
+     * an {@link Evaluator}, and is cached; safe to call from any thread. It takes one pass over the edges
+     * (about 0.1 s at 10^6 edges) and keeps about 12 bytes per edge (the blocks' linear weights and a slot
+     * table).
      */
     public DenseBlockSummary denseBlockSummary() {
         DenseBlocks d = denseBlocks();
