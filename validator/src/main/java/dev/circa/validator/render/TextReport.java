@@ -41,7 +41,7 @@ public final class TextReport {
                 first = true;
                 for (Map.Entry<String, Double> e : r.logPartition().entrySet()) {
                     sb.append(first ? " " : ", ").append(e.getKey()).append(' ')
-                            .append(String.format(Locale.ROOT, "%.17g", e.getValue()));
+                            .append(String.format(Locale.ROOT, "%s", e.getValue()));
                     first = false;
                 }
                 sb.append('\n');

@@ -24,12 +24,16 @@ public final class RequiredPropertyUnknown extends Rule {
     }
 
     private static String reason(RuleContext ctx, Property p) {
+        boolean inputsBad = ctx.parameters().anyProblem() || !ctx.graph().familyTypes.isEmpty()
+                || !ctx.graph().repeatedVars.isEmpty();
+        if (inputsBad) {
+            return "some inputs are invalid (see the errors above)";
+        }
         return switch (p) {
-            case NORMALIZED -> ctx.parameters().anyProblem()
-                    ? "some parameters are invalid" : "log Z is computed in one pass only for smooth, decomposable circuits";
-            case DETERMINISTIC -> ctx.parameters().anyProblem() ? "some parameters are invalid"
-                    : "some sums are neither separated by one variable nor small enough to enumerate (--max-enumeration)";
-            default -> "some parameters or references are invalid";
+            case NORMALIZED -> "log Z is computed in one pass only for smooth, decomposable circuits";
+            case DETERMINISTIC -> "some sums are neither separated by one variable nor small enough to enumerate "
+                    + "(--max-enumeration)";
+            default -> "the references are invalid";
         };
     }
 }
