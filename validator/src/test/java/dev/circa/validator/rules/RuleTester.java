@@ -21,6 +21,7 @@ import tools.jackson.databind.json.JsonMapper;
  */
 final class RuleTester {
     private final String json;
+    private CircuitDocument built;
     private ValidationOptions options = ValidationOptions.defaults();
     private SchemaCheck schema = SchemaCheck.NONE;
     private final List<String> expected = new ArrayList<>();
@@ -28,6 +29,13 @@ final class RuleTester {
 
     private RuleTester(String json) {
         this.json = json;
+    }
+
+    /** A document built in code (for values JSON cannot hold). */
+    static RuleTester built(CircuitDocument doc) {
+        RuleTester t = new RuleTester(null);
+        t.built = doc;
+        return t;
     }
 
     /** A whole document. */
@@ -68,11 +76,13 @@ final class RuleTester {
 
     /** Validates and compares; returns the report for further assertions. */
     ValidationReport check() {
-        CircuitDocument doc;
-        try {
-            doc = new CircuitReader().readString(json, "test.json");
-        } catch (FormatException e) {
-            throw new AssertionError("test model does not read: " + e.getMessage(), e);
+        CircuitDocument doc = built;
+        if (doc == null) {
+            try {
+                doc = new CircuitReader().readString(json, "test.json");
+            } catch (FormatException e) {
+                throw new AssertionError("test model does not read: " + e.getMessage(), e);
+            }
         }
         Validator v = new Validator(options, schema);
         report = schema == SchemaCheck.NONE ? v.validate(doc)
