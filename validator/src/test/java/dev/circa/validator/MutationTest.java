@@ -323,5 +323,4 @@ class MutationTest {
         out.set(i, new InputNode(in.id(), null, in.family(), in.vars(), p, in.logForm()));
         return new Object[] {out, code};
     }
-
 }

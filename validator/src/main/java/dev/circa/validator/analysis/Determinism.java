@@ -491,21 +491,27 @@ public final class Determinism {
             stamp = new int[g.size()];
             Arrays.fill(stamp, -1);
         }
+        long room = Math.min(WORDS_PER_SUM, WORD_BUDGET - wordsUsed) / words;
+        if (room <= 0) {
+            return UNKNOWN;
+        }
         IntList sub = new IntList();
         IntList stack = new IntList();
         for (int k = 0; k < kids.size(); k++) {
             push(kids.get(k), sum, sub, stack);
         }
-        while (!stack.isEmpty()) {
+        while (!stack.isEmpty() && sub.size() <= room) {
             int top = stack.pop();
             for (int e = g.childStart(top); e < g.childEnd(top); e++) {
                 push(g.child(e), sum, sub, stack);
             }
         }
-        long need = (long) sub.size() * words;
-        if (need > WORDS_PER_SUM || wordsUsed + need > WORD_BUDGET) {
+        // the walk itself counts, so that a budget spent on large sub-circuits stops further walks
+        wordsUsed += sub.size();
+        if (sub.size() > room) {
             return UNKNOWN;
         }
+        long need = (long) sub.size() * words;
         wordsUsed += need;
         int[] nodes = sub.toArray();
         Arrays.sort(nodes);

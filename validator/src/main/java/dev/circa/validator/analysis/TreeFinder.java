@@ -38,7 +38,7 @@ public final class TreeFinder {
         Map<Integer, Integer> exampleOf = new HashMap<>();
         for (Scopes.Decomposition d : s.decompositions()) {
             if (d.overlap()) {
-                return new Result(null, d.example(), "its children's scopes overlap, so no split of a tree node gives them");
+                return new Result(null, d.example(), "has children whose scopes overlap, so no split of a tree node gives them");
             }
             exampleOf.putIfAbsent(d.scope(), d.example());
         }
@@ -71,7 +71,7 @@ public final class TreeFinder {
                     int crossing = p == 0 ? q : q == 0 ? p
                             : t.vars(sets.get(p - 1)).length <= t.vars(sets.get(q - 1)).length ? p : q;
                     return new Result(null, exampleOf.get(sc), String.format(java.util.Locale.ROOT,
-                            "its scope %s crosses the scope %s of product %d: neither holds the other, so they "
+                            "has the scope %s, which crosses the scope %s of product %d: neither holds the other, so they "
                                     + "cannot both be nodes of one variable tree",
                             Arrays.toString(v), Arrays.toString(t.vars(sets.get(crossing - 1))),
                             g.id(exampleOf.get(sets.get(crossing - 1)))));
@@ -120,7 +120,7 @@ public final class TreeFinder {
                 for (int x : kv) {
                     if (label[x] != l) {
                         return new Result(null, d.example(), String.format(java.util.Locale.ROOT,
-                                "its children split the variables %s, which product %d keeps together as its "
+                                "splits the variables %s, which product %d keeps together as its "
                                         + "scope, so no variable tree has both",
                                 Arrays.toString(kv), g.id(exampleOf.get(sets.get(kid - 1)))));
                     }

@@ -16,7 +16,6 @@ public final class ProductNotStructured extends Rule {
             return;
         }
         ctx.atNode(this, ctx.propertySeverity(Property.STRUCTURED_DECOMPOSABLE), t.product(), null,
-                String.format(Locale.ROOT, "the circuit is not structured-decomposable: product %d fits no variable "
-                        + "tree that fits the other products: %s", ctx.graph().id(t.product()), t.reason()));
+                String.format(Locale.ROOT, "the circuit is not structured-decomposable: product %d %s", ctx.graph().id(t.product()), t.reason()));
     }
 }
