@@ -83,7 +83,13 @@ public final class Determinism {
 
     /** The witness assignment of {@link #falseSums()} entry {@code k}, e.g. {@code {valve=open}}. */
     public String witness(int k) {
-        return falseWitness.get(k);
+        String w = falseWitness.get(k);
+        if (w == null) {
+            int[] f = falseSums.get(k);
+            w = meet(box[f[1]], box[f[2]]);
+            falseWitness.set(k, w);
+        }
+        return w;
     }
 
     /** Number of sums neither proven nor refuted. */
@@ -352,7 +358,17 @@ public final class Determinism {
                     per[k] = c.sup[at];
                 }
             }
-            if (all && pairwiseDisjoint(per)) {
+            if (all && !sharesSupport(per) && pairwiseDisjoint(per)) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    /** Two children with the very same non-empty support object overlap: a cheap common case (shared inputs, whole lines). */
+    private static boolean sharesSupport(Support[] per) {
+        for (int k = 1; k < per.length; k++) {
+            if (per[k] == per[0] && !per[0].isEmpty()) {
                 return true;
             }
         }
@@ -404,26 +420,65 @@ public final class Determinism {
     /** Looks for two children with exact boxes that overlap with positive measure; records the witness. */
     private boolean overlapWitness(int sum, IntList kids) {
         int k = kids.size();
-        boolean all = k <= 16;
-        for (int x = 0; x < k; x++) {
-            for (int y = x + 1; y < k; y++) {
-                if (!all && x != 0 && y != x + 1) {
-                    continue;
+        // all pairs of a small sum; for a large one each child with the first and with its neighbour
+        if (k <= 16) {
+            for (int x = 0; x < k; x++) {
+                for (int y = x + 1; y < k; y++) {
+                    if (tryPair(sum, kids.get(x), kids.get(y))) {
+                        return true;
+                    }
                 }
-                Box p = box[kids.get(x)];
-                Box q = box[kids.get(y)];
-                if (p == null || q == null || !p.exact || !q.exact) {
-                    continue;
-                }
-                String w = meet(p, q);
-                if (w != null) {
-                    falseSums.add(new int[] {sum, kids.get(x), kids.get(y)});
-                    falseWitness.add(w);
-                    return true;
-                }
+            }
+            return false;
+        }
+        for (int y = 1; y < k; y++) {
+            if (tryPair(sum, kids.get(0), kids.get(y)) || (y > 1 && tryPair(sum, kids.get(y - 1), kids.get(y)))) {
+                return true;
             }
         }
         return false;
+    }
+
+    private boolean tryPair(int sum, int a, int b) {
+        Box p = box[a];
+        Box q = box[b];
+        if (p == null || q == null || !p.exact || !q.exact || !meets(p, q)) {
+            return false;
+        }
+        falseSums.add(new int[] {sum, a, b});
+        // the witness text is made only when reported
+        falseWitness.add(null);
+        return true;
+    }
+
+    /** Whether two exact boxes meet with positive measure. */
+    private static boolean meets(Box p, Box q) {
+        int i = 0;
+        int j = 0;
+        while (i < p.vars.length && j < q.vars.length) {
+            if (p.vars[i] < q.vars[j]) {
+                if (p.sup[i++].isEmpty()) {
+                    return false;
+                }
+            } else if (q.vars[j] < p.vars[i]) {
+                if (q.sup[j++].isEmpty()) {
+                    return false;
+                }
+            } else if (p.sup[i++].intersect(q.sup[j++]).isEmpty()) {
+                return false;
+            }
+        }
+        for (; i < p.vars.length; i++) {
+            if (p.sup[i].isEmpty()) {
+                return false;
+            }
+        }
+        for (; j < q.vars.length; j++) {
+            if (q.sup[j].isEmpty()) {
+                return false;
+            }
+        }
+        return true;
     }
 
     private String meet(Box p, Box q) {

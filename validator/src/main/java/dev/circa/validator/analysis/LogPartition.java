@@ -34,17 +34,22 @@ public final class LogPartition {
                 z[i] = s;
             } else {
                 SumNode sn = (SumNode) g.node(i);
+                double[] w = sn.weights();
+                boolean log = sn.logWeights();
                 double max = Double.NEGATIVE_INFINITY;
                 for (int e = a; e < b; e++) {
-                    max = Math.max(max, sn.logWeight(e - a) + z[g.child(e)]);
+                    double c = z[g.child(e)];
+                    max = Math.max(max, log ? w[e - a] + c : c);
                 }
                 if (max == Double.NEGATIVE_INFINITY || max == Double.POSITIVE_INFINITY) {
-                    z[i] = max;
+                    z[i] = log || max == Double.POSITIVE_INFINITY ? max : Double.NEGATIVE_INFINITY;
                     continue;
                 }
+                // linear weights scale exp(z - max) directly: one exp per edge and no log per weight
                 double s = 0;
                 for (int e = a; e < b; e++) {
-                    s += Math.exp(sn.logWeight(e - a) + z[g.child(e)] - max);
+                    double c = z[g.child(e)];
+                    s += log ? Math.exp(w[e - a] + c - max) : w[e - a] * Math.exp(c - max);
                 }
                 z[i] = max + Math.log(s);
             }

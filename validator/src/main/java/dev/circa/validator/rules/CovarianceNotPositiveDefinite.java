@@ -11,7 +11,7 @@ public final class CovarianceNotPositiveDefinite extends Rule {
     @Override
     public void check(RuleContext ctx) {
         for (Parameters.Problem p : ctx.parameters().problems()) {
-            if (p.code().equals(Parameters.NOT_PD)) {
+            if (p.code().equals(Parameters.NOT_PD) && !ctx.skip(this, severity())) {
                 ctx.atNode(this, severity(), p.node(), p.member(), p.message());
             }
         }

@@ -11,7 +11,7 @@ public final class CovarianceNotSymmetric extends Rule {
     @Override
     public void check(RuleContext ctx) {
         for (Parameters.Problem p : ctx.parameters().problems()) {
-            if (p.code().equals(Parameters.ASYMMETRIC)) {
+            if (p.code().equals(Parameters.ASYMMETRIC) && !ctx.skip(this, severity())) {
                 ctx.atNode(this, severity(), p.node(), p.member(), p.message());
             }
         }

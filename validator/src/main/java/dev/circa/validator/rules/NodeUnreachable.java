@@ -15,6 +15,9 @@ public final class NodeUnreachable extends Rule {
         boolean[] r = ctx.reachable();
         for (int i = 0; i < r.length; i++) {
             if (!r[i]) {
+            if (ctx.skip(this, severity())) {
+                continue;
+            }
                 ctx.atNode(this, severity(), i, null, String.format(Locale.ROOT,
                         "node %d is not reachable from any output; it adds nothing to the model",
                         ctx.document().nodes().get(i).id()));

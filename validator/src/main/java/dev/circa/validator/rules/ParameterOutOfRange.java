@@ -11,7 +11,7 @@ public final class ParameterOutOfRange extends Rule {
     @Override
     public void check(RuleContext ctx) {
         for (Parameters.Problem p : ctx.parameters().problems()) {
-            if (p.code().equals(Parameters.OUT_OF_RANGE)) {
+            if (p.code().equals(Parameters.OUT_OF_RANGE) && !ctx.skip(this, severity())) {
                 ctx.atNode(this, severity(), p.node(), p.member(), p.message());
             }
         }

@@ -17,16 +17,16 @@ public final class ProductScopesOverlap extends Rule {
         }
         Graph g = ctx.graph();
         Severity sev = ctx.propertySeverity(Property.DECOMPOSABLE);
-        for (int k = 0; k < s.overlapping.size() && k <= RuleContext.MAX_PER_RULE; k++) {
+        for (int k = 0; k < s.overlapping.size(); k++) {
             int i = s.overlapping.get(k);
+            if (ctx.skip(this, sev)) {
+                continue;
+            }
             int[] w = s.overlapWitness(i);
             ctx.atNode(this, sev, i, null, String.format(Locale.ROOT,
                     "product %d is not decomposable: variable %s is in the scopes of both child %d and child %d; "
                             + "expected the children of a product to have disjoint scopes",
                     g.id(i), ctx.document().variables().get(w[0]).name(), g.id(w[1]), g.id(w[2])));
-        }
-        for (int k = RuleContext.MAX_PER_RULE + 1; k < s.overlapping.size(); k++) {
-            ctx.atNode(this, sev, s.overlapping.get(k), null, "product is not decomposable");
         }
     }
 }

@@ -248,6 +248,26 @@ public final class RuleContext {
         emit(rule, new Diagnostic(rule.id(), s, message, l.pointer(), null, l.line(), l.column()));
     }
 
+    /**
+     * Whether a diagnostic of {@code rule} with severity {@code s} would be dropped (rule off, or
+     * {@value #MAX_PER_RULE} already kept); a dropped one is still counted. Rules call it before
+     * building a message, so that a million findings cost a million counts, not a million messages.
+     */
+    public boolean skip(Rule rule, Severity s) {
+        RuleSetting setting = options.ruleSettings().get(rule.id());
+        if (setting == RuleSetting.OFF) {
+            return true;
+        }
+        int[] c = counts.get(rule.id());
+        if (c == null || c[0] < MAX_PER_RULE) {
+            return false;
+        }
+        Severity eff = setting == RuleSetting.WARN ? Severity.WARNING : setting == RuleSetting.ERROR ? Severity.ERROR : s;
+        c[0]++;
+        c[1] = Math.min(c[1], eff.ordinal() + 1);
+        return true;
+    }
+
     private void emit(Rule rule, Diagnostic d) {
         RuleSetting setting = options.ruleSettings().get(rule.id());
         if (setting == RuleSetting.OFF) {

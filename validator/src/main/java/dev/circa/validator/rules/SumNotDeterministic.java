@@ -19,6 +19,9 @@ public final class SumNotDeterministic extends Rule {
         Severity sev = ctx.propertySeverity(Property.DETERMINISTIC);
         for (int k = 0; k < d.falseSums().size(); k++) {
             int[] f = d.falseSums().get(k);
+            if (ctx.skip(this, sev)) {
+                continue;
+            }
             ctx.atNode(this, sev, f[0], null, String.format(Locale.ROOT,
                     "sum %d is not deterministic: children %d and %d are both positive at %s; "
                             + "expected at most one positive child at every assignment",

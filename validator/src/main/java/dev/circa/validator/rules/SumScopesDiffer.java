@@ -17,16 +17,16 @@ public final class SumScopesDiffer extends Rule {
         }
         Graph g = ctx.graph();
         Severity sev = ctx.propertySeverity(Property.SMOOTH);
-        for (int k = 0; k < s.nonSmooth.size() && k <= RuleContext.MAX_PER_RULE; k++) {
+        for (int k = 0; k < s.nonSmooth.size(); k++) {
             int i = s.nonSmooth.get(k);
+            if (ctx.skip(this, sev)) {
+                continue;
+            }
             int[] w = s.smoothWitness(i);
             ctx.atNode(this, sev, i, null, String.format(Locale.ROOT,
                     "sum %d is not smooth: variable %s is in the scope of child %d but not of child %d; "
                             + "expected all children of a sum to have the same scope",
                     g.id(i), ctx.document().variables().get(w[0]).name(), g.id(w[1]), g.id(w[2])));
-        }
-        for (int k = RuleContext.MAX_PER_RULE + 1; k < s.nonSmooth.size(); k++) {
-            ctx.atNode(this, sev, s.nonSmooth.get(k), null, "sum is not smooth");
         }
     }
 }

@@ -11,7 +11,7 @@ public final class WeightNegative extends Rule {
     @Override
     public void check(RuleContext ctx) {
         for (Parameters.Problem p : ctx.parameters().problems()) {
-            if (p.code().equals(Parameters.NEGATIVE_WEIGHT)) {
+            if (p.code().equals(Parameters.NEGATIVE_WEIGHT) && !ctx.skip(this, severity())) {
                 ctx.atNode(this, severity(), p.node(), p.member(), p.message());
             }
         }

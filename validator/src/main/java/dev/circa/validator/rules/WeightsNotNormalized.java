@@ -28,6 +28,9 @@ public final class WeightsNotNormalized extends Rule {
                 // CLI.md: a warning when every output's |log Z| is within the tolerance, else an error.
                 sev = ctx.outputsNormalized() ? Severity.WARNING : Severity.ERROR;
             }
+            if (ctx.skip(this, sev)) {
+                continue;
+            }
             ctx.atNode(this, sev, i, s.logWeights() ? "logWeights" : "weights", String.format(Locale.ROOT,
                     "weights of sum %d add to %s (expected 1 +/- %s, set by --tolerance)",
                     s.id(), sum, tol));
