@@ -4,7 +4,6 @@ import dev.circa.format.CircuitDocument;
 import dev.circa.format.io.CircuitReader;
 import dev.circa.format.io.FormatException;
 import dev.circa.format.io.InputFiles;
-import dev.circa.format.io.JsonInput;
 import dev.circa.format.io.ReadLimits;
 import dev.circa.validator.analysis.Scopes;
 import dev.circa.validator.rules.Rule;
@@ -13,7 +12,7 @@ import dev.circa.validator.rules.Rules;
 import java.io.ByteArrayInputStream;
 import java.io.IOException;
 import java.io.InputStream;
-import java.nio.file.Files;
+import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Comparator;
@@ -21,8 +20,6 @@ import java.util.EnumMap;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
-import tools.jackson.core.JacksonException;
-import tools.jackson.databind.JsonNode;
 
 /**
  * Proves a circuit document valid, or says exactly why not (CLI.md, {@code validate}): schema,
@@ -31,9 +28,6 @@ import tools.jackson.databind.JsonNode;
  * to the bounded determinism enumeration. Instances are immutable and safe to share between threads.
  */
 public final class Validator {
-    /** Files up to this many bytes are also checked against the schema as a whole tree. */
-    public static final long SCHEMA_TREE_BYTES = 64L << 20;
-
     private static final List<Rule> ORDER = sorted();
 
     private final ValidationOptions options;
@@ -44,7 +38,10 @@ public final class Validator {
         this(options, SchemaCheck.NONE);
     }
 
-    /** A validator with {@code options} that checks documents read from text against {@code schema}. */
+    /**
+     * A validator with {@code options} that checks documents read from text against {@code schema}
+     * (the command line uses {@link SchemaCheck#BUNDLED}).
+     */
     public Validator(ValidationOptions options, SchemaCheck schema) {
         this.options = options;
         this.schema = schema;
@@ -61,36 +58,38 @@ public final class Validator {
     }
 
     /**
-     * Reads and validates {@code file} ({@code .gz} decompressed, {@code -} for standard input).
+     * Reads and validates {@code file} ({@code .gz} decompressed, {@code -} for standard input),
+     * checking its text against the schema when this validator has one.
      *
      * @throws FormatException when no model can be built (exit status 2)
      */
     public ValidationReport validate(Path file, ReadLimits limits) throws FormatException {
         CircuitReader reader = new CircuitReader(limits);
         String name = InputFiles.displayName(file);
-        boolean stdin = file.toString().equals("-");
-        if (stdin) {
+        if (file.toString().equals("-")) {
             byte[] bytes;
             try (InputStream in = InputFiles.open(file, limits.maxBytes())) {
                 bytes = in.readAllBytes();
+            } catch (FormatException e) {
+                throw e;
             } catch (IOException e) {
                 throw new FormatException(name, 0, 0, null, "cannot read standard input: " + e.getMessage());
             }
             CircuitDocument doc = reader.read(new ByteArrayInputStream(bytes), name);
-            JsonNode tree = schema == SchemaCheck.NONE || bytes.length > SCHEMA_TREE_BYTES ? null
-                    : tree(new ByteArrayInputStream(bytes), name, limits);
-            return validate(doc, tree);
+            return validate(doc, schema.check(new ByteArrayInputStream(bytes), name, limits));
         }
         CircuitDocument doc = reader.read(file);
-        JsonNode tree = null;
-        if (schema != SchemaCheck.NONE && size(file) <= SCHEMA_TREE_BYTES) {
+        List<SchemaFinding> findings = List.of();
+        if (schema != SchemaCheck.NONE) {
             try (InputStream in = InputFiles.open(file, limits.maxBytes())) {
-                tree = tree(in, name, limits);
+                findings = schema.check(in, name, limits);
+            } catch (FormatException e) {
+                throw e;
             } catch (IOException e) {
                 throw new FormatException(name, 0, 0, null, "cannot read the file: " + e.getMessage());
             }
         }
-        return validate(doc, tree);
+        return validate(doc, findings);
     }
 
     /** Reads and validates {@code file} under the default limits. */
@@ -98,33 +97,22 @@ public final class Validator {
         return validate(file, ReadLimits.DEFAULT);
     }
 
-    private static long size(Path file) {
-        try {
-            return Files.size(file);
-        } catch (IOException e) {
-            return Long.MAX_VALUE;
-        }
-    }
-
-    private static JsonNode tree(InputStream in, String name, ReadLimits limits) throws FormatException {
-        try {
-            return JsonInput.mapperFor(limits).readTree(in);
-        } catch (JacksonException e) {
-            throw JsonInput.translate(e, name);
-        }
+    /** Reads and validates a document given as text; {@code file} names it in messages. */
+    public ValidationReport validate(String json, String file) throws FormatException {
+        byte[] bytes = json.getBytes(StandardCharsets.UTF_8);
+        CircuitDocument doc = new CircuitReader().read(new ByteArrayInputStream(bytes), file);
+        return validate(doc, schema.check(new ByteArrayInputStream(bytes), file, ReadLimits.DEFAULT));
     }
 
     /** Validates a document built in code or read elsewhere (no schema check: there is no text). */
     public ValidationReport validate(CircuitDocument doc) {
-        return validate(doc, null);
+        return validate(doc, List.of());
     }
 
-    /** Validates {@code doc}, also checking {@code tree} (the same document as JSON) against the schema when given. */
-    public ValidationReport validate(CircuitDocument doc, JsonNode tree) {
+    /** Validates {@code doc}, reporting {@code schemaFindings} (from a schema check of its text) as well. */
+    public ValidationReport validate(CircuitDocument doc, List<SchemaFinding> schemaFindings) {
         RuleContext ctx = new RuleContext(doc, options);
-        if (tree != null) {
-            ctx.schemaFindings(schema.check(tree));
-        }
+        ctx.schemaFindings(schemaFindings);
         for (Rule r : ORDER) {
             r.check(ctx);
         }

@@ -7,6 +7,7 @@ import java.util.List;
 public final class Rules {
     private static final List<Rule> ALL = List.of(
             new CategoricalLengthMismatch(),
+            new CheckCaseFailed(),
             new CheckCaseInvalid(),
             new ChildMissing(),
             new ChildNotEarlier(),

@@ -11,6 +11,8 @@ import dev.circa.validator.Severity;
 import dev.circa.validator.ValidationOptions;
 import dev.circa.validator.ValidationReport;
 import dev.circa.validator.Verdict;
+import java.nio.file.Files;
+import java.nio.file.Path;
 import org.junit.jupiter.api.Test;
 
 /** Normalisation, log-partition, required properties and embedded checks. */
@@ -119,5 +121,29 @@ class NumberRulesTest {
                  "checks": {"cases": [{"output": "joint", "values": {"alarm": 1}, "logDensity": %s}]}}"""
                 .formatted(VARS, NODES, OUT, Math.log(0.7));
         RuleTester.document(doc).check();
+    }
+
+    private static String pump(String density) throws Exception {
+        String text = Files.readString(Path.of("../fixtures/circuits/pump-station.json"));
+        return text.replace("0.18261296103078395", density);
+    }
+
+    @Test
+    void checkCaseFailed_scipyReferences_clean() throws Exception {
+        // FORMAT.md section 5: both references computed independently with SciPy 1.10 (norm.pdf, weighted sum, log)
+        RuleTester.document(pump("0.18261296103078395"))
+                .expect("/nodes/6", "SumNotDeterministic", Severity.INFO).check();
+    }
+
+    @Test
+    void checkCaseFailed_referenceOffBy1e6_reported() throws Exception {
+        RuleTester.document(pump("0.18261396103078395")).expect("/checks/cases/0", "CheckCaseFailed")
+                .expect("/nodes/6", "SumNotDeterministic", Severity.INFO).check();
+    }
+
+    @Test
+    void checkCaseFailed_minusInfinityExpectedButFinite_reported() throws Exception {
+        RuleTester.document(pump("null")).expect("/checks/cases/0", "CheckCaseFailed")
+                .expect("/nodes/6", "SumNotDeterministic", Severity.INFO).check();
     }
 }
