@@ -3,6 +3,7 @@ package dev.circa.bench;
 import dev.circa.format.io.CircuitReader;
 import dev.circa.format.io.JsonInput;
 import dev.circa.format.io.ReadLimits;
+import dev.circa.validator.SchemaCheck;
 import dev.circa.validator.ValidationOptions;
 import dev.circa.validator.ValidationReport;
 import dev.circa.validator.Validator;
@@ -25,7 +26,7 @@ import tools.jackson.core.JsonParser;
  * inputs per variable, and per inner region the K x K products of its two parts' nodes and K sums
  * over all of them (the root has one sum, the output). That is about 1,200 edges per inner region.
  * The bare parse walks every token with Jackson's streaming parser and builds nothing; validation
- * reads the document and runs every rule. Seeded (SplittableRandom 42), so the files are the same
+ * reads the document and runs every rule; the last column adds the bundled schema's streaming check. Seeded (SplittableRandom 42), so the files are the same
  * on every run.
  *
  * <p>Run: {@code mvn -B -q -o package -pl bench -am -DskipTests && java -Xmx2g -cp "$(cat
@@ -41,15 +42,17 @@ public final class ValidateScale {
         Path dir = args.length > 0 ? Path.of(args[0]) : Files.createTempDirectory("circa-validate-scale");
         long[] targets = {100_000L, 1_000_000L, 10_000_000L};
         Validator validator = new Validator(ValidationOptions.defaults());
+        Validator withSchema = new Validator(ValidationOptions.defaults(), SchemaCheck.BUNDLED);
         System.out.println("warming up ...");
         Path warm = dir.resolve("warm.json");
         generate(warm, 200);
         for (int i = 0; i < 3; i++) {
             parse(warm);
             validator.validate(warm);
+            withSchema.validate(warm);
         }
-        System.out.printf(Locale.ROOT, "%12s %10s %9s %10s %10s %11s %7s%n", "edges", "nodes", "file MB", "parse s",
-                "read s", "validate s", "ratio");
+        System.out.printf(Locale.ROOT, "%12s %10s %9s %10s %10s %11s %7s %10s%n", "edges", "nodes", "file MB", "parse s",
+                "read s", "validate s", "ratio", "+schema s");
         for (long target : targets) {
             int n = (int) Math.max(2, target / (K * K * K + 2 * K * K) + 1);
             Path file = dir.resolve("circuit-" + target + ".json");
@@ -71,8 +74,11 @@ public final class ValidateScale {
                 read = Math.min(read, (t2 - t1) / 1e9);
                 validate = Math.min(validate, (t3 - t2) / 1e9);
             }
-            System.out.printf(Locale.ROOT, "%12d %10d %9.1f %10.3f %10.3f %11.3f %7.2f%n", size[1], size[0],
-                    Files.size(file) / 1e6, parse, read, validate, validate / parse);
+            long t4 = System.nanoTime();
+            withSchema.validate(file);
+            double schema = (System.nanoTime() - t4) / 1e9;
+            System.out.printf(Locale.ROOT, "%12d %10d %9.1f %10.3f %10.3f %11.3f %7.2f %10.3f%n", size[1], size[0],
+                    Files.size(file) / 1e6, parse, read, validate, validate / parse, schema);
             if (!r.valid()) {
                 System.out.println("  unexpected: the generated circuit is invalid: " + r.diagnostics());
             }
@@ -82,7 +88,8 @@ public final class ValidateScale {
         }
         Files.delete(warm);
         System.out.println("(parse: bare token walk; read: CircuitReader alone; validate: read + every rule; "
-                + "ratio: validate / parse; max heap " + Runtime.getRuntime().maxMemory() / (1 << 20) + " MiB)");
+                + "ratio: validate / parse; +schema: validate with the bundled schema's streaming check, one run; "
+                + "max heap " + Runtime.getRuntime().maxMemory() / (1 << 20) + " MiB)");
     }
 
     /** Walks every token of {@code file}; returns the token count. */
