@@ -160,6 +160,9 @@ public final class Determinism {
         if (b - a == 1) {
             return box[g.child(a)];
         }
+        if (b - a == 2 && box[g.child(a)] != null && box[g.child(a + 1)] != null) {
+            return trim(merge(box[g.child(a)], box[g.child(a + 1)]));
+        }
         boolean exact = true;
         int total = 0;
         for (int e = a; e < b; e++) {
@@ -200,37 +203,68 @@ public final class Determinism {
             }
         }
         if (r > BOX_VARS) {
-            exact = false;
-            int keep = 0;
-            int[] kv = new int[BOX_VARS];
-            Support[] ks = new Support[BOX_VARS];
-            for (int pass = 0; pass < 2 && keep < BOX_VARS; pass++) {
-                for (int k = 0; k < r && keep < BOX_VARS; k++) {
-                    boolean broad = sp[k] == Support.REAL_LINE || sp[k] == Support.COUNTS || sp[k] == Support.NON_NEGATIVE;
-                    if (broad == (pass == 1)) {
-                        kv[keep] = vars[k];
-                        ks[keep] = sp[k];
-                        keep++;
-                    }
-                }
-            }
-            sortBox(kv, ks);
-            return new Box(kv, ks, false);
+            return trim(new Box(Arrays.copyOf(vars, r), Arrays.copyOf(sp, r), false));
         }
         return new Box(Arrays.copyOf(vars, r), Arrays.copyOf(sp, r), exact);
     }
 
-    private static void sortBox(int[] v, Support[] sp) {
-        for (int i = 1; i < v.length; i++) {
-            for (int j = i; j > 0 && v[j - 1] > v[j]; j--) {
-                int t = v[j];
-                v[j] = v[j - 1];
-                v[j - 1] = t;
-                Support u = sp[j];
-                sp[j] = sp[j - 1];
-                sp[j - 1] = u;
+    /** A box with nothing in it that could separate children: positive anywhere, as far as is known. */
+    private static final Box UNINFORMATIVE = new Box(new int[0], new Support[0], false);
+
+    private static boolean broad(Support x) {
+        return x == Support.REAL_LINE || x == Support.COUNTS || x == Support.NON_NEGATIVE;
+    }
+
+    /** Two children's boxes merged by variable (supports on a shared variable intersected). */
+    private static Box merge(Box p, Box q) {
+        int[] vars = new int[p.vars.length + q.vars.length];
+        Support[] sp = new Support[vars.length];
+        int i = 0;
+        int j = 0;
+        int r = 0;
+        while (i < p.vars.length || j < q.vars.length) {
+            if (j >= q.vars.length || (i < p.vars.length && p.vars[i] < q.vars[j])) {
+                vars[r] = p.vars[i];
+                sp[r++] = p.sup[i++];
+            } else if (i >= p.vars.length || q.vars[j] < p.vars[i]) {
+                vars[r] = q.vars[j];
+                sp[r++] = q.sup[j++];
+            } else {
+                vars[r] = p.vars[i];
+                sp[r++] = p.sup[i++].intersect(q.sup[j++]);
             }
         }
+        boolean exact = p.exact && q.exact;
+        return r == vars.length ? new Box(vars, sp, exact) : new Box(Arrays.copyOf(vars, r), Arrays.copyOf(sp, r), exact);
+    }
+
+    /**
+     * Keeps a box within {@value #BOX_VARS} variables: an exact box that fits stays; otherwise the box
+     * becomes inexact and keeps only supports narrower than their whole type (the only ones that can
+     * separate children), at most {@value #BOX_VARS} of them.
+     */
+    private static Box trim(Box x) {
+        if (x.vars.length <= BOX_VARS) {
+            return x;
+        }
+        int keep = 0;
+        for (Support sp : x.sup) {
+            keep += broad(sp) ? 0 : 1;
+        }
+        keep = Math.min(keep, BOX_VARS);
+        if (keep == 0) {
+            return UNINFORMATIVE;
+        }
+        int[] kv = new int[keep];
+        Support[] ks = new Support[keep];
+        int m = 0;
+        for (int k = 0; k < x.vars.length && m < keep; k++) {
+            if (!broad(x.sup[k])) {
+                kv[m] = x.vars[k];
+                ks[m++] = x.sup[k];
+            }
+        }
+        return new Box(kv, ks, false);
     }
 
     private boolean positive(SumNode sn, int j) {
@@ -273,8 +307,10 @@ public final class Determinism {
                     m++;
                 }
             }
-            vars = Arrays.copyOf(vars, m);
-            sp = Arrays.copyOf(sp, m);
+            if (m < vars.length) {
+                vars = Arrays.copyOf(vars, m);
+                sp = Arrays.copyOf(sp, m);
+            }
         }
         if (first == null) {
             return new Box(new int[0], new Support[0], false);

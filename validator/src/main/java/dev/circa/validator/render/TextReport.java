@@ -23,7 +23,7 @@ public final class TextReport {
                 sb.append('\n');
             }
             String file = r.file() == null ? "<input>" : r.file();
-            sb.append(String.format(Locale.ROOT, "%s: %s (%d errors, %d warnings, %d notes)%n", file,
+            sb.append(String.format(Locale.ROOT, "%s: %s (%d errors, %d warnings, %d info)%n", file,
                     r.valid() ? "valid" : "INVALID", r.count(Severity.ERROR), r.count(Severity.WARNING),
                     r.count(Severity.INFO)));
             for (Diagnostic d : r.diagnostics()) {

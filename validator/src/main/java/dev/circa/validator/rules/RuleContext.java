@@ -240,6 +240,10 @@ public final class RuleContext {
     /** Reports on the member at {@code pointer} (not a node). */
     public void at(Rule rule, Severity s, String pointer, String message) {
         SourceLocation l = doc.location(pointer);
+        if (pointer.isEmpty() && !doc.nodes().isEmpty() && doc.nodeLocation(0).hasLineColumn()) {
+            // the document itself starts at the top of the text
+            l = new SourceLocation("", 1, 1);
+        }
         emit(rule, new Diagnostic(rule.id(), s, message, pointer, null, l.line(), l.column()));
     }
 
