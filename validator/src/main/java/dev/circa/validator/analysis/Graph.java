@@ -62,10 +62,13 @@ public final class Graph {
             throw new IllegalArgumentException("more than 2^31 child references");
         }
         child = new int[(int) edges];
-        index = new IdIndex(n);
+        int[] ids = new int[n];
         for (int i = 0; i < n; i++) {
-            Node node = nodes.get(i);
-            if (index.putIfAbsent(node.id(), i) >= 0) {
+            ids[i] = nodes.get(i).id();
+        }
+        index = new IdIndex(ids);
+        for (int i = 0; i < n; i++) {
+            if (index.putIfAbsent(ids[i], i) >= 0) {
                 duplicateIds.add(i);
             }
         }

@@ -3,20 +3,37 @@ package dev.circa.validator.analysis;
 import java.util.Arrays;
 
 /**
- * Node id to node index, an open-addressing hash table of ints (a boxed map would cost more than
- * the nodes on large circuits). Keeps the first index of a duplicated id.
+ * Node id to node index. Ids written by most tools are dense (0..n-1 or close), so a direct table
+ * indexed by id is used when the largest id is below 4n; otherwise an open-addressing hash table of
+ * ints (a boxed map would cost more than the nodes on large circuits). Keeps the first index of a
+ * duplicated id.
  */
 public final class IdIndex {
+    private final int[] direct;
     private final int[] keys;
     private final int[] values;
     private final int mask;
 
-    public IdIndex(int expected) {
-        int cap = Integer.highestOneBit(Math.max(4, expected) * 2 - 1) << 1;
-        keys = new int[cap];
-        values = new int[cap];
-        Arrays.fill(keys, -1);
-        mask = cap - 1;
+    /** An index sized for the ids in {@code ids} (entries are added with {@link #putIfAbsent}). */
+    public IdIndex(int[] ids) {
+        int max = -1;
+        for (int id : ids) {
+            max = Math.max(max, id);
+        }
+        if (max < 4L * ids.length + 1024) {
+            direct = new int[max + 1];
+            Arrays.fill(direct, -1);
+            keys = null;
+            values = null;
+            mask = 0;
+        } else {
+            direct = null;
+            int cap = Integer.highestOneBit(Math.max(4, ids.length) * 2 - 1) << 1;
+            keys = new int[cap];
+            values = new int[cap];
+            Arrays.fill(keys, -1);
+            mask = cap - 1;
+        }
     }
 
     private int slot(int key) {
@@ -26,6 +43,13 @@ public final class IdIndex {
 
     /** Adds {@code id -> index} unless present; returns the index already there, or -1. */
     public int putIfAbsent(int id, int index) {
+        if (direct != null) {
+            int old = direct[id];
+            if (old < 0) {
+                direct[id] = index;
+            }
+            return old;
+        }
         int s = slot(id);
         while (keys[s] != -1) {
             if (keys[s] == id) {
@@ -40,6 +64,9 @@ public final class IdIndex {
 
     /** The index of {@code id}, or -1. */
     public int get(int id) {
+        if (direct != null) {
+            return id >= 0 && id < direct.length ? direct[id] : -1;
+        }
         int s = slot(id);
         while (keys[s] != -1) {
             if (keys[s] == id) {
