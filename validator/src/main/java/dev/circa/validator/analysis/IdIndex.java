@@ -17,10 +17,12 @@ public final class IdIndex {
     /** An index sized for the ids in {@code ids} (entries are added with {@link #putIfAbsent}). */
     public IdIndex(int[] ids) {
         int max = -1;
+        int min = 0;
         for (int id : ids) {
             max = Math.max(max, id);
+            min = Math.min(min, id);
         }
-        if (max < 4L * ids.length + 1024) {
+        if (min >= 0 && max < 4L * ids.length + 1024) {
             direct = new int[max + 1];
             Arrays.fill(direct, -1);
             keys = null;
@@ -44,6 +46,9 @@ public final class IdIndex {
     /** Adds {@code id -> index} unless present; returns the index already there, or -1. */
     public int putIfAbsent(int id, int index) {
         if (direct != null) {
+            if (id < 0 || id >= direct.length) {
+                throw new IllegalArgumentException("id " + id + " was not among the ids the index was sized for");
+            }
             int old = direct[id];
             if (old < 0) {
                 direct[id] = index;
