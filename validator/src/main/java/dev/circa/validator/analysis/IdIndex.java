@@ -9,6 +9,8 @@ import java.util.Arrays;
  * duplicated id.
  */
 public final class IdIndex {
+    private static final int EMPTY = Integer.MIN_VALUE;
+
     private final int[] direct;
     private final int[] keys;
     private final int[] values;
@@ -33,7 +35,7 @@ public final class IdIndex {
             int cap = Integer.highestOneBit(Math.max(4, ids.length) * 2 - 1) << 1;
             keys = new int[cap];
             values = new int[cap];
-            Arrays.fill(keys, -1);
+            Arrays.fill(keys, EMPTY);
             mask = cap - 1;
         }
     }
@@ -56,7 +58,7 @@ public final class IdIndex {
             return old;
         }
         int s = slot(id);
-        while (keys[s] != -1) {
+        while (keys[s] != EMPTY) {
             if (keys[s] == id) {
                 return values[s];
             }
@@ -73,7 +75,7 @@ public final class IdIndex {
             return id >= 0 && id < direct.length ? direct[id] : -1;
         }
         int s = slot(id);
-        while (keys[s] != -1) {
+        while (keys[s] != EMPTY) {
             if (keys[s] == id) {
                 return values[s];
             }
