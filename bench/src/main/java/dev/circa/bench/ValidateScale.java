@@ -29,8 +29,10 @@ import tools.jackson.core.JsonParser;
  * reads the document and runs every rule; the last column adds the bundled schema's streaming check. Seeded (SplittableRandom 42), so the files are the same
  * on every run.
  *
- * <p>Run: {@code mvn -B -q -o package -pl bench -am -DskipTests && java -Xmx2g -cp "$(cat
- * bench/target/classpath.txt)" dev.circa.bench.ValidateScale [DIR]}, or from an IDE with -Xmx2g.
+ * <p>Run from the repository root (Java 17), one command; {@code -Dkeep=true} keeps the files in DIR:
+ * <pre>
+ * mvn -B -q package -pl bench -am -DskipTests &amp;&amp; java -Xmx2g -cp bench/target/benchmarks.jar dev.circa.bench.ValidateScale [DIR]
+ * </pre>
  */
 public final class ValidateScale {
     private static final int K = 10;
