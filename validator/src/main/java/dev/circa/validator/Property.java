@@ -4,10 +4,15 @@ import java.util.Locale;
 
 /** The structural properties FORMAT.md defines, with their names in JSON reports and on the command line. */
 public enum Property {
+    /** Every sum's children have the same scope. */
     SMOOTH("smooth", "smooth"),
+    /** Every product's children have pairwise disjoint scopes. */
     DECOMPOSABLE("decomposable", "decomposable"),
+    /** At most one child of each sum is positive at every assignment, up to measure zero. */
     DETERMINISTIC("deterministic", "deterministic"),
+    /** One variable tree fits every product. */
     STRUCTURED_DECOMPOSABLE("structuredDecomposable", "structured-decomposable"),
+    /** Every output integrates (sums) to 1. */
     NORMALIZED("normalized", "normalized");
 
     private final String jsonName;

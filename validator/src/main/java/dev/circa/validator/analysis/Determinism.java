@@ -38,6 +38,9 @@ public final class Determinism {
     private final List<int[]> falseSums = new ArrayList<>();
     private final List<String> falseWitness = new ArrayList<>();
     private int unknownSums;
+    private Box lastP;
+    private Box lastQ;
+    private Box lastMerged;
     private long wordsUsed;
     private int[] stamp;
 
@@ -102,11 +105,18 @@ public final class Determinism {
         return verdict[i];
     }
 
-    private static Box single(int v, Support sp) {
+    private final java.util.Map<Long, Box> broadBoxes = new java.util.HashMap<>();
+
+    private Box single(int v, Support sp) {
+        if (sp == Support.REAL_LINE || sp == Support.NON_NEGATIVE || sp == Support.COUNTS) {
+            // shared, so that boxes built from them can be recognised as the same by identity
+            long key = ((long) v << 2) | (sp == Support.REAL_LINE ? 0 : sp == Support.NON_NEGATIVE ? 1 : 2);
+            return broadBoxes.computeIfAbsent(key, k -> new Box(new int[] {v}, new Support[] {sp}, true));
+        }
         return new Box(new int[] {v}, new Support[] {sp}, true);
     }
 
-    private static Box inputBox(InputNode in) {
+    private Box inputBox(InputNode in) {
         double[] p = in.params();
         int v = in.vars()[0];
         switch (in.family()) {
@@ -161,7 +171,15 @@ public final class Determinism {
             return box[g.child(a)];
         }
         if (b - a == 2 && box[g.child(a)] != null && box[g.child(a + 1)] != null) {
-            return trim(merge(box[g.child(a)], box[g.child(a + 1)]));
+            Box p = box[g.child(a)];
+            Box q = box[g.child(a + 1)];
+            // products over the same pair of boxes (a partition's cross product) come in runs
+            if (p != lastP || q != lastQ) {
+                lastP = p;
+                lastQ = q;
+                lastMerged = trim(merge(p, q));
+            }
+            return lastMerged;
         }
         boolean exact = true;
         int total = 0;
@@ -277,6 +295,7 @@ public final class Determinism {
         int b = g.childEnd(i);
         Box first = null;
         boolean exact = true;
+        boolean allSame = true;
         int[] vars = null;
         Support[] sp = null;
         for (int e = a; e < b; e++) {
@@ -297,6 +316,7 @@ public final class Determinism {
             if (c == first) {
                 continue;
             }
+            allSame = false;
             exact &= c.exact && Arrays.equals(c.vars, first.vars);
             int m = 0;
             for (int k = 0; k < vars.length; k++) {
@@ -314,6 +334,9 @@ public final class Determinism {
         }
         if (first == null) {
             return new Box(new int[0], new Support[0], false);
+        }
+        if (allSame) {
+            return first;
         }
         return new Box(vars, sp, exact && countDiffering(i, sn) <= 1);
     }

@@ -49,7 +49,9 @@ public final class LogPartition {
                 double s = 0;
                 for (int e = a; e < b; e++) {
                     double c = z[g.child(e)];
-                    s += log ? Math.exp(w[e - a] + c - max) : w[e - a] * Math.exp(c - max);
+                    double d = c - max;
+                    // normalised sub-circuits have log Z = 0 everywhere: no exp needed then
+                    s += log ? Math.exp(w[e - a] + d) : d == 0 ? w[e - a] : w[e - a] * Math.exp(d);
                 }
                 z[i] = max + Math.log(s);
             }

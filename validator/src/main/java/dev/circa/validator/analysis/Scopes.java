@@ -24,6 +24,9 @@ public final class Scopes {
     private final Map<ScopeTable.Key, Decomposition> decompositions = new HashMap<>();
     private final List<Decomposition> decompositionList = new ArrayList<>();
     private final Map<ScopeTable.Key, Integer> sumUnions = new HashMap<>();
+    private Decomposition lastPair;
+    private int lastS0;
+    private int lastS1;
 
     /**
      * How one or more products split their scope.
@@ -103,12 +106,25 @@ public final class Scopes {
                     scope[i] = u;
                 }
             } else {
-                int[] key = new int[b - a];
-                for (int e = a; e < b; e++) {
-                    key[e - a] = scope[g.child(e)];
+                Decomposition dc;
+                int s0 = scope[g.child(a)];
+                int s1 = b - a == 2 ? scope[g.child(a + 1)] : -1;
+                if (b - a == 2 && lastPair != null && s0 == lastS0 && s1 == lastS1) {
+                    // a partition's cross product: runs of products over the same pair of scopes
+                    dc = lastPair;
+                } else {
+                    int[] key = new int[b - a];
+                    for (int e = a; e < b; e++) {
+                        key[e - a] = scope[g.child(e)];
+                    }
+                    Arrays.sort(key);
+                    dc = decomposition(i, key);
+                    if (b - a == 2) {
+                        lastPair = dc;
+                        lastS0 = s0;
+                        lastS1 = s1;
+                    }
                 }
-                Arrays.sort(key);
-                Decomposition dc = decomposition(i, key);
                 scope[i] = dc.scope;
                 if (dc.overlap) {
                     overlapping.add(i);
