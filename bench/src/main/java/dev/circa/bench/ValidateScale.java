@@ -17,6 +17,7 @@ import java.util.Locale;
 import java.util.SplittableRandom;
 import tools.jackson.core.JsonGenerator;
 import tools.jackson.core.JsonParser;
+import tools.jackson.core.JsonToken;
 
 /**
  * Validation time against a bare streaming parse of the same file, on generated circuits of about
@@ -25,7 +26,8 @@ import tools.jackson.core.JsonParser;
  * <p>Each circuit is a balanced binary region tree over {@code n} real variables: K = 10 normal
  * inputs per variable, and per inner region the K x K products of its two parts' nodes and K sums
  * over all of them (the root has one sum, the output). That is about 1,200 edges per inner region.
- * The bare parse walks every token with Jackson's streaming parser and builds nothing; validation
+ * The bare parse walks every token with Jackson's streaming parser and builds nothing (a second
+ * column also decodes every number); validation
  * reads the document and runs every rule; the last column adds the bundled schema's streaming check. Seeded (SplittableRandom 42), so the files are the same
  * on every run.
  *
@@ -53,18 +55,22 @@ public final class ValidateScale {
             validator.validate(warm);
             withSchema.validate(warm);
         }
-        System.out.printf(Locale.ROOT, "%12s %10s %9s %10s %10s %11s %7s %10s%n", "edges", "nodes", "file MB", "parse s",
-                "read s", "validate s", "ratio", "+schema s");
+        System.out.printf(Locale.ROOT, "%12s %10s %9s %9s %11s %9s %11s %7s %10s%n", "edges", "nodes", "file MB", "parse s",
+                "parse+num s", "read s", "validate s", "ratio", "+schema s");
         for (long target : targets) {
             int n = (int) Math.max(2, target / (K * K * K + 2 * K * K) + 1);
             Path file = dir.resolve("circuit-" + target + ".json");
             long[] size = generate(file, n);
             int reps = target >= 10_000_000L ? 1 : 3;
             double parse = Double.MAX_VALUE;
+            double parseNum = Double.MAX_VALUE;
             double read = Double.MAX_VALUE;
             double validate = Double.MAX_VALUE;
             ValidationReport r = null;
             for (int i = 0; i < reps; i++) {
+                long tn = System.nanoTime();
+                parseNumbers(file);
+                parseNum = Math.min(parseNum, (System.nanoTime() - tn) / 1e9);
                 long t0 = System.nanoTime();
                 parse(file);
                 long t1 = System.nanoTime();
@@ -79,8 +85,8 @@ public final class ValidateScale {
             long t4 = System.nanoTime();
             withSchema.validate(file);
             double schema = (System.nanoTime() - t4) / 1e9;
-            System.out.printf(Locale.ROOT, "%12d %10d %9.1f %10.3f %10.3f %11.3f %7.2f %10.3f%n", size[1], size[0],
-                    Files.size(file) / 1e6, parse, read, validate, validate / parse, schema);
+            System.out.printf(Locale.ROOT, "%12d %10d %9.1f %9.3f %11.3f %9.3f %11.3f %7.2f %10.3f%n", size[1], size[0],
+                    Files.size(file) / 1e6, parse, parseNum, read, validate, validate / parse, schema);
             if (!r.valid()) {
                 System.out.println("  unexpected: the generated circuit is invalid: " + r.diagnostics());
             }
@@ -89,7 +95,7 @@ public final class ValidateScale {
             }
         }
         Files.delete(warm);
-        System.out.println("(parse: bare token walk; read: CircuitReader alone; validate: read + every rule; "
+        System.out.println("(parse: bare token walk; parse+num: the same, decoding every number; read: CircuitReader alone; validate: read + every rule; "
                 + "ratio: validate / parse; +schema: validate with the bundled schema's streaming check, one run; "
                 + "max heap " + Runtime.getRuntime().maxMemory() / (1 << 20) + " MiB)");
     }
@@ -104,6 +110,23 @@ public final class ValidateScale {
             }
         }
         return tokens;
+    }
+
+    /** Walks every token of {@code file} and decodes every number; returns a checksum. */
+    static double parseNumbers(Path file) throws IOException {
+        double sum = 0;
+        try (InputStream in = Files.newInputStream(file);
+                JsonParser p = JsonInput.mapperFor(ReadLimits.DEFAULT).createParser(in)) {
+            JsonToken t;
+            while ((t = p.nextToken()) != null) {
+                if (t == JsonToken.VALUE_NUMBER_FLOAT) {
+                    sum += p.getDoubleValue();
+                } else if (t == JsonToken.VALUE_NUMBER_INT) {
+                    sum += p.getIntValue();
+                }
+            }
+        }
+        return sum;
     }
 
     /** Writes the circuit over {@code n} variables; returns {nodes, edges}. */
