@@ -72,6 +72,11 @@ class ScaleTest {
         assertEquals(0.0, r.logPartition().get("joint"), 1e-9);
         // every sum is decided by enumerating its 3 assignments: valve=open is positive in both children
         assertEquals(Verdict.FALSE, r.property(Property.DETERMINISTIC));
+        // 49,999 witnesses of a property not required: three kept, then one line counting the rest
+        List<Diagnostic> det = r.diagnostics().stream().filter(d -> d.code().equals("SumNotDeterministic")).toList();
+        assertEquals(4, det.size());
+        assertTrue(det.get(3).message().startsWith("49996 more diagnostics of this rule not shown (49999 in all)"),
+                det.get(3).message());
         String json = ReportFormat.JSON.render(List.of(r));
         assertTrue(json.contains("\"variableTree\" : 0"), json.substring(0, 400));
     }

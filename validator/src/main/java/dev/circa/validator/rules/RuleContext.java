@@ -24,12 +24,15 @@ import java.util.Map;
 /**
  * What the rules see of one validation: the document, the options, the shared analyses (computed
  * once, on first use) and the sink for diagnostics, which applies {@code --rule} settings and keeps
- * at most {@value #MAX_PER_RULE} diagnostics per rule (then one saying how many more there were).
+ * at most {@value #MAX_PER_RULE} diagnostics per rule, {@value #MAX_INFO_PER_RULE} of severity info
+ * (then one saying how many more there were).
  * Made by {@link dev.circa.validator.Validator}; not for application code.
  */
 public final class RuleContext {
     /** Most diagnostics kept per rule. */
     public static final int MAX_PER_RULE = 100;
+    /** Most {@link Severity#INFO} diagnostics kept per rule (witnesses of properties not required). */
+    public static final int MAX_INFO_PER_RULE = 3;
 
     private final CircuitDocument doc;
     private final ValidationOptions options;
@@ -263,12 +266,13 @@ public final class RuleContext {
             return true;
         }
         int[] c = counts.get(rule.id());
-        if (c == null || c[0] < MAX_PER_RULE) {
+        Severity eff = setting == RuleSetting.WARN ? Severity.WARNING : setting == RuleSetting.ERROR ? Severity.ERROR : s;
+        if (c == null || c[0] < cap(eff)) {
             return false;
         }
-        Severity eff = setting == RuleSetting.WARN ? Severity.WARNING : setting == RuleSetting.ERROR ? Severity.ERROR : s;
         c[0]++;
         c[1] = Math.min(c[1], eff.ordinal() + 1);
+        c[2] = 1;
         return true;
     }
 
@@ -284,22 +288,32 @@ public final class RuleContext {
         }
         int[] c = counts.computeIfAbsent(rule.id(), k -> new int[3]);
         c[0]++;
-        if (c[0] <= MAX_PER_RULE) {
+        if (c[0] <= cap(d.severity())) {
             diagnostics.add(d);
+        } else {
+            c[2] = 1;
         }
         int worst = c[1] == 0 ? d.severity().ordinal() + 1 : Math.min(c[1], d.severity().ordinal() + 1);
         c[1] = worst;
         lastRule.put(rule.id(), rule);
     }
 
-    /** Every diagnostic kept, with one summary per rule that had more than {@value #MAX_PER_RULE}. */
+    private static int cap(Severity s) {
+        return s == Severity.INFO ? MAX_INFO_PER_RULE : MAX_PER_RULE;
+    }
+
+    /** Every diagnostic kept, with one summary per rule that had more than it kept. */
     public List<Diagnostic> diagnostics() {
         List<Diagnostic> all = new ArrayList<>(diagnostics);
         for (Map.Entry<String, int[]> e : counts.entrySet()) {
             int[] c = e.getValue();
-            if (c[0] > MAX_PER_RULE) {
+            if (c[2] != 0 || c[0] > MAX_PER_RULE) {
+                int kept = 0;
+                for (Diagnostic d : diagnostics) {
+                    kept += d.code().equals(e.getKey()) ? 1 : 0;
+                }
                 all.add(new Diagnostic(e.getKey(), Severity.values()[c[1] - 1], String.format(Locale.ROOT,
-                        "%d more diagnostics of this rule not shown (%d in all)", c[0] - MAX_PER_RULE, c[0]),
+                        "%d more diagnostics of this rule not shown (%d in all)", c[0] - kept, c[0]),
                         "", null, 0, 0));
             }
         }
