@@ -594,6 +594,9 @@ public final class Determinism {
                 return UNKNOWN;
             }
             card[p] = v.stateCount();
+            if (card[p] <= 0) {
+                return UNKNOWN;
+            }
             count *= card[p];
             if (count > maxEnumeration) {
                 return UNKNOWN;

@@ -109,7 +109,7 @@ public final class Parameters {
             }
         }
         List<Variable> vars = doc.variables();
-        int v = in.vars()[0];
+        int v = in.vars().length > 0 ? in.vars()[0] : -1;
         Variable var = v >= 0 && v < vars.size() ? vars.get(v) : null;
         switch (f) {
             case BERNOULLI -> unit(i, in, "p", p[0]);

@@ -7,10 +7,17 @@ import static dev.circa.validator.rules.RuleTester.circuit;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import dev.circa.format.CircuitDocument;
+import dev.circa.format.Family;
+import dev.circa.format.InputNode;
+import dev.circa.format.Output;
+import dev.circa.format.Variable;
+import dev.circa.format.VariableType;
 import dev.circa.validator.Property;
 import dev.circa.validator.Severity;
 import dev.circa.validator.ValidationReport;
 import dev.circa.validator.Verdict;
+import java.util.List;
 import org.junit.jupiter.api.Test;
 
 /** Reference rules: ids, order, dangling references, weight counts, variables, reachability. */
@@ -195,5 +202,16 @@ class ReferenceRulesTest {
     @Test
     void outputScopeIncomplete_fullScope_clean() {
         circuit(VARS, NODES, OUT).check();
+    }
+
+    @Test
+    void inputVariablesRepeated_mvnormalWithoutVariables_reported() {
+        // JSON cannot say this (the reader wants a d x d cov); a document built in code can
+        CircuitDocument doc = CircuitDocument.builder().variables(List.of(Variable.of("inlet_pressure", VariableType.REAL)))
+                .nodes(List.of(new InputNode(0, null, Family.MVNORMAL, new int[0], new double[0], false)))
+                .outputs(List.of(new Output("joint", 0))).build();
+        RuleTester.built(doc).expect("/nodes/0/vars", "InputVariablesRepeated")
+                .expect("/outputs/0", "OutputScopeIncomplete", Severity.WARNING)
+                .expect("", "RequiredPropertyUnknown").check();
     }
 }
