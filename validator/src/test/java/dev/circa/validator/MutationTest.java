@@ -76,6 +76,48 @@ class MutationTest {
         }
     }
 
+    @Test
+    void mutants_threeBreaksAtOnce_reportedWithoutThrowing() {
+        int validated = 0;
+        for (int seed = 0; seed < 60; seed++) {
+            CircuitDocument doc = new RandomCircuits(5000L + seed).generate(3 + seed % 10, 3);
+            Random rnd = new Random(seed);
+            List<Node> nodes = doc.nodes();
+            for (int k = 0; k < 3; k++) {
+                List<Node> next;
+                try {
+                    next = switch (rnd.nextInt(7)) {
+                        case 0 -> overlap(nodes, rnd);
+                        case 1 -> drop(nodes, rnd);
+                        case 2 -> perturb(nodes, rnd);
+                        case 3 -> flip(nodes, rnd);
+                        case 4 -> forward(nodes, rnd);
+                        case 5 -> duplicate(nodes, rnd);
+                        default -> {
+                            @SuppressWarnings("unchecked")
+                            List<Node> b = (List<Node>) breakParameter(nodes, rnd)[0];
+                            yield b;
+                        }
+                    };
+                } catch (RuntimeException e) {
+                    // the mutator (test code) assumes the structure an earlier mutation broke: skip it
+                    next = null;
+                }
+                if (next != null) {
+                    nodes = next;
+                }
+            }
+            CircuitDocument m = CircuitDocument.builder().variables(doc.variables()).nodes(nodes).outputs(doc.outputs()).build();
+            ValidationReport r = validator.validate(m);
+            ReportFormat.SARIF.render(List.of(r));
+            if (nodes != doc.nodes()) {
+                assertTrue(!r.valid(), "seed " + seed + ": mutated circuit reported valid");
+            }
+            validated++;
+        }
+        assertEquals(60, validated);
+    }
+
     private void count(String kind, boolean caught) {
         int[] c = counts.computeIfAbsent(kind, k -> new int[2]);
         c[1]++;
