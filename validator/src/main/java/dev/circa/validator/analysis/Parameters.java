@@ -88,10 +88,10 @@ public final class Parameters {
         for (int j = 0; j < w.length; j++) {
             if (Double.isNaN(w[j]) || Double.isInfinite(w[j])) {
                 add(NOT_FINITE, i, member + "/" + j, "%s %d of sum %d is %s; expected a finite number",
-                        s.logWeights() ? "log-weight" : "weight", j, s.id(), w[j]);
+                        s.logWeights() ? "log-weight" : "weight", j, s.id(), num(w[j]));
             } else if (!s.logWeights() && w[j] < 0) {
                 add(NEGATIVE_WEIGHT, i, member + "/" + j, "weight %d of sum %d is %s; expected a weight >= 0",
-                        j, s.id(), w[j]);
+                        j, s.id(), num(w[j]));
             }
         }
     }
@@ -104,7 +104,7 @@ public final class Parameters {
         for (int k = 0; k < p.length; k++) {
             if (Double.isNaN(p[k]) || Double.isInfinite(p[k])) {
                 add(NOT_FINITE, i, memberOf(in, k), "parameter %s of %s node %d is %s; expected a finite number",
-                        memberOf(in, k), fam, id, p[k]);
+                        memberOf(in, k), fam, id, num(p[k]));
                 return;
             }
         }
@@ -162,7 +162,7 @@ public final class Parameters {
     }
 
     private static String num(double x) {
-        return String.format(Locale.ROOT, "%s", x);
+        return Numbers.text(x);
     }
 
     private void unit(int i, InputNode in, String name, double x) {

@@ -7,6 +7,7 @@ import dev.circa.format.CheckCase;
 import dev.circa.format.Checks;
 import dev.circa.validator.Severity;
 import java.util.List;
+import dev.circa.validator.analysis.Numbers;
 import java.util.Locale;
 
 /**
@@ -50,8 +51,8 @@ public final class CheckCaseFailed extends Rule {
                 ctx.at(this, severity(), "/checks/cases/" + k, String.format(Locale.ROOT,
                         "check case %d of output \"%s\" computes log-density %s; expected %s within %s + %s * |expected| "
                                 + "(the file's checks.atol and checks.rtol), off by %s",
-                        k, c.outputName(o), got, want == Double.NEGATIVE_INFINITY ? "-inf" : want, checks.atol(),
-                        checks.rtol(), Math.abs(got - want)));
+                        k, c.outputName(o), Numbers.text(got), Numbers.text(want), Numbers.text(checks.atol()),
+                        Numbers.text(checks.rtol()), Numbers.text(Math.abs(got - want))));
             }
         }
     }

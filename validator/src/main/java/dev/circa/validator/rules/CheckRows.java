@@ -65,7 +65,7 @@ final class CheckRows {
                 boolean discrete = var.type() != VariableType.REAL;
                 int states = var.stateCount();
                 if (discrete && (d != Math.rint(d) || d < 0 || (states > 0 && d >= states))) {
-                    return String.format(Locale.ROOT, "the case gives %s the value %s; expected %s", var.name(), d,
+                    return String.format(Locale.ROOT, "the case gives %s the value %s; expected %s", var.name(), dev.circa.validator.analysis.Numbers.text(d),
                             states > 0 ? "a state index 0.." + (states - 1) : "a count 0, 1, 2, ...");
                 }
                 row[v] = d;

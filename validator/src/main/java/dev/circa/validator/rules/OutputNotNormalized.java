@@ -3,6 +3,7 @@ package dev.circa.validator.rules;
 import dev.circa.validator.Property;
 import dev.circa.validator.Severity;
 import dev.circa.validator.analysis.Graph;
+import dev.circa.validator.analysis.Numbers;
 import java.util.Locale;
 
 /** An output does not integrate to 1. */
@@ -21,7 +22,7 @@ public final class OutputNotNormalized extends Rule {
                 ctx.at(this, ctx.propertySeverity(Property.NORMALIZED), "/outputs/" + o, String.format(Locale.ROOT,
                         "output \"%s\" has log Z = %s (expected |log Z| <= %s, set by --tolerance); "
                                 + "circa normalize rescales it exactly",
-                        ctx.document().outputs().get(o).name(), z, tol));
+                        ctx.document().outputs().get(o).name(), Numbers.text(z), Numbers.text(tol)));
             }
         }
     }

@@ -29,6 +29,8 @@ import java.util.Map;
  * Made by {@link dev.circa.validator.Validator}; not for application code.
  */
 public final class RuleContext {
+    private static final String SCHEMA_RULE = "SchemaMismatch";
+
     /** Most diagnostics kept per rule. */
     public static final int MAX_PER_RULE = 100;
     /** Most {@link Severity#INFO} diagnostics kept per rule (witnesses of properties not required). */
@@ -304,7 +306,19 @@ public final class RuleContext {
 
     /** Every diagnostic kept, with one summary per rule that had more than it kept. */
     public List<Diagnostic> diagnostics() {
-        List<Diagnostic> all = new ArrayList<>(diagnostics);
+        // a schema finding at a pointer where a more specific rule has spoken adds nothing
+        java.util.Set<String> specific = new java.util.HashSet<>();
+        for (Diagnostic d : diagnostics) {
+            if (!d.code().equals(SCHEMA_RULE)) {
+                specific.add(d.pointer());
+            }
+        }
+        List<Diagnostic> all = new ArrayList<>(diagnostics.size());
+        for (Diagnostic d : diagnostics) {
+            if (!d.code().equals(SCHEMA_RULE) || !specific.contains(d.pointer())) {
+                all.add(d);
+            }
+        }
         for (Map.Entry<String, int[]> e : counts.entrySet()) {
             int[] c = e.getValue();
             if (c[2] != 0 || c[0] > MAX_PER_RULE) {

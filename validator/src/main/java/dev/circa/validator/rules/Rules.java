@@ -34,6 +34,8 @@ public final class Rules {
             new SumScopesDiffer(),
             new UnknownProperty(),
             new VariableIndexOutOfRange(),
+            new VariableNameDuplicate(),
+            new VariableNameReserved(),
             new WeightCountMismatch(),
             new WeightNegative(),
             new WeightsNotNormalized());

@@ -3,6 +3,7 @@ package dev.circa.validator.rules;
 import dev.circa.format.SumNode;
 import dev.circa.validator.Severity;
 import dev.circa.validator.analysis.Graph;
+import dev.circa.validator.analysis.Numbers;
 import java.util.Locale;
 
 /** A sum's weights do not add to 1. */
@@ -33,7 +34,7 @@ public final class WeightsNotNormalized extends Rule {
             }
             ctx.atNode(this, sev, i, s.logWeights() ? "logWeights" : "weights", String.format(Locale.ROOT,
                     "weights of sum %d add to %s (expected 1 +/- %s, set by --tolerance)",
-                    s.id(), sum, tol));
+                    s.id(), Numbers.text(sum), Numbers.text(tol)));
         }
     }
 }

@@ -12,10 +12,16 @@ import org.junit.jupiter.api.Test;
 /** Document rules: conformance to the bundled schema (schema module) and unknown properties. */
 class DocumentRulesTest {
     @Test
-    void schemaMismatch_violation_reportedAtNodeLine() {
+    void schemaMismatch_emptyVariableName_reported() {
+        // no specific rule covers an empty name: the schema's minLength does
+        circuit(VARS.replace("\"alarm\"", "\"\""), NODES, OUT).schema(SchemaCheck.BUNDLED)
+                .expect("/variables/0/name", "SchemaMismatch").check();
+    }
+
+    @Test
+    void schemaMismatch_sameFindingAsSpecificRule_leftToThatRule() {
         circuit(VARS, NODES.replace("\"sd\": 0.5", "\"sd\": 0"), OUT).schema(SchemaCheck.BUNDLED)
-                .expect("/nodes/3/sd", "SchemaMismatch").expect("/nodes/3/sd", "ParameterOutOfRange")
-                .expect("", "RequiredPropertyUnknown").check();
+                .expect("/nodes/3/sd", "ParameterOutOfRange").expect("", "RequiredPropertyUnknown").check();
     }
 
     @Test

@@ -214,4 +214,27 @@ class ReferenceRulesTest {
                 .expect("/outputs/0", "OutputScopeIncomplete", Severity.WARNING)
                 .expect("", "RequiredPropertyUnknown").check();
     }
+
+    @Test
+    void variableNameDuplicate_sameNameTwice_reported() {
+        circuit(VARS + ", {\"name\": \"alarm\", \"type\": \"binary\"}", NODES, OUT)
+                .expect("/variables/2", "VariableNameDuplicate")
+                .expect("/outputs/0", "OutputScopeIncomplete", Severity.WARNING).check();
+    }
+
+    @Test
+    void variableNameDuplicate_uniqueNames_clean() {
+        circuit(VARS, NODES, OUT).check();
+    }
+
+    @Test
+    void variableNameReserved_logDensity_reported() {
+        circuit(VARS.replace("\"alarm\"", "\"log_density\""), NODES, OUT)
+                .expect("/variables/0/name", "VariableNameReserved").check();
+    }
+
+    @Test
+    void variableNameReserved_ordinaryNames_clean() {
+        circuit(VARS, NODES, OUT).check();
+    }
 }
