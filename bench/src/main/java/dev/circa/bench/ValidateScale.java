@@ -61,34 +61,45 @@ public final class ValidateScale {
             int n = (int) Math.max(2, target / (K * K * K + 2 * K * K) + 1);
             Path file = dir.resolve("circuit-" + target + ".json");
             long[] size = generate(file, n);
-            int reps = target >= 10_000_000L ? 1 : 3;
+            int reps = target >= 10_000_000L ? 2 : 3;
             double parse = Double.MAX_VALUE;
             double parseNum = Double.MAX_VALUE;
             double read = Double.MAX_VALUE;
             double validate = Double.MAX_VALUE;
             ValidationReport r = null;
             for (int i = 0; i < reps; i++) {
+                // each timed step starts on a collected heap, so no step pays for the garbage of the one before
+                System.gc();
                 long tn = System.nanoTime();
                 parseNumbers(file);
                 parseNum = Math.min(parseNum, (System.nanoTime() - tn) / 1e9);
+                System.gc();
                 long t0 = System.nanoTime();
                 parse(file);
                 long t1 = System.nanoTime();
+                System.gc();
+                long t1b = System.nanoTime();
                 new CircuitReader().read(file);
                 long t2 = System.nanoTime();
+                System.gc();
+                long t2b = System.nanoTime();
                 r = validator.validate(file);
                 long t3 = System.nanoTime();
                 parse = Math.min(parse, (t1 - t0) / 1e9);
-                read = Math.min(read, (t2 - t1) / 1e9);
-                validate = Math.min(validate, (t3 - t2) / 1e9);
+                read = Math.min(read, (t2 - t1b) / 1e9);
+                validate = Math.min(validate, (t3 - t2b) / 1e9);
             }
+            boolean valid = r.valid();
+            String diagnostics = valid ? "" : r.diagnostics().toString();
+            r = null;
+            System.gc();
             long t4 = System.nanoTime();
             withSchema.validate(file);
             double schema = (System.nanoTime() - t4) / 1e9;
             System.out.printf(Locale.ROOT, "%12d %10d %9.1f %9.3f %11.3f %9.3f %11.3f %7.2f %10.3f%n", size[1], size[0],
                     Files.size(file) / 1e6, parse, parseNum, read, validate, validate / parse, schema);
-            if (!r.valid()) {
-                System.out.println("  unexpected: the generated circuit is invalid: " + r.diagnostics());
+            if (!valid) {
+                System.out.println("  unexpected: the generated circuit is invalid: " + diagnostics);
             }
             if (!Boolean.getBoolean("keep")) {
                 Files.delete(file);
