@@ -9,6 +9,10 @@ import dev.circa.format.io.CircuitWriter;
 import dev.circa.format.io.JsonInput;
 import dev.circa.format.io.ReadLimits;
 import dev.circa.format.schema.SchemaCatalog;
+import dev.circa.validator.Severity;
+import dev.circa.validator.ValidationOptions;
+import dev.circa.validator.ValidationReport;
+import dev.circa.validator.Validator;
 import java.lang.management.ManagementFactory;
 import java.lang.management.MemoryPoolMXBean;
 import java.lang.management.MemoryType;
@@ -32,8 +36,9 @@ import tools.jackson.core.JsonToken;
 
 /**
  * The scale table of bench/run: for region-graph circuits of about 10^5, 10^6 and 10^7 edges
- * ({@link RegionGraphWorkload}), times the file steps in this JVM (write, bare streaming parse, streaming
- * schema validation, read, compile, dense-block analysis; peak heap of read + compile + one evaluation)
+ * ({@link RegionGraphWorkload}), times the file steps in this JVM (write, bare streaming parse, validation
+ * by {@link Validator} beside it, streaming schema validation, read, compile, dense-block analysis; peak
+ * heap of read + compile + one evaluation)
  * and runs {@link EvaluationBenchmark} with JMH (one fork per measurement, 2 warm-up and 3 measured
  * iterations of 1 s) for log-density throughput at batch 1, 64 and 1024 on 1 and 2 threads on both paths,
  * marginals and conditionals relative to density, sampling and batch-1 latency. Prints one table. To stay
@@ -89,7 +94,11 @@ public final class ScaleTable {
             t = System.nanoTime();
             long tokens = bareParse(file);
             put("bare streaming parse (s)", seconds(t));
-            put("validate (s)", "validator not on main");
+            gc();
+            t = System.nanoTime();
+            ValidationReport report = new Validator(ValidationOptions.defaults()).validate(file);
+            put("validate: read + every rule (s)", seconds(t) + (report.valid() ? ", valid" : ", NOT valid: "
+                    + report.count(Severity.ERROR) + " errors"));
             if (edges < LARGE) {
                 t = System.nanoTime();
                 int violations = SchemaCatalog.get().validateCircuit(file, ReadLimits.DEFAULT).size();
