@@ -42,8 +42,8 @@ import tools.jackson.core.JsonToken;
  * and runs {@link EvaluationBenchmark} with JMH (one fork per measurement, 2 warm-up and 3 measured
  * iterations of 1 s) for log-density throughput at batch 1, 64 and 1024 on 1 and 2 threads on both paths,
  * marginals and conditionals relative to density, sampling and batch-1 latency. Prints one table. To stay
- * within 15 minutes on 2 cores, circuits of {@value #LARGE} edges or more get 1 warm-up and 1 measured
- * iteration, no generic run at batch 1024 (about a minute per call), queries and sampling at batch 64,
+ * within 15 minutes on 2 cores, circuits of {@value #LARGE} edges or more get 2 measured iterations
+ * (a call can take several seconds there, so an iteration may hold one call), no generic run at batch 1024 (about a minute per call), queries and sampling at batch 64,
  * and no schema validation.
  *
  * <p>Run: {@code bench/run} (or {@code java -cp bench/target/benchmarks.jar dev.circa.bench.ScaleTable
@@ -225,8 +225,8 @@ public final class ScaleTable {
                 .param("split", Integer.toString(split))
                 .threads(callers)
                 .forks(1)
-                .warmupIterations(edges >= LARGE ? 1 : 2).warmupTime(TimeValue.seconds(1))
-                .measurementIterations(edges >= LARGE ? 1 : 3).measurementTime(TimeValue.seconds(1))
+                .warmupIterations(2).warmupTime(TimeValue.seconds(1))
+                .measurementIterations(edges >= LARGE ? 2 : 3).measurementTime(TimeValue.seconds(1))
                 .mode(mode)
                 .timeUnit(mode == Mode.SampleTime ? java.util.concurrent.TimeUnit.MICROSECONDS : java.util.concurrent.TimeUnit.SECONDS)
                 .verbosity(VerboseMode.SILENT)
