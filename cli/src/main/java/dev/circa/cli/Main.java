@@ -46,6 +46,9 @@ public final class Main implements Runnable {
         cl.setExecutionExceptionHandler((ex, c, parsed) -> {
             if (ex instanceof FormatException || ex instanceof UsageException) {
                 c.getErr().println("circa: " + ex.getMessage());
+                if (debug) {
+                    ex.printStackTrace(c.getErr());
+                }
             } else {
                 c.getErr().println("circa: unexpected error: " + ex);
                 if (debug) {
