@@ -153,6 +153,12 @@ class CliMalformedInputTest {
         assertEquals(ExitStatus.OK, Cli.run("eval", small.toString(), "--data", data.toString(), "--max-string", "100",
                 "-o", out.toString()).status());
         Files.delete(out);
+        // a 100-digit number in a data cell is over a --max-number of 99 (line 3 of the data file)
+        Cli.assertUnusable(Cli.run("eval", small.toString(), "--data", data.toString(), "--max-number", "99", "-o", out.toString()),
+                data + ":3:1", "--max-number");
+        assertEquals(ExitStatus.OK, Cli.run("eval", small.toString(), "--data", data.toString(), "--max-number", "100",
+                "-o", out.toString()).status());
+        Files.delete(out);
         assertFalse(Files.exists(out));
     }
 
