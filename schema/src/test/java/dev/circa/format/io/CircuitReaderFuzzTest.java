@@ -16,6 +16,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.stream.Stream;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
 
 /**
  * Fuzzing the circuit reader (issue 8): any bytes yield a document or our own located
@@ -54,6 +55,32 @@ class CircuitReaderFuzzTest {
         });
         // Both outcomes occur, so the loop exercises the reader past its first token.
         assertTrue(outcome[0] > 50 && outcome[1] > 1000, outcome[0] + " documents, " + outcome[1] + " errors");
+    }
+
+    /** RFC 1952: a damaged gzip member (header, deflate data, CRC-32 or length) is reported, never thrown otherwise. */
+    @Test
+    void read_twoThousandMutatedGzipFiles_documentOrFormatExceptionNamingTheFile(@TempDir Path dir) throws IOException {
+        List<byte[]> corpus = new ArrayList<>();
+        for (byte[] b : fixtures().subList(0, 4)) {
+            corpus.add(CircuitReaderHardeningTest.gzip(b));
+        }
+        Path file = dir.resolve("mutated.json.gz");
+        InputMutator mutator = new InputMutator(20261211L, corpus);
+        int[] outcome = new int[2];
+        assertTimeoutPreemptively(Duration.ofSeconds(60), () -> {
+            for (int i = 0; i < 2000; i++) {
+                byte[] input = mutator.next();
+                Files.write(file, input);
+                try {
+                    // no line for a file that is not gzip at all; the JSON inside has lines
+                    CircuitDocument doc = OwnErrors.modelOrLocatedError(file.toString(), false, input, b -> new CircuitReader().read(file));
+                    outcome[doc != null ? 0 : 1]++;
+                } catch (AssertionError e) {
+                    throw new AssertionError("mutation " + i + " (" + mutator.lastMutations() + "): " + e.getMessage(), e);
+                }
+            }
+        });
+        assertTrue(outcome[1] > 1000, outcome[0] + " documents, " + outcome[1] + " errors");
     }
 
     /** The property; returns whether the input was read as a document under the default limits. */
