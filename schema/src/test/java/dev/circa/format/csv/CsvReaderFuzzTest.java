@@ -141,7 +141,9 @@ class CsvReaderFuzzTest {
         List<byte[]> l = new ArrayList<>();
         try (Stream<Path> s = Files.walk(Path.of("..", "fixtures"))) {
             for (Path p : s.filter(f -> f.toString().endsWith(".csv")).sorted().toList()) {
-                l.add(Files.readAllBytes(p));
+                // the first 4 KiB of a dataset is as good a seed as all of it, and keeps the loop fast
+                byte[] b = Files.readAllBytes(p);
+                l.add(java.util.Arrays.copyOf(b, Math.min(b.length, 4096)));
             }
         } catch (IOException e) {
             throw new IllegalStateException(e);
