@@ -3,6 +3,11 @@ package dev.circa.cli;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import dev.circa.format.io.ReadLimits;
+import dev.circa.validator.SchemaCheck;
+import dev.circa.validator.ValidationOptions;
+import dev.circa.validator.ValidationReport;
+import dev.circa.validator.Validator;
 import java.io.IOException;
 import java.net.InetAddress;
 import java.net.ServerSocket;
@@ -21,7 +26,7 @@ import org.junit.jupiter.api.io.TempDir;
 /**
  * No command fetches what a document names (issue 8): a circuit naming a schema and {@code $ref}s on
  * a local server, at the top level, in its variables and in its extensions, is read, evaluated,
- * imputed and sampled while the server counts zero connections. The server listens on the
+ * imputed, sampled and validated against the bundled schemas while the server counts zero connections. The server listens on the
  * loopback address only and stops with the test.
  */
 class CliNoNetworkTest {
@@ -71,6 +76,19 @@ class CliNoNetworkTest {
         Path p = dir.resolve("names-a-server.json");
         Files.writeString(p, doc);
         return p;
+    }
+
+    @Test
+    void validator_documentNamingSchemaAndRefUrls_validatedWithoutConnection() throws Exception {
+        Path circuit = circuitNamingTheServer();
+        Path gz = dir.resolve("names-a-server.json.gz");
+        Files.write(gz, CliMalformedInputTest.gzip(Files.readAllBytes(circuit)));
+        Validator v = new Validator(ValidationOptions.defaults(), SchemaCheck.BUNDLED);
+        for (Path p : List.of(circuit, gz)) {
+            ValidationReport report = v.validate(p, ReadLimits.DEFAULT);
+            assertEquals(p.toString(), report.file());
+        }
+        assertEquals(0, connections.get(), "connections while validating");
     }
 
     @Test
