@@ -25,9 +25,18 @@ final class Cli {
 
     /** What one run printed and returned. */
     record Result(String[] args, int status, String out, String err) {
-        /** Lines of standard error that start a message ("circa: ..."). */
+        /** Lines of standard error that start a message ("circa: ...", warnings aside). */
         long messages() {
-            return err.lines().filter(l -> l.startsWith("circa: ")).count();
+            return err.lines().filter(Result::isMessage).count();
+        }
+
+        /** The first message line. */
+        String message() {
+            return err.lines().filter(Result::isMessage).findFirst().orElse("");
+        }
+
+        private static boolean isMessage(String line) {
+            return line.startsWith("circa: ") && !line.startsWith("circa: warning: ");
         }
 
         String describe() {
@@ -54,7 +63,7 @@ final class Cli {
     static void assertUnusable(Result r, String name, String fragment) {
         assertEquals(ExitStatus.UNUSABLE, r.status(), r::describe);
         assertEquals(1, r.messages(), r::describe);
-        String message = r.err().lines().filter(l -> l.startsWith("circa: ")).findFirst().orElseThrow();
+        String message = r.message();
         assertTrue(message.contains(name), () -> "message does not name " + name + ": " + r.describe());
         assertTrue(r.err().contains(fragment), () -> "expected \"" + fragment + "\": " + r.describe());
         assertNoStackTrace(r);

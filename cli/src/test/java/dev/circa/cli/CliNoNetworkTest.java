@@ -63,46 +63,66 @@ class CliNoNetworkTest {
         acceptor.join(5000);
     }
 
-    /** The example with the local server's address wherever a document could name a schema or a reference. */
-    private Path circuitNamingTheServer() throws IOException {
+    /**
+     * The example naming the local server: in its extensions only when {@code everywhere} is false
+     * (a valid circuit), else also at the top level and in a variable (unknown properties: errors).
+     */
+    private Path circuitNamingTheServer(boolean everywhere) throws IOException {
         String url = "http://127.0.0.1:" + server.getLocalPort();
         String doc = Files.readString(Cli.EXAMPLE)
-                .replaceFirst("\\{", "{\"\\$schema\": \"" + url + "/circuit.schema.json\", \"\\$id\": \"" + url + "/id\",")
-                .replace("{\"name\": \"inlet_pressure\", \"type\": \"real\"",
-                        "{\"$ref\": \"" + url + "/variable#/x\", \"name\": \"inlet_pressure\", \"type\": \"real\"")
                 .replace("\"checks\":", "\"extensions\": {\"$schema\": \"" + url + "/ext\", \"$ref\": \"" + url
                         + "/ref#/defs/a\", \"nested\": {\"$ref\": \"" + url + "/deeper\"}}, \"checks\":");
+        if (everywhere) {
+            doc = doc.replaceFirst("\\{", "{\"\\$schema\": \"" + url + "/circuit.schema.json\", \"\\$id\": \"" + url + "/id\",")
+                    .replace("{\"name\": \"inlet_pressure\", \"type\": \"real\"",
+                            "{\"$ref\": \"" + url + "/variable#/x\", \"name\": \"inlet_pressure\", \"type\": \"real\"");
+        }
         assertTrue(doc.contains("\"$schema\"") && doc.contains("\"$ref\"") && doc.contains("\"extensions\""), doc);
-        Path p = dir.resolve("names-a-server.json");
+        Path p = dir.resolve(everywhere ? "names-a-server-everywhere.json" : "names-a-server.json");
         Files.writeString(p, doc);
         return p;
     }
 
     @Test
     void validator_documentNamingSchemaAndRefUrls_validatedWithoutConnection() throws Exception {
-        Path circuit = circuitNamingTheServer();
-        Path gz = dir.resolve("names-a-server.json.gz");
-        Files.write(gz, CliMalformedInputTest.gzip(Files.readAllBytes(circuit)));
-        Validator v = new Validator(ValidationOptions.defaults(), SchemaCheck.BUNDLED);
-        for (Path p : List.of(circuit, gz)) {
-            ValidationReport report = v.validate(p, ReadLimits.DEFAULT);
-            assertEquals(p.toString(), report.file());
+        for (boolean everywhere : new boolean[] {false, true}) {
+            Path circuit = circuitNamingTheServer(everywhere);
+            Path gz = dir.resolve(circuit.getFileName() + ".gz");
+            Files.write(gz, CliMalformedInputTest.gzip(Files.readAllBytes(circuit)));
+            Validator v = new Validator(ValidationOptions.defaults(), SchemaCheck.BUNDLED);
+            for (Path p : List.of(circuit, gz)) {
+                ValidationReport report = v.validate(p, ReadLimits.DEFAULT);
+                assertEquals(p.toString(), report.file());
+                assertEquals(!everywhere, report.valid(), p.toString());
+            }
         }
         assertEquals(0, connections.get(), "connections while validating");
     }
 
     @Test
     void everyCommand_documentNamingSchemaAndRefUrls_noConnection() throws Exception {
-        Path circuit = circuitNamingTheServer();
         Path data = dir.resolve("readings.csv");
         Files.copy(Cli.READINGS, data);
-        List<String[]> runs = new ArrayList<>();
-        runs.add(new String[] {"eval", circuit.toString(), "--data", data.toString(), "-o", dir.resolve("e.csv").toString()});
-        runs.add(new String[] {"impute", circuit.toString(), "--data", data.toString(), "-o", dir.resolve("i.csv").toString()});
-        runs.add(new String[] {"sample", circuit.toString(), "-n", "20", "-o", dir.resolve("s.csv").toString()});
-        for (String[] args : runs) {
-            Cli.Result r = Cli.run(args);
-            assertEquals(ExitStatus.OK, r.status(), r::describe);
+        for (boolean everywhere : new boolean[] {false, true}) {
+            Path circuit = circuitNamingTheServer(everywhere);
+            // a valid circuit is used (0); one with unknown top-level members is invalid (validate 1, the others 2)
+            int expected = everywhere ? ExitStatus.UNUSABLE : ExitStatus.OK;
+            List<String[]> runs = new ArrayList<>();
+            runs.add(new String[] {"eval", circuit.toString(), "--data", data.toString(), "-o", dir.resolve("e.csv").toString()});
+            runs.add(new String[] {"impute", circuit.toString(), "--data", data.toString(), "-o", dir.resolve("i.csv").toString()});
+            runs.add(new String[] {"sample", circuit.toString(), "-n", "20", "-o", dir.resolve("s.csv").toString()});
+            runs.add(new String[] {"inspect", circuit.toString()});
+            for (String[] args : runs) {
+                Cli.Result r = Cli.run(args);
+                Cli.assertNoStackTrace(r);
+                if (!args[0].equals("inspect") || !everywhere) {
+                    assertEquals(expected, r.status(), r::describe);
+                }
+            }
+            for (String format : List.of("text", "json", "sarif")) {
+                Cli.Result r = Cli.run("validate", circuit.toString(), "--format", format, "--schema-check", "always");
+                assertEquals(everywhere ? ExitStatus.FAILED : ExitStatus.OK, r.status(), r::describe);
+            }
         }
         // a check that the listener counts: one connection of our own, then none from circa
         int before = connections.get();
