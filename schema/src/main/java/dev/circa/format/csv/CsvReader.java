@@ -201,7 +201,8 @@ public final class CsvReader implements AutoCloseable {
 
     private void fill() throws FormatException {
         try {
-            len = in.read(buf, 0, buf.length);
+            // at the end, len = 0 keeps pos == len, so every later peek reads the end again, not stale chars
+            len = Math.max(0, in.read(buf, 0, buf.length));
             pos = 0;
         } catch (CharacterCodingException e) {
             throw new FormatException(file, line, col, null, "not UTF-8 text");

@@ -32,6 +32,7 @@ public final class ReferenceSetReader implements AutoCloseable {
     private final int densityColumn;
     private final int outputColumn;
     private long rows;
+    private boolean ended;
 
     /**
      * Reads the header of {@code csv}.
@@ -134,9 +135,10 @@ public final class ReferenceSetReader implements AutoCloseable {
     public int read(double[] data, int[] output, double[] expected, long[] lines, int max) throws FormatException {
         int nv = variables.size();
         int r = 0;
-        while (r < max) {
+        while (r < max && !ended) {
             List<String> rec = csv.next();
             if (rec == null) {
+                ended = true;
                 break;
             }
             if (rec.size() != width) {
