@@ -59,6 +59,6 @@ final class NormalizeCommand implements Callable<Integer> {
     }
 
     private static String logZ(double v) {
-        return v == Double.NEGATIVE_INFINITY ? "-inf" : String.format(Locale.ROOT, "%.17g", v);
+        return v == Double.NEGATIVE_INFINITY ? "-inf" : Double.toString(v);
     }
 }

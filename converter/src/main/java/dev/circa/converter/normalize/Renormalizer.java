@@ -20,11 +20,18 @@ import java.util.List;
  * value of node j with every variable missing (computed bottom-up in log space: an input's total
  * mass, a product's the product of its children's, a sum's the weighted sum), every weight w_ij
  * becomes w_ij Z_j / Z_i and every categorical input whose probabilities do not add to 1 is divided
- * by their sum. Each node then computes its old value divided by its Z, so every sum is locally
- * normalised and every output is its normalised distribution. Weights keep the form of the document
+ * by their sum (one within {@link #ROUNDING} of 1 is left as written). Each node then computes
+ * its old value divided by its Z, so every sum is locally normalised and every output is its
+ * normalised distribution. Weights keep the form of the document
  * ({@code weights} or {@code logWeights}); a log-weight is rescaled by adding, exactly in log space.
  */
 public final class Renormalizer {
+    /**
+     * A categorical whose log mass is within this of 0 is taken as normalised and left as written:
+     * the rounding of a sum of a few dozen probabilities (64 ulps of 1).
+     */
+    public static final double ROUNDING = 64 * Math.ulp(1.0);
+
     private Renormalizer() {
     }
 
@@ -50,7 +57,8 @@ public final class Renormalizer {
         for (int i = 0; i < n; i++) {
             Node node = nodes.get(i);
             if (node instanceof InputNode in) {
-                logZ[i] = inputLogMass(in);
+                double m = inputLogMass(in);
+                logZ[i] = Math.abs(m) <= ROUNDING ? 0 : m;
             } else if (node instanceof ProductNode) {
                 double s = 0;
                 for (int k = cs[i]; k < cs[i + 1]; k++) {
