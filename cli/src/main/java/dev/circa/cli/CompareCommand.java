@@ -52,11 +52,14 @@ final class CompareCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws FormatException {
+        if (samples < 1) {
+            throw new UsageException("--samples must be >= 1, got " + samples);
+        }
         CompareOptions options;
         try {
             options = new CompareOptions(samples, seed, atol, rtol);
         } catch (IllegalArgumentException e) {
-            throw new UsageException("--samples must be >= 0 and --atol, --rtol finite and >= 0");
+            throw new UsageException("--atol and --rtol must be finite and >= 0");
         }
         PrintWriter err = spec.commandLine().getErr();
         LoadedCircuit a = LoadedCircuit.load(first, read.limits(), err);

@@ -18,7 +18,8 @@ import java.util.SplittableRandom;
  * each), {@link CompareOptions#samples()} points are drawn from each circuit with the engine's
  * {@link Sampler}, and every point is evaluated under both as drawn and again with each variable
  * missing with probability 1/2 (at least one), so marginals are compared too. Points are drawn in
- * chunks of {@link #CHUNK} rows, so memory stays bounded. The same seed gives the same points.
+ * chunks of at most {@link #CHUNK} rows (fewer for very wide circuits), so memory stays bounded.
+ * The same seed gives the same points.
  */
 public final class CircuitComparison {
     /** Rows sampled at once. */
@@ -132,7 +133,8 @@ public final class CircuitComparison {
         Evaluator evB = new Evaluator(b);
         double[] zA = evA.logPartition();
         double[] zB = evB.logPartition();
-        int chunk = Math.max(1, Math.min(CHUNK, n));
+        int width = Math.max(1, nv + Math.max(a.outputCount(), b.outputCount()));
+        int chunk = Math.max(1, Math.min(Math.min(CHUNK, n), (1 << 20) / width));
         double[] drawn = new double[chunk * Math.max(1, nv)];
         double[] pa = new double[2 * chunk * Math.max(1, nv)];
         double[] pb = new double[2 * chunk * Math.max(1, nv)];

@@ -21,12 +21,15 @@ import java.util.Map;
 /**
  * A regression check of one compiled circuit against reference log-densities from any number of
  * sources: the embedded {@code checks} of its document and reference CSV files. Reference sets are
- * evaluated in chunks of {@link #CHUNK} rows, so memory stays bounded whatever their length; call
+ * evaluated in chunks of at most {@link #CHUNK} rows (fewer for very wide circuits, so a chunk holds
+ * about {@link #CHUNK_CELLS} numbers), so memory stays bounded whatever their length; call
  * {@link #report()} at the end. Not thread-safe.
  */
 public final class RegressionCheck {
     /** Rows evaluated at once. */
     public static final int CHUNK = 4096;
+    /** Numbers (data cells plus outputs) a chunk holds at most, unless a single row needs more. */
+    public static final int CHUNK_CELLS = 1 << 20;
 
     private final CompiledCircuit circuit;
     private final Evaluator evaluator;
@@ -34,9 +37,10 @@ public final class RegressionCheck {
     private final List<String> outputNames;
     private final double[] data;
     private final double[] out;
-    private final int[] output = new int[CHUNK];
-    private final double[] expected = new double[CHUNK];
-    private final long[] lines = new long[CHUNK];
+    private final int chunk;
+    private final int[] output;
+    private final double[] expected;
+    private final long[] lines;
 
     /** A check of {@code circuit} with {@code tolerance} (see {@link Tolerance#resolve}). */
     public RegressionCheck(CompiledCircuit circuit, Tolerance tolerance) {
@@ -48,8 +52,13 @@ public final class RegressionCheck {
         }
         this.outputNames = List.copyOf(names);
         this.report = new ReportBuilder(tolerance, outputNames);
-        this.data = new double[CHUNK * Math.max(1, circuit.variableCount())];
-        this.out = new double[CHUNK * circuit.outputCount()];
+        int width = Math.max(1, circuit.variableCount() + circuit.outputCount());
+        this.chunk = Math.max(1, Math.min(CHUNK, CHUNK_CELLS / width));
+        this.data = new double[chunk * Math.max(1, circuit.variableCount())];
+        this.out = new double[chunk * circuit.outputCount()];
+        this.output = new int[chunk];
+        this.expected = new double[chunk];
+        this.lines = new long[chunk];
     }
 
     /**
@@ -140,7 +149,7 @@ public final class RegressionCheck {
         int no = circuit.outputCount();
         long first = reader.rowsRead() + 1;
         int rows;
-        while ((rows = reader.read(data, output, expected, lines, CHUNK)) > 0) {
+        while ((rows = reader.read(data, output, expected, lines, chunk)) > 0) {
             evaluator.logDensity(data, rows, out);
             for (int r = 0; r < rows; r++) {
                 report.add(reader.file(), first + r, lines[r], null, output[r], expected[r], out[r * no + output[r]]);
