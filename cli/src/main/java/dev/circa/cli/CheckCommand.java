@@ -16,11 +16,12 @@ import picocli.CommandLine.Parameters;
 
 /** {@code circa check}: regression check against the embedded checks and reference CSV files. */
 @Command(name = "check", mixinStandardHelpOptions = true,
-        description = {"Checks a circuit against reference log-densities: its embedded checks and every",
-            "--reference CSV (header: variable names, log_density, optionally output; empty cell = missing).",
-            "A case passes when |computed - expected| <= atol + rtol * |expected|; a -inf reference only",
-            "when the circuit computes -inf. Prints the cases, failures, largest errors and the worst 10",
-            "cases with their rows. Exit status 1 when any case fails."})
+        description = {"Checks a circuit against reference log-densities: its embedded checks and",
+            "every --reference CSV (header: variable names, log_density, optionally",
+            "output; an empty cell is missing). A case passes when",
+            "|computed - expected| <= atol + rtol * |expected|; a -inf reference only",
+            "when the circuit computes -inf. Prints the cases, failures, largest errors",
+            "and the worst 10 cases with their rows. Exit status 1 when any case fails."})
 final class CheckCommand implements Callable<Integer> {
     /** Report forms. */
     enum Format { text, json }

@@ -15,10 +15,11 @@ import picocli.CommandLine.Parameters;
 
 /** {@code circa compare}: numerical equivalence of two circuits over the same variables. */
 @Command(name = "compare", mixinStandardHelpOptions = true,
-        description = {"Compares two circuits over the same variables (matched by name; types and states must",
-            "agree): log-densities at points sampled from each, and at the same points with random",
-            "variables missing. Two log-densities a, b agree when |a - b| <= atol + rtol * max(|a|, |b|).",
-            "Says when the circuits are structurally identical up to node order. Exit status 1 beyond tolerance."})
+        description = {"Compares two circuits over the same variables (matched by name; types and",
+            "states must agree): log-densities at points sampled from each, and at the",
+            "same points with random variables missing. Log-densities a and b agree when",
+            "|a - b| <= atol + rtol * max(|a|, |b|). Says when the circuits are",
+            "structurally identical up to node order. Exit status 1 beyond tolerance."})
 final class CompareCommand implements Callable<Integer> {
     /** Report forms. */
     enum Format { text, json }

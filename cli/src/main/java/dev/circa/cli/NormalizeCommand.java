@@ -18,10 +18,11 @@ import picocli.CommandLine.Parameters;
 
 /** {@code circa normalize}: exact, distribution-preserving renormalisation. */
 @Command(name = "normalize", mixinStandardHelpOptions = true,
-        description = {"Rescales the weights of a smooth, decomposable circuit bottom-up so that every sum is",
-            "locally normalised (w_ij becomes w_ij Z_j / Z_i) and every output is its normalised",
-            "distribution; unnormalised categorical inputs get probabilities that add to 1 and embedded",
-            "check values are shifted by -log Z. Reports log Z of each output before and after."})
+        description = {"Rescales the weights of a smooth, decomposable circuit bottom-up so that",
+            "every sum is locally normalised (w_ij becomes w_ij Z_j / Z_i) and every",
+            "output is its normalised distribution; unnormalised categorical inputs get",
+            "probabilities that add to 1, embedded check values are shifted by -log Z.",
+            "Reports log Z of each output before and after."})
 final class NormalizeCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "CIRCUIT", description = "The circuit file.")
     Path circuitFile;

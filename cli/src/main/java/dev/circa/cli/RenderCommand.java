@@ -18,10 +18,11 @@ import picocli.CommandLine.Parameters;
 
 /** {@code circa render}: Graphviz DOT of a circuit's structure. */
 @Command(name = "render", mixinStandardHelpOptions = true,
-        description = {"Writes the structure of a circuit as Graphviz DOT (render it with, e.g., dot -Tsvg):",
-            "node kind, input family, variable and rounded parameters, rounded sum weights on the edges,",
-            "scopes with --scopes. Above --max-render-nodes nodes, a summary by scope: one box per",
-            "distinct scope and kind with its node count, edges aggregated."})
+        description = {"Writes the structure of a circuit as Graphviz DOT (draw it with, e.g.,",
+            "dot -Tsvg): node kind, input family, variable and rounded parameters,",
+            "rounded sum weights on the edges, scopes with --scopes. Above",
+            "--max-render-nodes nodes, a summary by scope: one node per distinct scope",
+            "and kind with its node count, edges aggregated."})
 final class RenderCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "CIRCUIT", description = "The circuit file.")
     Path circuitFile;
