@@ -15,10 +15,10 @@ import java.util.Map;
 
 /**
  * Graphviz DOT of a compiled circuit. Up to {@link RenderOptions#maxNodes()} nodes, one DOT node
- * per circuit node (inputs as ellipses with family, variable and rounded parameters; products as
- * boxes; sums as rounded ellipses with rounded weights on their edges; outputs as plain
- * labels), edges from parent to child. Above the limit, a summary: one DOT node per distinct
- * (kind, scope) with the number of circuit nodes in it, and one edge per pair of groups labelled
+ * per circuit node (inputs as rounded boxes with family, variable and rounded parameters; products
+ * as boxes; sums as ellipses with rounded weights on their edges; outputs as plain labels), edges
+ * from parent to child. Above the limit, a summary: one DOT node per distinct
+ * (kind, scope) with the number of circuit nodes in it (and, for inputs, per family), and one edge per pair of groups labelled
  * with the number of edges between them.
  */
 public final class DotRenderer {
@@ -75,7 +75,7 @@ public final class DotRenderer {
             StringBuilder label = new StringBuilder();
             String shape;
             if (k == NodeKind.INPUT) {
-                shape = "ellipse";
+                shape = "box, style=rounded";
                 label.append('#').append(c.nodeId(i)).append(' ').append(c.inputFamily(i).jsonName()).append('\n');
                 label.append(variableNames(c.inputVars(i))).append('\n').append(parameters(i));
             } else if (k == NodeKind.PRODUCT) {
@@ -89,7 +89,6 @@ public final class DotRenderer {
                 label.append('\n').append(scopeText(scopes.variables(scopes.scopeOf(i))));
             }
             out.append("  n").append(Integer.toString(i)).append(" [shape=").append(shape)
-                    .append(k == NodeKind.SUM ? ", style=rounded" : "")
                     .append(", label=").append(quote(label.toString())).append("];\n");
         }
         for (int i = 0; i < c.nodeCount(); i++) {
@@ -112,6 +111,7 @@ public final class DotRenderer {
         int[] group = new int[n];
         Map<Long, Integer> groupOf = new HashMap<>();
         List<long[]> groups = new ArrayList<>();
+        List<int[]> families = new ArrayList<>();
         for (int i = 0; i < n; i++) {
             long key = (long) scopes.scopeOf(i) * 3 + c.kind(i).ordinal();
             Integer g = groupOf.get(key);
@@ -119,8 +119,12 @@ public final class DotRenderer {
                 g = groups.size();
                 groupOf.put(key, g);
                 groups.add(new long[] {c.kind(i).ordinal(), scopes.scopeOf(i), 0});
+                families.add(new int[Family.values().length]);
             }
             groups.get(g)[2]++;
+            if (c.kind(i) == NodeKind.INPUT) {
+                families.get(g)[c.inputFamily(i).ordinal()]++;
+            }
             group[i] = g;
         }
         Map<Long, long[]> edges = new LinkedHashMap<>();
@@ -146,10 +150,22 @@ public final class DotRenderer {
                 case PRODUCT -> info[2] == 1 ? "product" : "products";
                 case SUM -> info[2] == 1 ? "sum" : "sums";
             };
-            String label = info[2] + " " + what + "\n" + scopeText(scopes.variables((int) info[1]));
+            StringBuilder label = new StringBuilder().append(info[2]).append(' ').append(what);
+            if (k == NodeKind.INPUT) {
+                String sep = " (";
+                for (Family f : Family.values()) {
+                    int count = families.get(g)[f.ordinal()];
+                    if (count > 0) {
+                        label.append(sep).append(count).append(' ').append(f.jsonName());
+                        sep = ", ";
+                    }
+                }
+                label.append(')');
+            }
+            label.append('\n').append(scopeText(scopes.variables((int) info[1])));
             out.append("  g").append(Integer.toString(g)).append(" [shape=")
-                    .append(k == NodeKind.PRODUCT ? "box" : "ellipse").append(k == NodeKind.SUM ? ", style=rounded" : "")
-                    .append(", label=").append(quote(label)).append("];\n");
+                    .append(k == NodeKind.SUM ? "ellipse" : k == NodeKind.PRODUCT ? "box" : "box, style=rounded")
+                    .append(", label=").append(quote(label.toString())).append("];\n");
         }
         for (Map.Entry<Long, long[]> e : edges.entrySet()) {
             long key = e.getKey();
