@@ -70,6 +70,10 @@ public final class ReferenceSetReader implements AutoCloseable {
         int output = -1;
         for (int c = 0; c < width; c++) {
             String name = header.get(c).strip();
+            if (c == 0 && name.startsWith("\uFEFF")) {
+                // a byte-order mark, as spreadsheet programs write at the start of UTF-8 CSV files
+                name = name.substring(1).strip();
+            }
             if (name.equals(LOG_DENSITY) || name.equals(OUTPUT)) {
                 if ((name.equals(LOG_DENSITY) ? density : output) >= 0) {
                     throw csv.error(c, "column \"" + name + "\" appears twice");

@@ -171,6 +171,19 @@ class RegressionCheckTest {
         assertTrue(r.toText().contains("comments.csv row 2 (line 6)"), r::toText);
     }
 
+    @Test
+    void checkReference_byteOrderMarkBeforeHeader_accepted() throws Exception {
+        // common practice: spreadsheet programs start UTF-8 CSV files with the byte-order mark U+FEFF
+        Path ref = dir.resolve("bom.csv");
+        Files.writeString(ref, "\uFEFFinlet_pressure,valve,log_density\n3.0,open,0.18261296103078395\n");
+        // FORMAT.md: 0.18261296103078395 computed with SciPy 1.10
+        RegressionCheck check = new RegressionCheck(CompiledCircuit.compile(PUMP), Tolerance.DEFAULT);
+        check.checkReference(ref, ReadLimits.DEFAULT);
+        CheckReport r = check.report();
+        assertEquals(1, r.cases());
+        assertEquals(0, r.failures(), r::toText);
+    }
+
     private static final CircuitDocument PUMP = readPump();
 
     private static CircuitDocument readPump() {
