@@ -51,6 +51,13 @@ public record ComparisonReport(CompareOptions options, List<Variable> variables,
                     o.outputA(), o.outputA().equals(o.outputB()) ? "" : " / " + o.outputB(), o.points(), o.failures(),
                     ld(o.logPartitionA()), ld(o.logPartitionB())));
         }
+        for (OutputComparison o : outputs) {
+            if (!options.agree(o.logPartitionA(), o.logPartitionB())) {
+                sb.append(String.format(Locale.ROOT, "note: output %s integrates to different totals (log Z %s vs %s); "
+                        + "if only normalisation differs, circa normalize makes both integrate to 1%n",
+                        o.outputA(), ld(o.logPartitionA()), ld(o.logPartitionB())));
+            }
+        }
         if (!worst.isEmpty() && (failures > 0 || maxAbsError > 0)) {
             sb.append("largest disagreements:\n");
             for (Disagreement d : worst) {
