@@ -9,11 +9,9 @@ import picocli.CommandLine.Command;
 @Command(name = "circa", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Validate, convert, check and evaluate probabilistic circuit files.",
         subcommands = {
-            ValidateCommand.class,
             EvalCommand.class,
             ImputeCommand.class,
             SampleCommand.class,
-            InspectCommand.class,
             CheckCommand.class, CompareCommand.class, NormalizeCommand.class, RenderCommand.class,
             CommandLine.HelpCommand.class
         })
@@ -65,7 +63,7 @@ public final class Main implements Runnable {
             err.println("circa: the input is nested too deeply to process (stack exhausted)");
             return ExitStatus.UNUSABLE;
         } catch (OutOfMemoryError e) {
-            err.println("circa: out of memory; raise the heap with CIRCA_JAVA_OPTS=-Xmx... or lower the input size");
+            err.println("circa: out of memory; give Java more heap with CIRCA_JAVA_OPTS=-Xmx... or lower the input size");
             return ExitStatus.UNUSABLE;
         }
     }

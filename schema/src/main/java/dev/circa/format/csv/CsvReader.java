@@ -27,6 +27,7 @@ public final class CsvReader implements AutoCloseable {
     private final char[] buf = new char[1 << 16];
     private int pos;
     private int len;
+    private boolean eof;
     private int line = 1;
     private int col = 1;
     private int recordLine;
@@ -181,9 +182,15 @@ public final class CsvReader implements AutoCloseable {
     }
 
     private int peek() throws FormatException {
-        if (pos == len) {
+        if (pos >= len) {
+            if (eof) {
+                return -1;
+            }
             fill();
             if (len <= 0) {
+                eof = true;
+                len = 0;
+                pos = 0;
                 return -1;
             }
         }
@@ -201,8 +208,7 @@ public final class CsvReader implements AutoCloseable {
 
     private void fill() throws FormatException {
         try {
-            // at the end, len = 0 keeps pos == len, so every later peek reads the end again, not stale chars
-            len = Math.max(0, in.read(buf, 0, buf.length));
+            len = in.read(buf, 0, buf.length);
             pos = 0;
         } catch (CharacterCodingException e) {
             throw new FormatException(file, line, col, null, "not UTF-8 text");

@@ -1,7 +1,0 @@
-package dev.circa.cli;
-/** SCRATCH stand-in for local compilation only; never committed. */
-@picocli.CommandLine.Command(name = "inspect")
-final class InspectCommand implements java.util.concurrent.Callable<Integer> {
-    @Override
-    public Integer call() { return 0; }
-}
