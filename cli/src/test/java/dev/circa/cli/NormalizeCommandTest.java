@@ -38,7 +38,6 @@ class NormalizeCommandTest {
     @Test
     void normalize_scaledExample_recoversTheExampleAndReportsLogZ() throws Exception {
         Path in = scaled();
-        assertEquals(ExitStatus.OK, CliRun.of("check", in.toString()).status());
         Path out = dir.resolve("normalized.json");
         CliRun r = CliRun.of("normalize", in.toString(), "-o", out.toString());
         assertEquals(ExitStatus.OK, r.status(), r::toString);

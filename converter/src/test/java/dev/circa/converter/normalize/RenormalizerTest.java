@@ -5,6 +5,7 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import dev.circa.engine.CompileException;
 import dev.circa.engine.CompiledCircuit;
 import dev.circa.engine.Evaluator;
 import dev.circa.format.CheckCase;
@@ -49,14 +50,19 @@ class RenormalizerTest {
      * and categoricals are unnormalised; the output sum's weights are multiplied by {@code outputFactor}.
      */
     private static CircuitDocument discrete(boolean innerScaled, double outputFactor) {
-        double f = innerScaled ? 1 : 0;
+        return discrete(innerScaled, innerScaled, outputFactor);
+    }
+
+    /** As {@link #discrete(boolean, double)}, with unnormalised inner sums and categoricals chosen apart. */
+    private static CircuitDocument discrete(boolean sumsScaled, boolean categoricalsScaled, double outputFactor) {
+        double f = sumsScaled ? 1 : 0;
         List<Node> n = new ArrayList<>();
         n.add(new InputNode(0, null, Family.BERNOULLI, new int[] {0}, new double[] {0.2}, false));
         n.add(new InputNode(1, null, Family.BERNOULLI, new int[] {0}, new double[] {0.9}, false));
         n.add(new InputNode(2, null, Family.CATEGORICAL, new int[] {1},
-                innerScaled ? new double[] {0.2, 0.5, 0.9} : new double[] {0.25, 0.25, 0.5}, false));
+                categoricalsScaled ? new double[] {0.2, 0.5, 0.9} : new double[] {0.25, 0.25, 0.5}, false));
         n.add(new InputNode(3, null, Family.CATEGORICAL, new int[] {1},
-                innerScaled ? new double[] {0, Math.log(2), 0} : new double[] {Math.log(0.25), Math.log(0.5), Math.log(0.25)}, true));
+                categoricalsScaled ? new double[] {0, Math.log(2), 0} : new double[] {Math.log(0.25), Math.log(0.5), Math.log(0.25)}, true));
         n.add(new InputNode(4, null, Family.INDICATOR, new int[] {2}, new double[] {1}, false));
         n.add(new InputNode(5, null, Family.INDICATOR, new int[] {2}, new double[] {0}, false));
         n.add(new ProductNode(6, null, new int[] {0, 2}));
@@ -205,7 +211,20 @@ class RenormalizerTest {
         }
         assertEquals(1, total, 1e-12);
 
-        // compare agrees with the input whose output weights are divided by Z (brute force)
+    }
+
+    @Test
+    void normalize_innerSumsScaled_compareAgreesWithInputDividedByZ() throws Exception {
+        // inner sums and the output unnormalised, inputs normalised: the input divided by Z (brute force)
+        // is its normalised distribution, with every variable present or missing
+        CircuitDocument input = discrete(true, false, 2.5);
+        double[] z = bruteForceMass(input);
+        Map<Integer, Integer> index = new HashMap<>();
+        for (int i = 0; i < input.nodes().size(); i++) {
+            index.put(input.nodes().get(i).id(), i);
+        }
+        NormalizationResult r = Renormalizer.normalize(input);
+        assertEquals(Math.log(z[index.get(14)]), r.logPartitionBefore()[0], 1e-12);
         List<Node> divided = new ArrayList<>(input.nodes());
         SumNode root = sum(input, 14);
         double zr = z[index.get(14)];
@@ -216,6 +235,7 @@ class RenormalizerTest {
                 CompiledCircuit.compile(dividedDoc), new CompareOptions(1000, 0, 1e-9, 1e-9));
         assertTrue(cmp.passed(), cmp::toText);
         assertEquals(4000, cmp.points());
+        assertTrue(r.sumsChanged() >= 3);
     }
 
     @Test
@@ -243,14 +263,16 @@ class RenormalizerTest {
     }
 
     @Test
-    void normalize_negativeWeight_refused() {
+    void normalize_negativeWeight_refusedBeforeAnyRescaling() {
         List<Node> n = List.of(
                 new InputNode(0, null, Family.BERNOULLI, new int[] {0}, new double[] {0.2}, false),
                 new InputNode(1, null, Family.BERNOULLI, new int[] {0}, new double[] {0.9}, false),
                 new SumNode(2, null, new int[] {0, 1}, new double[] {1.5, -0.5}, false));
         CircuitDocument doc = CircuitDocument.builder().variables(VARS).nodes(n).outputs(List.of(new Output("joint", 2))).build();
-        NotNormalizableException e = assertThrows(NotNormalizableException.class, () -> Renormalizer.normalize(doc));
-        assertTrue(e.getMessage().contains("non-negative"), e.getMessage());
+        // the compiler refuses it already; a circuit compiled elsewhere is refused by the renormaliser
+        Exception e = assertThrows(Exception.class, () -> Renormalizer.normalize(doc));
+        assertTrue(e instanceof CompileException || e instanceof NotNormalizableException, e.toString());
+        assertTrue(e.getMessage().contains("-0.5"), e.getMessage());
     }
 
     @Test
