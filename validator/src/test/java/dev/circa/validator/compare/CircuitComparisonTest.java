@@ -224,6 +224,27 @@ class CircuitComparisonTest {
         return nodes;
     }
 
+    private static CircuitDocument withOutputs(CircuitDocument doc, List<Output> outputs) {
+        return CircuitDocument.builder().variables(doc.variables()).nodes(doc.nodes()).outputs(outputs).build();
+    }
+
+    @Test
+    void compare_severalOutputs_matchedByNameElseIncompatible() throws Exception {
+        CircuitDocument doc = pump(0.8, false);
+        CompiledCircuit a = compile(withOutputs(doc, List.of(new Output("joint", 14), new Output("healthy", 12))));
+        CompiledCircuit b = compile(withOutputs(doc, List.of(new Output("healthy", 12), new Output("joint", 14))));
+        ComparisonReport r = CircuitComparison.compare(a, b, new CompareOptions(100, 5, 1e-9, 1e-9));
+        assertTrue(r.passed(), r::toText);
+        assertEquals(2, r.outputs().size());
+        assertEquals("healthy", r.outputs().get(1).outputB());
+        assertEquals(800, r.points());
+        CompiledCircuit c = compile(withOutputs(doc, List.of(new Output("joint", 14), new Output("worn", 13))));
+        IncompatibleCircuitsException e = assertThrows(IncompatibleCircuitsException.class,
+                () -> CircuitComparison.compare(a, c, CompareOptions.DEFAULT));
+        assertTrue(e.getMessage().contains("the outputs differ: [healthy, joint] in the first circuit, [joint, worn] in the second"),
+                e.getMessage());
+    }
+
     @Test
     void compare_sameSeed_sameReport() throws Exception {
         CompiledCircuit a = compile(pump(0.8, false));
