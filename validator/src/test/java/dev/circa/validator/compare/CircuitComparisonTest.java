@@ -224,6 +224,18 @@ class CircuitComparisonTest {
         return nodes;
     }
 
+    @Test
+    void identical_oneParameterOneUlpApart_notIdenticalButAgree() throws Exception {
+        CircuitDocument doc = pump(0.8, false);
+        List<Node> nodes = new ArrayList<>(doc.nodes());
+        nodes.set(0, new InputNode(0, null, Family.NORMAL, new int[] {0}, new double[] {Math.nextUp(3.1), 0.2}, false));
+        CircuitDocument moved = CircuitDocument.builder().variables(doc.variables()).nodes(nodes).outputs(doc.outputs()).build();
+        CompiledCircuit a = compile(doc);
+        CompiledCircuit b = compile(moved);
+        assertFalse(StructuralIdentity.identical(a, b));
+        assertTrue(CircuitComparison.compare(a, b, new CompareOptions(200, 9, 1e-9, 1e-9)).passed());
+    }
+
     private static CircuitDocument withOutputs(CircuitDocument doc, List<Output> outputs) {
         return CircuitDocument.builder().variables(doc.variables()).nodes(doc.nodes()).outputs(outputs).build();
     }
