@@ -72,7 +72,9 @@ class CliMalformedInputTest {
     }
 
     @Test
-    void sampleAndEval_malformedCircuits_status2OneMessageNamingTheFile() throws IOException {
+    void everyCommand_malformedCircuits_status2OneMessageNamingTheFile() throws IOException {
+        Path good = dir.resolve("good.json");
+        Files.writeString(good, example);
         for (Case c : circuits()) {
             Path f = dir.resolve(c.file());
             Files.write(f, c.content());
@@ -80,6 +82,12 @@ class CliMalformedInputTest {
             Cli.assertUnusable(sample, f.toString(), c.fragment());
             Cli.Result eval = Cli.run("eval", f.toString(), "--data", data.toString(), "-o", out.toString());
             Cli.assertUnusable(eval, f.toString(), c.fragment());
+            String[][] others = {{"check", f.toString()}, {"compare", f.toString(), good.toString()},
+                {"compare", good.toString(), f.toString()}, {"normalize", f.toString(), "-o", out.toString()},
+                {"render", f.toString(), "-o", out.toString()}};
+            for (String[] args : others) {
+                Cli.assertUnusable(Cli.run(args), f.toString(), c.fragment());
+            }
             assertFalse(Files.exists(out), c.name() + ": an output was written");
             if (c.file().equals("dangling.json")) {
                 // a model was built: validate reports its error diagnostic with status 1 (CLI.md)
@@ -93,6 +101,22 @@ class CliMalformedInputTest {
             }
             Cli.assertUnusable(Cli.run("inspect", f.toString()), f.toString(), c.fragment());
         }
+    }
+
+    @Test
+    void check_referenceCellNotAValue_status2NamingFileLineAndColumn() throws IOException {
+        Path f = dir.resolve("example.json");
+        Files.writeString(f, example);
+        String[][] rows = {{"3.0,wide,0.1", "valve"}, {"3.0,open,high", "log-density"}, {"3.0,open,NaN", "log-density"},
+            {"3.0,open,1e999999", "out of double range"}, {"x,open,0.1", "inlet_pressure"}};
+        for (String[] row : rows) {
+            Path ref = dir.resolve("ref.csv");
+            Files.writeString(ref, "inlet_pressure,valve,log_density\n3.0,open,0.18261296103078395\n" + row[0] + "\n");
+            Cli.assertUnusable(Cli.run("check", f.toString(), "--reference", ref.toString()), ref + ":3:", row[1]);
+        }
+        Path ref = dir.resolve("unknown.csv");
+        Files.writeString(ref, "inlet_pressure,flow,log_density\n3.0,1,0.1\n");
+        Cli.assertUnusable(Cli.run("check", f.toString(), "--reference", ref.toString()), ref + ":1:", "flow");
     }
 
     @Test
