@@ -26,7 +26,8 @@ import org.junit.jupiter.api.io.TempDir;
 /**
  * No command fetches what a document names (issue 8): a circuit naming a schema and {@code $ref}s on
  * a local server, at the top level, in its variables and in its extensions, is read, evaluated,
- * imputed, sampled and validated against the bundled schemas while the server counts zero connections. The server listens on the
+ * imputed, sampled, checked, compared, normalised, rendered and validated against the bundled schemas
+ * while the server counts zero connections. The server listens on the
  * loopback address only and stops with the test.
  */
 class CliNoNetworkTest {
@@ -112,6 +113,10 @@ class CliNoNetworkTest {
             runs.add(new String[] {"impute", circuit.toString(), "--data", data.toString(), "-o", dir.resolve("i.csv").toString()});
             runs.add(new String[] {"sample", circuit.toString(), "-n", "20", "-o", dir.resolve("s.csv").toString()});
             runs.add(new String[] {"inspect", circuit.toString()});
+            runs.add(new String[] {"check", circuit.toString()});
+            runs.add(new String[] {"compare", circuit.toString(), Cli.EXAMPLE.toString(), "--samples", "50"});
+            runs.add(new String[] {"normalize", circuit.toString(), "-o", dir.resolve("n.json").toString()});
+            runs.add(new String[] {"render", circuit.toString(), "-o", dir.resolve("r.dot").toString()});
             for (String[] args : runs) {
                 Cli.Result r = Cli.run(args);
                 Cli.assertNoStackTrace(r);

@@ -75,6 +75,22 @@ class CliOutputSafetyTest {
     }
 
     @Test
+    void normalizeAndRender_failingCircuit_existingOutputUntouched() throws IOException {
+        Path bad = dir.resolve("bad.json");
+        Files.writeString(bad, Files.readString(circuit).replace("\"product\": [0, 1]", "\"product\": [0, 0]"));
+        Path existing = dir.resolve("existing.out");
+        for (String command : List.of("normalize", "render")) {
+            Files.write(existing, OLD);
+            String[] before = Cli.listing(dir);
+            Cli.Result r = Cli.run(command, bad.toString(), "-o", existing.toString());
+            assertEquals(ExitStatus.UNUSABLE, r.status(), r::describe);
+            Cli.assertNoStackTrace(r);
+            assertArrayEquals(OLD, Files.readAllBytes(existing), command);
+            assertArrayEquals(before, Cli.listing(dir), command);
+        }
+    }
+
+    @Test
     void everyCommand_inputsChecksummedBeforeAndAfter_unchanged() throws IOException {
         Path gz = dir.resolve("x.json.gz");
         Files.write(gz, CliMalformedInputTest.gzip(Files.readAllBytes(circuit)));
@@ -87,6 +103,12 @@ class CliOutputSafetyTest {
         runs.add(new String[] {"eval", gz.toString(), "--data", data.toString(), "--given", "valve", "-o", dir.resolve("g.csv").toString()});
         runs.add(new String[] {"impute", circuit.toString(), "--data", data.toString(), "-o", dir.resolve("i.csv").toString()});
         runs.add(new String[] {"sample", gz.toString(), "-n", "50", "--seed", "3", "-o", dir.resolve("s.csv.gz").toString()});
+        runs.add(new String[] {"validate", circuit.toString(), gz.toString(), "--format", "sarif"});
+        runs.add(new String[] {"inspect", gz.toString()});
+        runs.add(new String[] {"check", circuit.toString()});
+        runs.add(new String[] {"compare", circuit.toString(), gz.toString(), "--samples", "50"});
+        runs.add(new String[] {"normalize", gz.toString(), "-o", dir.resolve("n.json").toString()});
+        runs.add(new String[] {"render", circuit.toString(), "-o", dir.resolve("r.dot").toString()});
         for (String[] args : runs) {
             Cli.Result r = Cli.run(args);
             assertEquals(ExitStatus.OK, r.status(), r::describe);
@@ -114,6 +136,9 @@ class CliOutputSafetyTest {
             }
             Cli.assertUnusable(Cli.run("sample", circuit.toString(), "-n", "5", "-o", target), target,
                     "refusing to write over an input file");
+            for (String command : List.of("normalize", "render")) {
+                Cli.assertUnusable(Cli.run(command, circuit.toString(), "-o", target), target, "refusing to write over an input file");
+            }
         }
         for (String target : List.of(data.toString(), sub + "/../readings.csv", dataLink.toString(), hard.toString())) {
             Cli.Result r = Cli.run("eval", circuit.toString(), "--data", data.toString(), "-o", target);
