@@ -21,6 +21,10 @@ import org.snakeyaml.engine.v2.exceptions.MarkedYamlEngineException;
  * which {@link dev.circa.format.io.JsonInput} passes through unchanged.
  */
 final class YamlGuard extends JsonParserDelegate {
+    /** The YAML 1.2 core schema's spellings of infinity and NaN (yaml.org spec 1.2.2, section 10.3.2). */
+    private static final java.util.regex.Pattern NON_FINITE =
+            java.util.regex.Pattern.compile("[-+]?\\.(inf|Inf|INF)|\\.(nan|NaN|NAN)");
+
     private final String file;
 
     YamlGuard(JsonParser yaml, String file) {
@@ -58,11 +62,11 @@ final class YamlGuard extends JsonParserDelegate {
             throw fail(here("the YAML tag " + y.getRawTag() + " is not allowed in a mixture document; "
                     + "expected an untagged value"));
         }
-        if (t == JsonToken.VALUE_NUMBER_FLOAT) {
+        if (t == JsonToken.VALUE_NUMBER_FLOAT || t == JsonToken.VALUE_STRING) {
             String s = y.getText();
-            String lower = s.toLowerCase(java.util.Locale.ROOT);
-            if (lower.endsWith(".inf") || lower.equals(".nan")) {
-                throw fail(here(s + " is not allowed in a mixture document; expected a finite number"));
+            if (NON_FINITE.matcher(s).matches()) {
+                throw fail(here(s + " (a YAML infinity or NaN) is not allowed in a mixture document; "
+                        + "expected a finite number"));
             }
         }
         return t;
