@@ -60,8 +60,8 @@ final class CheckedModel {
                         if (owner[v] >= 0) {
                             Expression f = p.factors().get(j);
                             throw error(doc, f.location(), f.path(), "variable " + name(doc, v)
-                                    + " is used twice in one product (by " + p.path() + "[" + owner[v] + "] and "
-                                    + p.path() + "[" + j + "]); a product's factors must be over disjoint variables "
+                                    + " is used twice in one product (by " + p.path() + ".product[" + owner[v]
+                                    + "] and " + p.path() + ".product[" + j + "]); a product's factors must be over disjoint variables "
                                     + "(decomposable)");
                         }
                         owner[v] = j;
@@ -78,6 +78,7 @@ final class CheckedModel {
                 scopes[i] = s;
             } else {
                 MixtureExpr m = (MixtureExpr) e;
+                String mp = m.path() + ".mixture";
                 int[] first = scopes[kids[0]];
                 for (int j = 1; j < kids.length; j++) {
                     int[] other = scopes[kids[j]];
@@ -85,10 +86,10 @@ final class CheckedModel {
                         Expression c = m.entries().get(j).expression();
                         int v = firstDifference(first, other);
                         boolean inFirst = java.util.Arrays.binarySearch(first, v) >= 0;
-                        throw error(doc, c.location(), c.path(), "the components of " + m.path()
-                                + " are over different variables: " + name(doc, v) + " is in " + m.path()
-                                + (inFirst ? "[0] but not in " + m.path() + "[" + j + "]"
-                                        : "[" + j + "] but not in " + m.path() + "[0]")
+                        throw error(doc, c.location(), c.path(), "the components of " + mp
+                                + " are over different variables: " + name(doc, v) + " is in " + mp
+                                + (inFirst ? "[0] but not in " + mp + "[" + j + "]"
+                                        : "[" + j + "] but not in " + mp + "[0]")
                                 + "; every component of a mixture must be over the same variables (smooth)");
                     }
                 }
@@ -99,7 +100,7 @@ final class CheckedModel {
                     w[j] = entry.weight();
                     at[j] = entry.weightLocation();
                 }
-                weights[i] = checkWeights(doc, w, at, m.location(), m.path(), "mixture", normalizeWeights);
+                weights[i] = checkWeights(doc, w, at, m.location(), mp, normalizeWeights);
                 scopes[i] = first;
             }
         }
@@ -131,7 +132,7 @@ final class CheckedModel {
     }
 
     private static double[] checkWeights(MixtureDocument doc, double[] w, SourceLocation[] at, SourceLocation whole,
-            String path, String what, boolean normalize) throws FormatException {
+            String path, boolean normalize) throws FormatException {
         double sum = 0;
         for (int j = 0; j < w.length; j++) {
             if (!(w[j] >= 0)) {
@@ -147,7 +148,7 @@ final class CheckedModel {
             return w.clone();
         }
         if (!normalize) {
-            throw error(doc, whole, path, "the weights of " + what + " " + path + " add to " + fmt(sum)
+            throw error(doc, whole, path, "the weights of " + path + " add to " + fmt(sum)
                     + " (expected 1 +/- " + fmt(SUM_TOLERANCE) + "); correct them, or rescale them on purpose with "
                     + "--normalize-weights");
         }
@@ -171,7 +172,7 @@ final class CheckedModel {
                         + " is negative; expected a weight >= 0");
             }
         }
-        double[] eff = checkWeights(doc, w, at, gm.location(), path + ".weights", "gaussian-mixture", normalize);
+        double[] eff = checkWeights(doc, w, at, gm.location(), path, normalize);
         String shape = gm.diagonal() ? ".variances" : ".covariances";
         for (int c = 0; c < gm.components(); c++) {
             SourceLocation l = gm.componentLocations()[c];
