@@ -310,7 +310,7 @@ final class CheckedModel {
     }
 
     static String fmt(double v) {
-        return String.format(Locale.ROOT, "%.10g", v).replaceAll("\\.?0+(e|$)", "$1");
+        return Numbers.format(v, 10);
     }
 
     static FormatException error(MixtureDocument doc, SourceLocation l, String path, String problem) {

@@ -81,15 +81,6 @@ public record VerificationResult(List<String> variables, int points, int failure
     }
 
     private static String num(double v) {
-        if (v == Double.NEGATIVE_INFINITY) {
-            return "-inf";
-        }
-        if (v == Double.POSITIVE_INFINITY) {
-            return "inf";
-        }
-        if (Double.isNaN(v)) {
-            return "NaN";
-        }
-        return String.format(Locale.ROOT, "%.6g", v);
+        return Numbers.format(v, 6);
     }
 }
