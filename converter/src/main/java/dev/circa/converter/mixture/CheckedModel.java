@@ -43,6 +43,7 @@ final class CheckedModel {
         double[][] weights = new double[n][];
         int varCount = doc.variables().size();
         int[] owner = new int[varCount];
+        java.util.Arrays.fill(owner, -1);
         for (int i = 0; i < n; i++) {
             Expression e = g.items().get(i);
             int[] kids = g.children(i);
@@ -53,28 +54,29 @@ final class CheckedModel {
                 weights[i] = checkGaussianMixture(doc, gm, normalizeWeights);
                 scopes[i] = sorted(gm.vars());
             } else if (e instanceof ProductExpr p) {
-                java.util.Arrays.fill(owner, -1);
                 int total = 0;
+                for (int k : kids) {
+                    total += scopes[k].length;
+                }
+                int[] s = new int[total];
+                int filled = 0;
                 for (int j = 0; j < kids.length; j++) {
                     for (int v : scopes[kids[j]]) {
                         if (owner[v] >= 0) {
                             Expression f = p.factors().get(j);
                             throw error(doc, f.location(), f.path(), "variable " + name(doc, v)
                                     + " is used twice in one product (by " + p.path() + ".product[" + owner[v]
-                                    + "] and " + p.path() + ".product[" + j + "]); a product's factors must be over disjoint variables "
-                                    + "(decomposable)");
+                                    + "] and " + p.path() + ".product[" + j + "]); a product's factors must be over "
+                                    + "disjoint variables (decomposable)");
                         }
                         owner[v] = j;
-                        total++;
+                        s[filled++] = v;
                     }
                 }
-                int[] s = new int[total];
-                int k = 0;
-                for (int v = 0; v < varCount; v++) {
-                    if (owner[v] >= 0) {
-                        s[k++] = v;
-                    }
+                for (int v : s) {
+                    owner[v] = -1;
                 }
+                java.util.Arrays.sort(s);
                 scopes[i] = s;
             } else {
                 MixtureExpr m = (MixtureExpr) e;
