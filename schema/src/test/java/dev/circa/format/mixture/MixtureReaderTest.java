@@ -239,4 +239,29 @@ class MixtureReaderTest {
         assertEquals(ReadLimits.MAX_DEPTH, e.option());
         assertEquals(6, e.line(), e.getMessage());
     }
+
+    @Test
+    void read_nameWithoutSyntax_decidedByContent(@TempDir Path dir) throws Exception {
+        Path yaml = dir.resolve("model.txt");
+        Files.writeString(yaml, FORMAT_EXAMPLE);
+        assertEquals("pump-station-regimes", MixtureReader.read(yaml, ReadLimits.DEFAULT).name());
+        Path json = dir.resolve("model.mix");
+        Files.writeString(json, "  {\"format\": \"circa.mixture\", \"version\": \"1.0\", \"variables\": "
+                + "[{\"name\": \"x\", \"type\": \"real\"}], \"model\": {\"var\": \"x\", "
+                + "\"normal\": {\"mean\": 0, \"sd\": 1}} ,}");
+        FormatException e = assertThrows(FormatException.class, () -> MixtureReader.read(json, ReadLimits.DEFAULT));
+        assertTrue(e.problem().startsWith("not valid JSON"), e.getMessage());
+        assertEquals(MixtureReader.Syntax.YAML, MixtureReader.syntaxOf(Path.of("a.yml.gz")));
+        assertEquals(MixtureReader.Syntax.JSON, MixtureReader.syntaxOf(Path.of("a.JSON")));
+        assertEquals(null, MixtureReader.syntaxOf(Path.of("a.txt")));
+    }
+
+    @Test
+    void read_labelLongerThanMaxString_namesTheLimit() {
+        String text = FORMAT_EXAMPLE.replace("label: cavitation", "label: " + "c".repeat(100));
+        LimitExceededException e = assertThrows(LimitExceededException.class,
+                () -> MixtureReader.readString(text, "doc.yaml", ReadLimits.DEFAULT.withMaxString(50)));
+        assertEquals(ReadLimits.MAX_STRING, e.option());
+        assertTrue(e.line() > 0, e.getMessage());
+    }
 }
