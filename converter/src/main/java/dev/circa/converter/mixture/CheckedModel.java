@@ -11,8 +11,6 @@ import dev.circa.format.mixture.MixtureDocument;
 import dev.circa.format.mixture.MixtureEntry;
 import dev.circa.format.mixture.MixtureExpr;
 import dev.circa.format.mixture.ProductExpr;
-import java.util.ArrayList;
-import java.util.List;
 import java.util.Locale;
 
 /**
@@ -317,13 +315,5 @@ final class CheckedModel {
 
     static FormatException error(MixtureDocument doc, SourceLocation l, String path, String problem) {
         return new FormatException(doc.source(), l.line(), l.column(), path, problem);
-    }
-
-    static List<String> names(MixtureDocument doc, int[] vars) {
-        List<String> l = new ArrayList<>();
-        for (int v : vars) {
-            l.add(name(doc, v));
-        }
-        return l;
     }
 }

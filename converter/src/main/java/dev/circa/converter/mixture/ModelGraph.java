@@ -4,8 +4,6 @@ import dev.circa.format.SourceLocation;
 import dev.circa.format.io.FormatException;
 import dev.circa.format.mixture.Definition;
 import dev.circa.format.mixture.Expression;
-import dev.circa.format.mixture.GaussianMixtureExpr;
-import dev.circa.format.mixture.InputExpr;
 import dev.circa.format.mixture.MixtureDocument;
 import dev.circa.format.mixture.MixtureExpr;
 import dev.circa.format.mixture.ProductExpr;
@@ -13,7 +11,6 @@ import dev.circa.format.mixture.UseExpr;
 import java.util.ArrayList;
 import java.util.IdentityHashMap;
 import java.util.List;
-import java.util.Map;
 
 /**
  * The expressions of a mixture document reachable from its model, each once, children first, with
@@ -170,13 +167,5 @@ final class ModelGraph {
     /** Number of items. */
     int size() {
         return items.size();
-    }
-
-    static boolean isLeaf(Expression e) {
-        return e instanceof InputExpr || e instanceof GaussianMixtureExpr;
-    }
-
-    static Map<String, Definition> definitions(MixtureDocument doc) {
-        return doc.definitions();
     }
 }
