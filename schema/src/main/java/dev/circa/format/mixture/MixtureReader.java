@@ -228,6 +228,7 @@ public final class MixtureReader {
         private final ReadLimits limits;
         private final String file;
         private final List<ReadFinding> unknown = new ArrayList<>();
+        private final List<String> unknownPaths = new ArrayList<>();
         private final List<Variable> variables = new ArrayList<>();
         private final List<SourceLocation> variableLocations = new ArrayList<>();
         private final Map<String, Integer> variableIndex = new LinkedHashMap<>();
@@ -259,18 +260,18 @@ public final class MixtureReader {
                 String ptr = "/" + escape(member);
                 switch (member) {
                     case "format" -> {
-                        format = in.readString(ptr);
+                        format = in.readString(member);
                         if (!MixtureDocument.FORMAT.equals(format)) {
-                            throw in.error(ptr, "unknown format \"" + format + "\"; expected \""
+                            throw in.error(member, "unknown format \"" + format + "\"; expected \""
                                     + MixtureDocument.FORMAT + "\"");
                         }
                     }
                     case "version" -> {
-                        version = readScalarText(ptr);
-                        checkVersion(version, ptr);
+                        version = readScalarText(member);
+                        checkVersion(version, member);
                     }
-                    case "name" -> name = in.readString(ptr);
-                    case "description" -> description = in.readString(ptr);
+                    case "name" -> name = in.readString(member);
+                    case "description" -> description = in.readString(member);
                     case "provenance" -> provenance = readProvenance(ptr);
                     case "variables" -> {
                         readVariables(ptr);
@@ -282,11 +283,11 @@ public final class MixtureReader {
                         model = readExpression("model", ptr, false);
                     }
                     case "extensions" -> {
-                        in.expect(JsonToken.START_OBJECT, ptr, "an object");
+                        in.expect(JsonToken.START_OBJECT, member, "an object");
                         in.readTree();
                     }
                     default -> {
-                        unknown(ptr, "unknown property \"" + member + "\" in a mixture document; expected format, "
+                        unknown(ptr, member, "unknown property \"" + member + "\" in a mixture document; expected format, "
                                 + "version, name, description, provenance, variables, definitions, model or extensions");
                         in.skipValue();
                     }
@@ -311,7 +312,7 @@ public final class MixtureReader {
                 if (!unknown.isEmpty()) {
                     ReadFinding f = unknown.get(0);
                     throw new FormatException(file, f.location().line(), f.location().column(),
-                            f.location().pointer(), f.message());
+                            unknownPaths.get(0), f.message());
                 }
             } else {
                 for (ReadFinding f : unknown) {
@@ -346,8 +347,9 @@ public final class MixtureReader {
             return new FormatException(file, l.line(), l.column(), path, problem);
         }
 
-        private void unknown(String ptr, String message) {
+        private void unknown(String ptr, String path, String message) {
             unknown.add(new ReadFinding(ReadFinding.Kind.UNKNOWN_PROPERTY, message, here(ptr)));
+            unknownPaths.add(path);
         }
 
         private void checkVersion(String version, String ptr) throws FormatException {
@@ -380,7 +382,7 @@ public final class MixtureReader {
         }
 
         private Provenance readProvenance(String ptr) throws FormatException {
-            in.expect(JsonToken.START_OBJECT, ptr, "an object {producer, created, source}");
+            in.expect(JsonToken.START_OBJECT, "provenance", "an object {producer, created, source}");
             String producer = null;
             String created = null;
             String source = null;
@@ -388,11 +390,11 @@ public final class MixtureReader {
             while ((m = in.nextProperty()) != null) {
                 String q = ptr + "/" + escape(m);
                 switch (m) {
-                    case "producer" -> producer = in.readString(q);
-                    case "created" -> created = readScalarText(q);
-                    case "source" -> source = in.readString(q);
+                    case "producer" -> producer = in.readString("provenance.producer");
+                    case "created" -> created = readScalarText("provenance.created");
+                    case "source" -> source = in.readString("provenance.source");
                     default -> {
-                        unknown(q, "unknown property \"" + m + "\" in provenance; expected producer, created or source");
+                        unknown(q, "provenance." + m, "unknown property \"" + m + "\" in provenance; expected producer, created or source");
                         in.skipValue();
                     }
                 }
@@ -401,7 +403,7 @@ public final class MixtureReader {
         }
 
         private void readVariables(String ptr) throws FormatException {
-            in.expect(JsonToken.START_ARRAY, ptr, "a list of variables");
+            in.expect(JsonToken.START_ARRAY, "variables", "a list of variables");
             while (in.nextElement()) {
                 String p = ptr + "/" + variables.size();
                 String path = "variables[" + variables.size() + "]";
@@ -436,7 +438,7 @@ public final class MixtureReader {
                         case "unit" -> unit = in.readString(qp);
                         case "description" -> description = in.readString(qp);
                         default -> {
-                            unknown(q, "unknown property \"" + m + "\" in a variable; expected name, type, states, "
+                            unknown(q, qp, "unknown property \"" + m + "\" in a variable; expected name, type, states, "
                                     + "unit or description");
                             in.skipValue();
                         }
@@ -543,7 +545,7 @@ public final class MixtureReader {
                     if (m.equals("weight")) {
                         throw in.error(qp, "\"weight\" belongs in a mixture entry; this expression is not one");
                     }
-                    unknown(q, "unknown property \"" + m + "\" in an expression; expected label, "
+                    unknown(q, qp, "unknown property \"" + m + "\" in an expression; expected label, "
                             + (entry ? "weight, " : "") + "mixture, product, use, gaussian-mixture, "
                             + "or var/vars with an input family");
                     in.skipValue();

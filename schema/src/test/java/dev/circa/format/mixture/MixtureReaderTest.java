@@ -191,14 +191,14 @@ class MixtureReaderTest {
                         6, 52, "model.product", "both \"normal\" and \"product\""),
                 new Bad("no kind", HEAD + "model: {label: empty}\n", 6, 8, "model", "needs one of mixture"),
                 new Bad("unknown property", HEAD + "model: {var: x, normal: {mean: 0, sd: 1}, colour: red}\n",
-                        6, 51, "/model/colour", "unknown property \"colour\""),
+                        6, 51, "model.colour", "unknown property \"colour\""),
                 new Bad("missing parameter", HEAD + "model: {var: x, normal: {mean: 0}}\n",
                         6, 25, "model.normal", "normal needs \"sd\""),
                 new Bad("duplicate key", HEAD + "model: {var: x, var: x, normal: {mean: 0, sd: 1}}\n",
                         6, 20, null, "duplicate key"),
                 new Bad("yaml syntax", HEAD + "model: {var: x, normal: {mean: 0, sd: 1}\n", 7, 1, null,
                         "not valid YAML"),
-                new Bad("wrong format", "format: circa.circuit\n", 1, 9, "/format", "unknown format"));
+                new Bad("wrong format", "format: circa.circuit\n", 1, 9, "format", "unknown format"));
         for (Bad b : table) {
             FormatException e = assertThrows(FormatException.class, () -> read(b.text()), b.name());
             assertEquals(b.line(), e.line(), b.name() + ": " + e.getMessage());
