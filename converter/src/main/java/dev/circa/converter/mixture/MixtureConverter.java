@@ -52,6 +52,17 @@ public final class MixtureConverter {
         return CircuitEmitter.emit(CheckedModel.of(doc, options.normalizeWeights()));
     }
 
+    /**
+     * Converts {@code doc} and compares the circuit's log-density (by the engine) with the source's (by
+     * {@link MixtureDensity}) at {@link MixtureOptions#verifyPoints()} points sampled from the source
+     * by {@link MixtureSampler}, and at the same points with random variables missing.
+     *
+     * @throws FormatException on an authoring mistake, located in the document
+     */
+    public static Result convert(MixtureDocument doc, MixtureOptions options) throws FormatException {
+        return convert(doc, options, EngineDensity::of);
+    }
+
     static Result convert(MixtureDocument doc, MixtureOptions options,
             Function<CircuitDocument, CircuitLogDensity> evaluator) throws FormatException {
         CheckedModel model = CheckedModel.of(doc, options.normalizeWeights());
