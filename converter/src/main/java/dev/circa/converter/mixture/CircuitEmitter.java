@@ -84,6 +84,37 @@ final class CircuitEmitter {
                 .build();
     }
 
+    /** How many covariances of {@code model} (mvnormal inputs and Gaussian-mixture components) split into blocks. */
+    static int splitCount(CheckedModel model) {
+        int count = 0;
+        for (Expression e : model.graph().items()) {
+            if (e instanceof InputExpr in && in.family() == Family.MVNORMAL) {
+                int d = in.vars().length;
+                if (BlockSplit.blocks(java.util.Arrays.copyOfRange(in.params(), d, d + d * d), d).length > 1) {
+                    count++;
+                }
+            } else if (e instanceof GaussianMixtureExpr gm) {
+                for (double[] cov : gm.covariances()) {
+                    if (gm.dimension() > 1 && BlockSplit.blocks(cov, gm.dimension()).length > 1) {
+                        count++;
+                    }
+                }
+            }
+        }
+        return count;
+    }
+
+    /** How many definitions of {@code model} are in the circuit (each as one shared node). */
+    static int definitionCount(CheckedModel model) {
+        int count = 0;
+        for (Expression e : model.graph().items()) {
+            if (model.graph().definitionName(e) != null) {
+                count++;
+            }
+        }
+        return count;
+    }
+
     /** A normal vector as one input, or as a product of one input per independent block. */
     private int gaussian(String label, int[] vars, double[] mean, double[] cov) {
         int d = vars.length;

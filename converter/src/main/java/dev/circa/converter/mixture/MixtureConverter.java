@@ -33,13 +33,18 @@ public final class MixtureConverter {
      *
      * @param circuit the circuit
      * @param verification its comparison with the source
+     * @param definitions how many definitions became (shared) nodes
+     * @param splitCovariances how many covariances were split into independent blocks
      */
-    public record Result(CircuitDocument circuit, VerificationResult verification) {
+    public record Result(CircuitDocument circuit, VerificationResult verification, int definitions,
+            int splitCovariances) {
         /** Sizes and the verification verdict, for people. */
         public String summary() {
-            return String.format(Locale.ROOT, "converted %s: %d variables, %d nodes, %d edges%n%s",
+            return String.format(Locale.ROOT, "converted %s: %d variables, %d nodes, %d edges; %d definition%s "
+                    + "(one node each), %d covariance%s split into independent blocks%n%s",
                     circuit.name() == null ? "the mixture" : circuit.name(), circuit.variables().size(),
-                    circuit.nodes().size(), circuit.edgeCount(), verification.summary());
+                    circuit.nodes().size(), circuit.edgeCount(), definitions, definitions == 1 ? "" : "s",
+                    splitCovariances, splitCovariances == 1 ? "" : "s", verification.summary());
         }
     }
 
@@ -71,6 +76,6 @@ public final class MixtureConverter {
                 ? Verifier.verify(model, null, 0, options.atol(), options.rtol(), options.seed())
                 : Verifier.verify(model, evaluator.apply(circuit), options.verifyPoints(), options.atol(),
                         options.rtol(), options.seed());
-        return new Result(circuit, v);
+        return new Result(circuit, v, CircuitEmitter.definitionCount(model), CircuitEmitter.splitCount(model));
     }
 }

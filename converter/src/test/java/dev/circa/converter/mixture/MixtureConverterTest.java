@@ -27,6 +27,9 @@ class MixtureConverterTest {
         assertTrue(r.verification().passed(), r.summary());
         assertEquals(2000, r.verification().points());
         assertTrue(r.summary().contains("passed"), r.summary());
+        // the fixture has two definitions and two block-diagonal covariances (read off the file)
+        assertEquals(2, r.definitions());
+        assertEquals(2, r.splitCovariances());
         ConversionAssertions.assertValid(r.circuit());
     }
 
