@@ -254,7 +254,6 @@ public final class MixtureReader {
             Provenance provenance = null;
             boolean sawVariables = false;
             Raw model = null;
-            SourceLocation modelLocation = null;
             String member;
             while ((member = in.nextProperty()) != null) {
                 String ptr = "/" + escape(member);
@@ -278,10 +277,7 @@ public final class MixtureReader {
                         sawVariables = true;
                     }
                     case "definitions" -> readDefinitions(ptr);
-                    case "model" -> {
-                        modelLocation = here(ptr);
-                        model = readExpression("model", ptr, false);
-                    }
+                    case "model" -> model = readExpression("model", ptr, false);
                     case "extensions" -> {
                         in.expect(JsonToken.START_OBJECT, member, "an object");
                         in.readTree();
