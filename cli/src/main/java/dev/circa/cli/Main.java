@@ -9,9 +9,11 @@ import picocli.CommandLine.Command;
 @Command(name = "circa", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Validate, convert, check and evaluate probabilistic circuit files.",
         subcommands = {
+            ValidateCommand.class,
             EvalCommand.class,
             ImputeCommand.class,
             SampleCommand.class,
+            InspectCommand.class,
             CommandLine.HelpCommand.class
         })
 public final class Main implements Runnable {
