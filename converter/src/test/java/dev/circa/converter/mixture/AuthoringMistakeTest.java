@@ -122,6 +122,7 @@ class AuthoringMistakeTest {
                         - {weight: 0.3, var: pressure, normal: {mean: 2, sd: 1}}
                     - {var: valve, categorical: [0.5, 0.5]}
                 """, true);
+        ConversionAssertions.assertValid(c);
         SumNode sum = (SumNode) c.nodes().get(2);
         // 0.6 / 0.9 and 0.3 / 0.9 (arithmetic)
         assertEquals(2.0 / 3.0, sum.weight(0), 1e-15);
@@ -139,5 +140,6 @@ class AuthoringMistakeTest {
         y.append("model: {use: d").append(n - 1).append("}\n");
         CircuitDocument c = convert(y.toString(), false);
         assertEquals(3, c.nodes().size());
+        ConversionAssertions.assertValid(c);
     }
 }

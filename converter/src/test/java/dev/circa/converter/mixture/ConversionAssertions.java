@@ -9,6 +9,13 @@ import dev.circa.format.CircuitDocument;
 import dev.circa.format.io.CircuitReader;
 import dev.circa.format.io.CircuitWriter;
 import dev.circa.format.mixture.MixtureDocument;
+import dev.circa.validator.Property;
+import dev.circa.validator.SchemaCheck;
+import dev.circa.validator.Severity;
+import dev.circa.validator.ValidationOptions;
+import dev.circa.validator.ValidationReport;
+import dev.circa.validator.Validator;
+import dev.circa.validator.Verdict;
 import java.io.ByteArrayInputStream;
 import java.io.ByteArrayOutputStream;
 import java.nio.charset.StandardCharsets;
@@ -36,8 +43,8 @@ final class ConversionAssertions {
 
     /**
      * The circuit, written and read back, is the same circuit (bit for bit), with nothing unknown in
-     * it, and the engine compiles it (every reference earlier, every family fits its variable). The
-     * validator's verdict (smooth, decomposable, normalized) joins here once the validator is on main.
+     * it; the engine compiles it; and the validator, schema included, finds it valid with its default
+     * requirements (smooth, decomposable, normalized) and without warnings.
      */
     static void assertValid(CircuitDocument circuit) throws Exception {
         ByteArrayOutputStream first = new ByteArrayOutputStream();
@@ -49,5 +56,10 @@ final class ConversionAssertions {
         assertEquals(first.toString(StandardCharsets.UTF_8), second.toString(StandardCharsets.UTF_8));
         assertTrue(back.findings().isEmpty(), () -> back.findings().toString());
         CompiledCircuit.compile(back);
+        ValidationReport report = new Validator(ValidationOptions.defaults(), SchemaCheck.BUNDLED)
+                .validate(first.toString(StandardCharsets.UTF_8), "converted.json");
+        assertTrue(report.valid(), () -> report.diagnostics().toString());
+        assertEquals(0, report.count(Severity.WARNING), () -> report.diagnostics().toString());
+        assertEquals(Verdict.TRUE, report.property(Property.NORMALIZED), () -> report.diagnostics().toString());
     }
 }

@@ -47,7 +47,8 @@ class ConverterStructureTest {
         return MixtureReader.readString(text, "model.yaml", ReadLimits.DEFAULT);
     }
 
-    private static void childrenFirstWithDenseIds(CircuitDocument c) {
+    private static void childrenFirstWithDenseIds(CircuitDocument c) throws Exception {
+        ConversionAssertions.assertValid(c);
         for (int i = 0; i < c.nodes().size(); i++) {
             Node n = c.nodes().get(i);
             assertEquals(i, n.id());
