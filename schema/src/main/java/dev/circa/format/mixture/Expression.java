@@ -8,7 +8,7 @@ import dev.circa.format.SourceLocation;
  * {@code model.mixture[1].product[0]}) and its source location (JSON pointer, line, column).
  */
 public sealed interface Expression permits MixtureExpr, ProductExpr, UseExpr, InputExpr, GaussianMixtureExpr {
-    /** The optional {@code label}, or {@code null}. */
+    /** The {@code label} of the mixture entry this expression is written in, or {@code null}. */
     String label();
 
     /** The model path, e.g. {@code model.mixture[1].product[0]} or {@code definitions.worn-valve}. */

@@ -155,10 +155,6 @@ final class InputResolver {
     private static double[] categorical(Variable v, Located params, String file) throws FormatException {
         int k = v.stateCount();
         Located list = params;
-        if (params.isMap() && params.map().size() == 1 && params.map().containsKey("probs")
-                && v.stateIndex("probs") < 0) {
-            list = params.map().get("probs");
-        }
         if (list.isList()) {
             return numbers(list, file, k, "a list of " + k + " probabilities (one per state of " + v.name() + ")");
         }
@@ -191,31 +187,16 @@ final class InputResolver {
     }
 
     private static double[] indicator(Variable v, Located params, String file) throws FormatException {
-        Located value = params;
-        if (params.isMap()) {
-            if (params.map().size() != 1 || !params.map().containsKey("value")) {
-                throw error(file, params, "indicator expects {value: STATE} or the state alone");
-            }
-            value = params.map().get("value");
+        if (!params.isMap() || params.map().size() != 1 || !params.map().containsKey("value")) {
+            throw error(file, params, "indicator expects {value: STATE_INDEX}, found " + params.describe());
         }
-        int s;
-        if (value.value() instanceof String label) {
-            s = state(v, label);
-            if (s < 0) {
-                throw error(file, value, "unknown state \"" + label + "\" of " + v.name() + "; expected one of "
-                        + String.join(", ", labels(v)));
-            }
-        } else if (value.isNumber()) {
-            double d = (Double) value.value();
-            if (d != Math.rint(d) || d < 0 || d >= v.stateCount()) {
-                throw error(file, value, "state index " + format(d) + " is not a state of " + v.name()
-                        + "; expected an integer from 0 to " + (v.stateCount() - 1));
-            }
-            s = (int) d;
-        } else {
-            throw error(file, value, "indicator expects a state label or index, found " + value.describe());
+        Located value = params.map().get("value");
+        double d = number(value, file);
+        if (d != Math.rint(d) || d < 0 || d >= v.stateCount()) {
+            throw error(file, value, "state index " + format(d) + " is not a state of " + v.name()
+                    + "; expected an integer from 0 to " + (v.stateCount() - 1));
         }
-        return new double[] {s};
+        return new double[] {d};
     }
 
     private static double[] mvnormal(int d, Located params, String file) throws FormatException {

@@ -520,6 +520,10 @@ public final class MixtureReader {
                 String qp = path + "." + m;
                 Family family = Family.fromJsonName(m);
                 if (m.equals("label")) {
+                    if (!entry) {
+                        throw in.error(qp, "\"label\" belongs in a mixture entry; this expression is not one "
+                                + "(a definition is known by its name)");
+                    }
                     label = readScalarText(qp);
                     continue;
                 }
@@ -541,8 +545,8 @@ public final class MixtureReader {
                     if (m.equals("weight")) {
                         throw in.error(qp, "\"weight\" belongs in a mixture entry; this expression is not one");
                     }
-                    unknown(q, qp, "unknown property \"" + m + "\" in an expression; expected label, "
-                            + (entry ? "weight, " : "") + "mixture, product, use, gaussian-mixture, "
+                    unknown(q, qp, "unknown property \"" + m + "\" in an expression; expected "
+                            + (entry ? "weight, label, " : "") + "mixture, product, use, gaussian-mixture, "
                             + "or var/vars with an input family");
                     in.skipValue();
                     continue;

@@ -147,11 +147,12 @@ class MixtureReaderTest {
                 model:
                   product:
                     - {var: survived, categorical: {No: 0.7, Yes: 0.3}}
-                    - {var: class, indicator: 2nd}
+                    - {var: class, indicator: {value: 1}}
                 """);
         assertEquals(List.of("No", "Yes"), doc.variables().get(0).states());
+        assertEquals(List.of("1st", "2nd", "3rd"), doc.variables().get(1).states());
         ProductExpr p = (ProductExpr) doc.model();
-        assertArrayEquals(new double[] {1}, ((InputExpr) p.factors().get(1)).params());
+        assertArrayEquals(new double[] {0.7, 0.3}, ((InputExpr) p.factors().get(0)).params());
     }
 
     /** One malformed document: its expected location, model path and a fragment of the message. */
@@ -189,7 +190,9 @@ class MixtureReaderTest {
                         8, 7, "model.mixture[0]", "needs a \"weight\""),
                 new Bad("two kinds", HEAD + "model: {var: x, normal: {mean: 0, sd: 1}, product: []}\n",
                         6, 52, "model.product", "both \"normal\" and \"product\""),
-                new Bad("no kind", HEAD + "model: {label: empty}\n", 6, 8, "model", "needs one of mixture"),
+                new Bad("no kind", HEAD + "model: {}\n", 6, 8, "model", "needs one of mixture"),
+                new Bad("label outside an entry", HEAD + "model: {label: x, var: x, normal: {mean: 0, sd: 1}}\n",
+                        6, 16, "model.label", "\"label\" belongs in a mixture entry"),
                 new Bad("unknown property", HEAD + "model: {var: x, normal: {mean: 0, sd: 1}, colour: red}\n",
                         6, 51, "model.colour", "unknown property \"colour\""),
                 new Bad("missing parameter", HEAD + "model: {var: x, normal: {mean: 0}}\n",
@@ -263,5 +266,17 @@ class MixtureReaderTest {
                 () -> MixtureReader.readString(text, "doc.yaml", ReadLimits.DEFAULT.withMaxString(50)));
         assertEquals(ReadLimits.MAX_STRING, e.option());
         assertTrue(e.line() > 0, e.getMessage());
+    }
+
+    @Test
+    void read_acceptedDocuments_conformToTheMixtureSchema() throws Exception {
+        // the bundled JSON Schema of the mixture document (schema/src/main/resources, FORMAT.md section 4)
+        tools.jackson.databind.ObjectMapper yaml = tools.jackson.dataformat.yaml.YAMLMapper.builder().build();
+        for (String text : List.of(FORMAT_EXAMPLE, Files.readString(FIXTURE))) {
+            read(text);
+            tools.jackson.databind.JsonNode tree = yaml.readTree(text);
+            assertEquals(List.of(), dev.circa.format.schema.SchemaCatalog.get()
+                    .validate(dev.circa.format.schema.SchemaCatalog.Kind.MIXTURE, tree));
+        }
     }
 }
