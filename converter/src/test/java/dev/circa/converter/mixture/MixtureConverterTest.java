@@ -114,4 +114,43 @@ class MixtureConverterTest {
         assertEquals(java.nio.file.Files.readString(DEMO.resolveSibling("pump-station-regimes.circuit.json")),
                 out.toString(java.nio.charset.StandardCharsets.UTF_8));
     }
+
+    @Test
+    void convert_schemaCorpus_validReadAndConvertedInvalidRejected() throws Exception {
+        // the mixture corpus of the bundled JSON Schema (fixtures/schema-corpus/mixture): what the schema
+        // accepts is read, and converts and verifies unless it breaks a rule the schema cannot state;
+        // what it rejects ends in one located message
+        Path corpus = Path.of("..", "fixtures", "schema-corpus", "mixture");
+        List<Path> valid;
+        List<Path> invalid;
+        try (var v = java.nio.file.Files.list(corpus.resolve("valid"));
+                var i = java.nio.file.Files.list(corpus.resolve("invalid"))) {
+            valid = v.sorted().toList();
+            invalid = i.sorted().toList();
+        }
+        assertFalse(valid.isEmpty());
+        assertFalse(invalid.isEmpty());
+        int converted = 0;
+        for (Path p : valid) {
+            MixtureDocument doc = MixtureReader.read(p, ReadLimits.DEFAULT);
+            try {
+                MixtureConverter.toCircuit(doc, MixtureOptions.DEFAULT);
+            } catch (dev.circa.format.io.FormatException e) {
+                // the schema cannot state decomposability, smoothness or coverage of the variables
+                assertTrue(e.problem().contains("(decomposable)") || e.problem().contains("(smooth)")
+                        || e.problem().contains("never uses it"), e.getMessage());
+                continue;
+            }
+            ConversionAssertions.convertVerified(doc, MixtureOptions.DEFAULT.withVerifyPoints(200));
+            converted++;
+        }
+        assertTrue(converted >= 2, "converted " + converted);
+        for (Path p : invalid) {
+            dev.circa.format.io.FormatException e = org.junit.jupiter.api.Assertions.assertThrows(
+                    dev.circa.format.io.FormatException.class,
+                    () -> MixtureConverter.toCircuit(MixtureReader.read(p, ReadLimits.DEFAULT), MixtureOptions.DEFAULT),
+                    p.toString());
+            assertTrue(e.line() > 0, e.getMessage());
+        }
+    }
 }
