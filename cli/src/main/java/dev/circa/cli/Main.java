@@ -14,6 +14,7 @@ import picocli.CommandLine.Command;
             ImputeCommand.class,
             SampleCommand.class,
             InspectCommand.class,
+            CheckCommand.class, CompareCommand.class, NormalizeCommand.class, RenderCommand.class,
             CommandLine.HelpCommand.class
         })
 public final class Main implements Runnable {
