@@ -23,18 +23,22 @@ public record MixtureOptions(boolean normalizeWeights, int verifyPoints, double 
         }
     }
 
+    /** These options with {@code normalizeWeights} set to {@code v}. */
     public MixtureOptions withNormalizeWeights(boolean v) {
         return new MixtureOptions(v, verifyPoints, atol, rtol, seed);
     }
 
+    /** These options verifying at {@code v} sampled points (0 skips verification). */
     public MixtureOptions withVerifyPoints(int v) {
         return new MixtureOptions(normalizeWeights, v, atol, rtol, seed);
     }
 
+    /** These options with absolute tolerance {@code a} and relative tolerance {@code r}. */
     public MixtureOptions withTolerances(double a, double r) {
         return new MixtureOptions(normalizeWeights, verifyPoints, a, r, seed);
     }
 
+    /** These options with verification seed {@code v}. */
     public MixtureOptions withSeed(long v) {
         return new MixtureOptions(normalizeWeights, verifyPoints, atol, rtol, v);
     }

@@ -51,7 +51,9 @@ public final class MixtureReader {
 
     /** The two syntaxes of a mixture document. */
     public enum Syntax {
+        /** JSON (RFC 8259), read strictly as circuit documents are. */
         JSON,
+        /** YAML 1.2, core schema, without anchors, aliases, tags, {@code .inf} or {@code .nan}. */
         YAML
     }
 
