@@ -95,6 +95,13 @@ public final class MixtureReader {
             return new Pass(input, s, limits).run();
         } catch (FormatException e) {
             throw locate(e, input);
+        } catch (StackOverflowError e) {
+            // expressions are read and resolved by recursive descent, bounded by --max-depth; a depth
+            // limit raised beyond what the thread's stack can follow ends here, with the read abandoned
+            throw locate(new LimitExceededException(file, 0, 0, null, "the model is nested more deeply than the reader's"
+                    + " stack can follow under the depth limit of " + limits.maxDepth() + " set by " + ReadLimits.MAX_DEPTH
+                    + " (lower it with " + ReadLimits.MAX_DEPTH + ", or give Java a larger stack with -Xss)",
+                    ReadLimits.MAX_DEPTH), input);
         } finally {
             try {
                 input.close();
