@@ -3,7 +3,12 @@ package dev.circa.cli;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import dev.circa.converter.mixture.MixtureConverter;
+import dev.circa.converter.mixture.MixtureOptions;
 import dev.circa.format.io.ReadLimits;
+import dev.circa.format.mixture.MixtureDocument;
+import dev.circa.format.mixture.MixtureReader;
+import dev.circa.format.schema.SchemaCatalog;
 import dev.circa.validator.SchemaCheck;
 import dev.circa.validator.ValidationOptions;
 import dev.circa.validator.ValidationReport;
@@ -22,6 +27,7 @@ import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import tools.jackson.databind.ObjectMapper;
 
 /**
  * No command fetches what a document names (issue 8): a circuit naming a schema and {@code $ref}s on
@@ -98,6 +104,33 @@ class CliNoNetworkTest {
             }
         }
         assertEquals(0, connections.get(), "connections while validating");
+    }
+
+    @Test
+    void mixture_documentNamingSchemaAndRefUrls_readValidatedAndConvertedWithoutConnection() throws Exception {
+        String url = "http://127.0.0.1:" + server.getLocalPort();
+        String yaml = Files.readString(Path.of("..", "fixtures", "mixtures", "pump-station-regimes.yaml"))
+                + "\nextensions:\n  $schema: " + url + "/mixture.schema.json\n  $ref: " + url + "/ref#/x\n"
+                + "  nested: {$id: " + url + "/id, $ref: " + url + "/deeper}\n";
+        Path y = dir.resolve("names-a-server.yaml");
+        Files.writeString(y, yaml);
+        MixtureDocument fromYaml = MixtureReader.read(y, ReadLimits.DEFAULT);
+        MixtureConverter.convert(fromYaml, MixtureOptions.DEFAULT);
+        // the same document as JSON, with a $schema member at the top level too (an unknown property)
+        ObjectMapper json = new ObjectMapper();
+        tools.jackson.databind.node.ObjectNode tree = (tools.jackson.databind.node.ObjectNode)
+                new ObjectMapper(new tools.jackson.dataformat.yaml.YAMLFactory()).readTree(yaml);
+        SchemaCatalog.get().validate(SchemaCatalog.Kind.MIXTURE, tree);
+        tree.put("$schema", url + "/top.schema.json");
+        Path j = dir.resolve("names-a-server.json");
+        Files.writeString(j, json.writeValueAsString(tree));
+        SchemaCatalog.get().validate(SchemaCatalog.Kind.MIXTURE, tree);
+        try {
+            MixtureConverter.convert(MixtureReader.read(j, ReadLimits.DEFAULT), MixtureOptions.DEFAULT);
+        } catch (dev.circa.format.io.FormatException e) {
+            assertTrue(e.getMessage().contains("$schema"), e.getMessage());
+        }
+        assertEquals(0, connections.get(), "connections while reading and converting mixtures");
     }
 
     @Test
