@@ -19,7 +19,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
 /**
- * Mutated circuits and data through the whole command line, reader, compiler and engine included
+ * 1,200 mutated circuits and data files through the whole command line, reader, compiler and engine included
  * (issue 8): every run ends with status 0 or with status 2 and one message naming the file, never
  * an unexpected error or a stack trace, and a failed run writes no output. The message names the
  * input it is about ({@code --given} naming a column the mutated header lost is a usage error).
@@ -29,7 +29,7 @@ class CliMutationTest {
     Path dir;
 
     @Test
-    void evalAndSample_thousandMutatedCircuits_doneOrOneMessageNamingTheFile() throws IOException {
+    void evalAndSample_sixHundredMutatedCircuits_doneOrOneMessageNamingTheFile() throws IOException {
         List<byte[]> corpus = new ArrayList<>();
         corpus.add(Files.readAllBytes(Cli.EXAMPLE));
         try (Stream<Path> s = Files.list(Path.of("..", "fixtures", "schema-corpus", "circuit", "valid"))) {
@@ -44,7 +44,7 @@ class CliMutationTest {
         InputMutator mutator = new InputMutator(20261209L, corpus);
         int[] status = new int[3];
         assertTimeoutPreemptively(Duration.ofSeconds(90), () -> {
-            for (int i = 0; i < 1000; i++) {
+            for (int i = 0; i < 600; i++) {
                 Files.write(circuit, mutator.next());
                 String[] args = i % 2 == 0
                         ? new String[] {"eval", circuit.toString(), "--data", data.toString(), "-o", out.toString()}
@@ -55,11 +55,11 @@ class CliMutationTest {
             }
         });
         // commands validate first, so few mutants are usable; both outcomes must still occur
-        assertTrue(status[0] > 0 && status[2] > 500, status[0] + " done, " + status[2] + " unusable");
+        assertTrue(status[0] > 0 && status[2] > 300, status[0] + " done, " + status[2] + " unusable");
     }
 
     @Test
-    void eval_thousandMutatedDataFiles_doneOrOneMessageNamingTheFile() throws IOException {
+    void eval_sixHundredMutatedDataFiles_doneOrOneMessageNamingTheFile() throws IOException {
         List<byte[]> corpus = List.of(Files.readAllBytes(Cli.READINGS),
                 "valve,inlet_pressure\r\n\"open\",3.0\r\n,\r\nhalf,2.5\r\n# end\r\n".getBytes(java.nio.charset.StandardCharsets.UTF_8));
         Path data = dir.resolve("mutated.csv");
@@ -67,7 +67,7 @@ class CliMutationTest {
         InputMutator mutator = new InputMutator(20261210L, corpus);
         int[] status = new int[3];
         assertTimeoutPreemptively(Duration.ofSeconds(90), () -> {
-            for (int i = 0; i < 1000; i++) {
+            for (int i = 0; i < 600; i++) {
                 Files.write(data, mutator.next());
                 String command = i % 3 == 0 ? "impute" : "eval";
                 String[] args = i % 3 == 1
@@ -77,7 +77,7 @@ class CliMutationTest {
                 Files.deleteIfExists(out);
             }
         });
-        assertTrue(status[0] > 50 && status[2] > 500, status[0] + " done, " + status[2] + " unusable");
+        assertTrue(status[0] > 30 && status[2] > 300, status[0] + " done, " + status[2] + " unusable");
     }
 
     /** Runs {@code args}; checks the outcome and returns the status (0 or 2; 1 is not expected of these commands). */
