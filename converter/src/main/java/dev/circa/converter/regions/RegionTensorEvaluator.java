@@ -1,0 +1,161 @@
+package dev.circa.converter.regions;
+
+import dev.circa.format.Family;
+
+/**
+ * Evaluates a compiled region graph directly from its parameters, region by region, without
+ * building or reading a circuit: each region holds a tensor of shape (rows, its node count) of
+ * log-values (bundles of a leaf, sums of an inner region), filled children first; a partition's
+ * products are sums of its parts' log-values over the cross product (first part varying slowest)
+ * and a sum is a log-sum-exp of weight plus child. Written separately from the engine to check it.
+ *
+ * <p>Not thread-safe (it keeps its tensors between calls).
+ */
+public final class RegionTensorEvaluator {
+    private final RegionParameters p;
+    private final RegionStructure s;
+    private final Layout layout;
+    private final double[][] logw;
+    private double[][] tensor;
+    private int capacity;
+
+    /** An evaluator of the model that {@code params} define. */
+    public RegionTensorEvaluator(RegionParameters params) {
+        this.p = params;
+        this.s = params.structure();
+        this.layout = params.layout();
+        int nr = s.regionCount();
+        this.logw = new double[nr][];
+        for (int r = 0; r < nr; r++) {
+            if (layout.hasSums(r)) {
+                int k = layout.sums(r);
+                int c = layout.children(r);
+                double[] lw = new double[k * c];
+                for (int t = 0; t < k; t++) {
+                    double[] w = params.weights(r, t);
+                    for (int j = 0; j < c; j++) {
+                        lw[t * c + j] = params.logWeights(r) ? w[j] : Math.log(w[j]);
+                    }
+                }
+                logw[r] = lw;
+            }
+        }
+    }
+
+    /** Number of outputs (C). */
+    public int outputCount() {
+        return p.options().outputs();
+    }
+
+    /**
+     * Log-values of every output for each row.
+     *
+     * @param data input: row-major rows x variables, NaN = missing, discrete values as doubles
+     * @param rows number of rows
+     * @param out output: {@code out[row * outputCount() + o]}
+     */
+    public void logDensity(double[] data, int rows, double[] out) {
+        int nv = s.variables().size();
+        int nr = s.regionCount();
+        if (tensor == null || capacity < rows) {
+            tensor = new double[nr][];
+            capacity = rows;
+        }
+        double[] child = new double[0];
+        for (int r : s.order()) {
+            int size = layout.size(r);
+            double[] t = tensor[r];
+            if (t == null || t.length < rows * size) {
+                t = new double[capacity * size];
+                tensor[r] = t;
+            }
+            double[] base;
+            int baseSize;
+            if (s.isLeaf(r)) {
+                int[] vars = s.vars(r);
+                int bundles = p.options().inputs();
+                base = r == s.root() ? new double[rows * bundles] : t;
+                baseSize = bundles;
+                for (int row = 0; row < rows; row++) {
+                    for (int i = 0; i < bundles; i++) {
+                        double sum = 0;
+                        for (int j = 0; j < vars.length; j++) {
+                            double x = data[row * nv + vars[j]];
+                            if (!Double.isNaN(x)) {
+                                Family f = p.family(vars[j]);
+                                sum += LogDensities.of(f, p.inputParams(r, i, j), x);
+                            }
+                        }
+                        base[row * bundles + i] = sum;
+                    }
+                }
+                if (r != s.root()) {
+                    continue;
+                }
+            } else {
+                base = null;
+                baseSize = 0;
+            }
+            int c = layout.children(r);
+            if (child.length < c) {
+                child = new double[c];
+            }
+            int k = layout.sums(r);
+            double[] lw = logw[r];
+            for (int row = 0; row < rows; row++) {
+                if (base != null) {
+                    System.arraycopy(base, row * baseSize, child, 0, baseSize);
+                } else {
+                    fillProducts(r, row, child);
+                }
+                for (int q = 0; q < k; q++) {
+                    double m = Double.NEGATIVE_INFINITY;
+                    for (int j = 0; j < c; j++) {
+                        double v = lw[q * c + j] + child[j];
+                        if (v > m) {
+                            m = v;
+                        }
+                    }
+                    double acc = 0;
+                    if (m != Double.NEGATIVE_INFINITY) {
+                        for (int j = 0; j < c; j++) {
+                            acc += Math.exp(lw[q * c + j] + child[j] - m);
+                        }
+                    }
+                    t[row * size + q] = m == Double.NEGATIVE_INFINITY ? m : m + Math.log(acc);
+                }
+            }
+        }
+        int root = s.root();
+        int co = outputCount();
+        for (int row = 0; row < rows; row++) {
+            System.arraycopy(tensor[root], row * co, out, row * co, co);
+        }
+    }
+
+    private void fillProducts(int r, int row, double[] child) {
+        int c = 0;
+        for (int part : s.partitionsOf(r)) {
+            int[] parts = s.parts(part);
+            int m = parts.length;
+            int[] digit = new int[m];
+            boolean more = true;
+            while (more) {
+                double v = 0;
+                for (int t = 0; t < m; t++) {
+                    int q = parts[t];
+                    v += tensor[q][row * layout.size(q) + digit[t]];
+                }
+                child[c++] = v;
+                more = false;
+                for (int t = m - 1; t >= 0; t--) {
+                    if (++digit[t] < layout.size(parts[t])) {
+                        more = true;
+                        break;
+                    }
+                    digit[t] = 0;
+                }
+            }
+        }
+    }
+}
