@@ -97,7 +97,9 @@ public final class RegionStructure {
         int[] partCount = new int[nr];
         int[] partitionCount = new int[nr];
         int[] stamp = new int[nv];
+        int[] member = new int[nv];
         Arrays.fill(stamp, -1);
+        Arrays.fill(member, -1);
         for (int p = 0; p < np; p++) {
             Partition part = partitions.get(p);
             SourceLocation at = graph.partitionLocation(p);
@@ -112,6 +114,9 @@ public final class RegionStructure {
             }
             int[] resolved = new int[parts.length];
             int covered = 0;
+            for (int v : vars[r]) {
+                member[v] = p;
+            }
             for (int k = 0; k < parts.length; k++) {
                 Integer q = byId.get(parts[k]);
                 if (q == null) {
@@ -128,7 +133,7 @@ public final class RegionStructure {
                                 + " (" + graph.variables().get(v).name() + ") is in more than one; expected disjoint parts");
                     }
                     stamp[v] = p;
-                    if (Arrays.binarySearch(vars[r], v) < 0) {
+                    if (member[v] != p) {
                         throw fail(graph, at, "part " + parts[k] + " has variable " + v + " ("
                                 + graph.variables().get(v).name() + "), which is not in region " + part.region()
                                 + "; expected parts that together equal the region");
