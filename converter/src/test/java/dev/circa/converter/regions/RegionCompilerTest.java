@@ -176,6 +176,28 @@ class RegionCompilerTest {
         assertTrue(CircuitMath.decomposable(doc));
         assertFalse(CircuitMath.structuredDecomposable(doc));
         assertEquals(List.of("out0", "out1"), doc.outputs().stream().map(o -> o.name()).toList());
+        RegionParameters p = RegionParameters.seeded(RegionStructure.of(g), new CompileOptions(2, 2, 2, Map.of()), 9);
+        RegionVerifier.Result r = RegionVerifier.verify(p, CircuitMath.evaluation(doc), 30, 4, TOL, TOL);
+        assertTrue(r.passed(), r.summary());
+    }
+
+    @Test
+    void tensorEvaluator_everyCompileFamily_agreesWithCommonsMath() throws IOException {
+        // Densities of commons-math3 3.6.1 (CircuitMath) against the converter's own log-densities.
+        RegionGraph g = mixedGraph();
+        for (Family real : List.of(Family.NORMAL, Family.LOGNORMAL, Family.EXPONENTIAL, Family.GAMMA, Family.BETA,
+                Family.UNIFORM)) {
+            for (Family count : List.of(Family.POISSON, Family.BINOMIAL)) {
+                Family binary = real.ordinal() % 2 == 0 ? Family.BERNOULLI : Family.INDICATOR;
+                Family categorical = real.ordinal() % 3 == 0 ? Family.CATEGORICAL : Family.INDICATOR;
+                CompileOptions o = new CompileOptions(2, 3, 1, Map.of(VariableType.REAL, real, VariableType.COUNT, count,
+                        VariableType.BINARY, binary, VariableType.CATEGORICAL, categorical));
+                RegionParameters p = RegionParameters.seeded(RegionStructure.of(g), o, real.ordinal() * 10L + count.ordinal());
+                RegionVerifier.Result r = RegionVerifier.verify(p, CircuitMath.evaluation(RegionCompiler.compile(p)), 30,
+                        5, TOL, TOL);
+                assertTrue(r.passed(), real + " " + count + ": " + r.summary());
+            }
+        }
     }
 
     @Test
