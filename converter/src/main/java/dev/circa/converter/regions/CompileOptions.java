@@ -57,6 +57,29 @@ public record CompileOptions(int sums, int inputs, int outputs, Map<VariableType
         return new CompileOptions(sums, inputs, outputs, m);
     }
 
+    /**
+     * These options with one {@code --family} setting applied, e.g. {@code real=lognormal}.
+     *
+     * @throws IllegalArgumentException naming what is wrong with {@code spec}
+     */
+    public CompileOptions withFamilyOption(String spec) {
+        int eq = spec.indexOf('=');
+        if (eq < 0) {
+            throw new IllegalArgumentException("--family expects TYPE=FAMILY (e.g. real=lognormal), got \"" + spec + "\"");
+        }
+        VariableType t = VariableType.fromJsonName(spec.substring(0, eq).trim());
+        if (t == null) {
+            throw new IllegalArgumentException("unknown variable type \"" + spec.substring(0, eq).trim()
+                    + "\" in --family; expected real, binary, categorical or count");
+        }
+        Family f = Family.fromJsonName(spec.substring(eq + 1).trim());
+        if (f == null) {
+            throw new IllegalArgumentException("unknown input family \"" + spec.substring(eq + 1).trim()
+                    + "\" in --family; expected one of the input table of FORMAT.md (normal, lognormal, ...)");
+        }
+        return withFamily(t, f);
+    }
+
     /** The family used for variables of {@code type}. */
     public Family family(VariableType type) {
         return families.get(type);

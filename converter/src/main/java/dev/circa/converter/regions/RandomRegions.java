@@ -25,6 +25,10 @@ import java.util.List;
  * <p>Stateless.
  */
 public final class RandomRegions {
+    /** One sentence for {@code --help}: how a split is drawn. */
+    public static final String SPLIT_RULE = "each split shuffles the region's variables (Fisher-Yates, SplitMix64 seeded"
+            + " by --seed) and cuts the shuffled list at a point drawn uniformly from 1 to n-1, giving two non-empty parts";
+
     private RandomRegions() {
     }
 

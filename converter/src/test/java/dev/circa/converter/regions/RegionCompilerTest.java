@@ -248,6 +248,9 @@ class RegionCompilerTest {
         assertTrue(r.passed(), r.summary());
         assertThrows(IllegalArgumentException.class, () -> o.withFamily(VariableType.REAL, Family.MVNORMAL));
         assertThrows(IllegalArgumentException.class, () -> o.withFamily(VariableType.REAL, Family.POISSON));
+        assertEquals(Family.LOGNORMAL, o.withFamilyOption("real=lognormal").family(VariableType.REAL));
+        IllegalArgumentException bad = assertThrows(IllegalArgumentException.class, () -> o.withFamilyOption("real=gauss"));
+        assertTrue(bad.getMessage().contains("unknown input family \"gauss\""), bad.getMessage());
     }
 
     @Test
