@@ -93,11 +93,14 @@ public final class CircuitReader {
 
         CircuitDocument run() throws FormatException {
             in.startDocument("a circuit document");
+            // A missing member is reported at the start of the object that lacks it.
+            int rootLine = in.line();
+            int rootColumn = in.column();
             CircuitDocument.Builder b = CircuitDocument.builder().source(file);
             String format = null;
             String version = null;
-            int formatLine = 1;
-            int formatColumn = 1;
+            int formatLine = rootLine;
+            int formatColumn = rootColumn;
             boolean sawNodes = false;
             boolean sawOutputs = false;
             boolean sawVariables = false;
@@ -149,7 +152,7 @@ public final class CircuitReader {
             }
             in.endDocument();
             if (format == null) {
-                throw new FormatException(file, formatLine, formatColumn, "/format",
+                throw new FormatException(file, rootLine, rootColumn, "/format",
                         "missing \"format\"; expected \"format\": \"" + CircuitDocument.FORMAT + "\"");
             }
             if (version == null) {
@@ -157,13 +160,13 @@ public final class CircuitReader {
                         "missing \"version\"; expected \"version\": \"1.0\"");
             }
             if (!sawVariables) {
-                throw new FormatException(file, 1, 1, "/variables", "missing \"variables\"; expected an array of variables");
+                throw new FormatException(file, rootLine, rootColumn, "/variables", "missing \"variables\"; expected an array of variables");
             }
             if (!sawNodes) {
-                throw new FormatException(file, 1, 1, "/nodes", "missing \"nodes\"; expected an array of nodes");
+                throw new FormatException(file, rootLine, rootColumn, "/nodes", "missing \"nodes\"; expected an array of nodes");
             }
             if (!sawOutputs) {
-                throw new FormatException(file, 1, 1, "/outputs", "missing \"outputs\"; expected an array of outputs");
+                throw new FormatException(file, rootLine, rootColumn, "/outputs", "missing \"outputs\"; expected an array of outputs");
             }
             boolean newerMinor = minor(version) > SUPPORTED_MINOR;
             List<ReadFinding> findings = new ArrayList<>(unknown.size());
@@ -560,7 +563,8 @@ public final class CircuitReader {
                     double[] mean = vector("mean", p, line, col, pass);
                     Object c = params.get("cov");
                     if (!(c instanceof double[][] cov)) {
-                        throw pass.error(p + "/cov", line, col, "mvnormal node " + id
+                        int[] at = paramLocations.getOrDefault("cov", new int[] {line, col});
+                        throw pass.error(p + "/cov", at[0], at[1], "mvnormal node " + id
                                 + " needs \"cov\", a d x d array of arrays of numbers");
                     }
                     int d = mean.length;

@@ -206,7 +206,9 @@ public final class CircuitWriter {
     }
 
     private static void writeNumber(JsonGenerator g, double v, boolean integral) {
-        if (integral && v == Math.rint(v) && Math.abs(v) < 9.007199254740992E15) {
+        // -0.0 is integral too, but written as an integer it would read back as +0.0.
+        if (integral && v == Math.rint(v) && Math.abs(v) < 9.007199254740992E15
+                && Double.doubleToRawLongBits(v) != Double.doubleToRawLongBits(-0.0)) {
             g.writeNumber((long) v);
         } else {
             g.writeNumber(v);

@@ -45,18 +45,29 @@ public class FormatException extends IOException {
         return sb.toString();
     }
 
+    /** The same problem at another position (used when the position is known only to the caller). */
+    public FormatException relocated(int newLine, int newColumn) {
+        FormatException f = new FormatException(file, newLine, newColumn, pointer, problem);
+        f.setStackTrace(getStackTrace());
+        return f;
+    }
+
+    /** The file as given by the user, or {@code null}. */
     public String file() {
         return file;
     }
 
+    /** 1-based line, or 0 when unknown. */
     public int line() {
         return line;
     }
 
+    /** 1-based column, or 0 when unknown. */
     public int column() {
         return column;
     }
 
+    /** JSON pointer of the member concerned, or {@code null}. */
     public String pointer() {
         return pointer;
     }

@@ -5,6 +5,8 @@ import java.io.InputStream;
 import java.nio.file.Path;
 import java.util.Arrays;
 import java.util.Locale;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
 import tools.jackson.core.JacksonException;
 import tools.jackson.core.JsonParser;
 import tools.jackson.core.JsonToken;
@@ -24,6 +26,8 @@ import tools.jackson.databind.json.JsonMapper;
  * keys and limits. The document readers of circa are built on it. Not thread-safe.
  */
 public final class JsonInput implements AutoCloseable {
+    private static final Pattern ALLOWED = Pattern.compile("maximum allowed \\(([0-9]+)");
+
     private final JsonParser parser;
     private final String file;
 
@@ -84,7 +88,7 @@ public final class JsonInput implements AutoCloseable {
         try {
             return parser.nextToken();
         } catch (JacksonException e) {
-            throw translate(e, file);
+            throw fail(e);
         }
     }
 
@@ -170,7 +174,7 @@ public final class JsonInput implements AutoCloseable {
         try {
             parser.skipChildren();
         } catch (JacksonException e) {
-            throw translate(e, file);
+            throw fail(e);
         }
     }
 
@@ -180,7 +184,7 @@ public final class JsonInput implements AutoCloseable {
             JsonNode n = parser.readValueAsTree();
             return n;
         } catch (JacksonException e) {
-            throw translate(e, file);
+            throw fail(e);
         }
     }
 
@@ -192,7 +196,7 @@ public final class JsonInput implements AutoCloseable {
         try {
             return parser.getString();
         } catch (JacksonException e) {
-            throw translate(e, file);
+            throw fail(e);
         }
     }
 
@@ -216,7 +220,7 @@ public final class JsonInput implements AutoCloseable {
         try {
             v = parser.getDoubleValue();
         } catch (JacksonException e) {
-            throw translate(e, file);
+            throw fail(e);
         }
         if (!Double.isFinite(v)) {
             throw error(pointer, "the number " + abbreviate(parser) + " is out of double range; expected a finite number");
@@ -246,7 +250,7 @@ public final class JsonInput implements AutoCloseable {
                 v = (long) d;
             }
         } catch (JacksonException e) {
-            throw translate(e, file);
+            throw fail(e);
         }
         if (v < min || v > max) {
             throw error(pointer, "the integer " + v + " is out of range; expected an integer from " + min + " to " + max);
@@ -294,7 +298,7 @@ public final class JsonInput implements AutoCloseable {
         try {
             parser.close();
         } catch (JacksonException e) {
-            throw translate(e, file);
+            throw fail(e);
         }
     }
 
@@ -323,6 +327,22 @@ public final class JsonInput implements AutoCloseable {
         return s.length() > 40 ? s.substring(0, 20) + "..." + " (" + s.length() + " characters)" : s;
     }
 
+    /** Translates {@code e}, locating it at the parser's read position when Jackson gives no location. */
+    private FormatException fail(JacksonException e) {
+        FormatException f = translate(e, file);
+        if (f.line() > 0) {
+            return f;
+        }
+        TokenStreamLocation l = parser.currentLocation();
+        if (l == null || l.getLineNr() <= 0) {
+            l = parser.currentTokenLocation();
+        }
+        if (l == null || l.getLineNr() <= 0) {
+            return f;
+        }
+        return f.relocated(l.getLineNr(), Math.max(1, l.getColumnNr()));
+    }
+
     /** Turns a Jackson exception into a located {@link FormatException}. */
     public static FormatException translate(JacksonException e, String file) {
         Throwable c = e.getCause();
@@ -347,9 +367,13 @@ public final class JsonInput implements AutoCloseable {
             return new FormatException(file, line, col, null,
                     "duplicate key: " + firstLine(msg) + "; every key may appear once in an object");
         }
-        if (msg.contains("Non-standard token 'NaN'") || msg.contains("'Infinity'") || msg.contains("'NaN'")) {
+        if (msg.contains("'NaN'") || msg.contains("Infinity'") || msg.contains("ALLOW_NON_NUMERIC_NUMBERS")) {
             return new FormatException(file, line, col, null,
                     "NaN and Infinity are not JSON numbers; expected a finite number");
+        }
+        if (msg.startsWith("Unexpected end-of-input")) {
+            return new FormatException(file, line, col, null,
+                    "the input ends before the document is complete (is the file truncated?): " + firstLine(msg));
         }
         if (e.getCause() instanceof IOException io && !(e.getCause() instanceof java.io.CharConversionException)) {
             return new FormatException(file, line, col, null, "cannot be read: " + io.getMessage());
@@ -359,22 +383,28 @@ public final class JsonInput implements AutoCloseable {
 
     private static FormatException limitFrom(String msg, String file, int line, int col) {
         String lower = msg.toLowerCase(Locale.ROOT);
+        String limit = allowed(msg);
         if (lower.contains("nesting depth")) {
-            return new LimitExceededException(file, line, col, null,
-                    "the nesting depth exceeds the limit set by " + ReadLimits.MAX_DEPTH + " (raise it with "
-                            + ReadLimits.MAX_DEPTH + "): " + firstLine(msg), ReadLimits.MAX_DEPTH);
+            return limit(file, line, col, "the nesting depth exceeds the limit of " + limit + " levels", ReadLimits.MAX_DEPTH);
         }
         if (lower.contains("number value length") || lower.contains("number length")) {
-            return new LimitExceededException(file, line, col, null,
-                    "a number is longer than the limit set by " + ReadLimits.MAX_NUMBER + " (raise it with "
-                            + ReadLimits.MAX_NUMBER + "): " + firstLine(msg), ReadLimits.MAX_NUMBER);
+            return limit(file, line, col, "a number is longer than the limit of " + limit + " characters", ReadLimits.MAX_NUMBER);
         }
         if (lower.contains("string value length") || lower.contains("name length")) {
-            return new LimitExceededException(file, line, col, null,
-                    "a string is longer than the limit set by " + ReadLimits.MAX_STRING + " (raise it with "
-                            + ReadLimits.MAX_STRING + "): " + firstLine(msg), ReadLimits.MAX_STRING);
+            return limit(file, line, col, "a string is longer than the limit of " + limit + " characters", ReadLimits.MAX_STRING);
         }
         return new FormatException(file, line, col, null, "a read limit was hit: " + firstLine(msg));
+    }
+
+    private static LimitExceededException limit(String file, int line, int col, String what, String option) {
+        return new LimitExceededException(file, line, col, null,
+                what + " set by " + option + " (raise it with " + option + ")", option);
+    }
+
+    /** The limit Jackson names in "... exceeds the maximum allowed (N, from ...)". */
+    private static String allowed(String msg) {
+        Matcher m = ALLOWED.matcher(msg);
+        return m.find() ? m.group(1) : "the configured number of";
     }
 
     private static String firstLine(String s) {

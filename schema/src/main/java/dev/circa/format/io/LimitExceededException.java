@@ -23,6 +23,13 @@ public final class LimitExceededException extends FormatException {
                 option);
     }
 
+    @Override
+    public LimitExceededException relocated(int newLine, int newColumn) {
+        LimitExceededException f = new LimitExceededException(file(), newLine, newColumn, pointer(), problem(), option);
+        f.setStackTrace(getStackTrace());
+        return f;
+    }
+
     /** The command-line option that sets the limit, e.g. {@code --max-nodes}. */
     public String option() {
         return option;

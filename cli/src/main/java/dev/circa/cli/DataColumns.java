@@ -1,0 +1,110 @@
+package dev.circa.cli;
+
+import dev.circa.format.Variable;
+import dev.circa.format.csv.CellValues;
+import dev.circa.format.csv.CsvReader;
+import dev.circa.format.io.FormatException;
+import java.util.Arrays;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * The header of a data CSV mapped onto a circuit's variables (header = variable names, any subset,
+ * any order), and the parsing of its rows into the engine's row-major layout (NaN = missing).
+ */
+final class DataColumns {
+    private final List<Variable> variables;
+    private final int[] variableOfColumn;
+    private final String[] header;
+    private final CsvReader csv;
+
+    private DataColumns(CsvReader csv, List<Variable> variables, String[] header, int[] variableOfColumn) {
+        this.csv = csv;
+        this.variables = variables;
+        this.header = header;
+        this.variableOfColumn = variableOfColumn;
+    }
+
+    /** Reads the header of {@code csv}; every column must name a variable, once. */
+    static DataColumns readHeader(CsvReader csv, List<Variable> variables) throws FormatException {
+        List<String> h = csv.next();
+        if (h == null) {
+            throw new FormatException(csv.file(), 1, 1, null, "the file is empty; expected a header of variable names");
+        }
+        Map<String, Integer> byName = new HashMap<>();
+        for (int i = 0; i < variables.size(); i++) {
+            byName.put(variables.get(i).name(), i);
+        }
+        String[] header = h.toArray(new String[0]);
+        int[] map = new int[header.length];
+        boolean[] seen = new boolean[variables.size()];
+        for (int c = 0; c < header.length; c++) {
+            Integer v = byName.get(header[c].strip());
+            if (v == null) {
+                throw csv.error(c, "unknown column \"" + header[c] + "\"; expected variable names of the circuit ("
+                        + String.join(", ", variables.stream().map(Variable::name).toList()) + ")");
+            }
+            if (seen[v]) {
+                throw csv.error(c, "column \"" + header[c] + "\" appears twice");
+            }
+            seen[v] = true;
+            map[c] = v;
+        }
+        return new DataColumns(csv, variables, header, map);
+    }
+
+    String[] header() {
+        return header;
+    }
+
+    /** The variable index of column {@code c}. */
+    int variableOf(int c) {
+        return variableOfColumn[c];
+    }
+
+    /** The column index of variable named {@code name}, or -1. */
+    int columnOf(String name) {
+        for (int c = 0; c < header.length; c++) {
+            if (header[c].strip().equals(name)) {
+                return c;
+            }
+        }
+        return -1;
+    }
+
+    /**
+     * Reads up to {@code max} rows into {@code data} (row-major, one slot per variable, NaN for missing)
+     * and their raw cells into {@code cells}.
+     *
+     * @return the number of rows read; 0 at the end of the file
+     */
+    int readRows(double[] data, String[][] cells, int max) throws FormatException {
+        int nv = variables.size();
+        int r = 0;
+        while (r < max) {
+            List<String> rec = csv.next();
+            if (rec == null) {
+                break;
+            }
+            if (rec.size() != header.length) {
+                throw csv.error(Math.min(rec.size(), header.length) - 1 < 0 ? 0 : Math.min(rec.size(), header.length) - 1,
+                        "row has " + rec.size() + " fields; expected " + header.length + " as in the header");
+            }
+            Arrays.fill(data, r * nv, r * nv + nv, Double.NaN);
+            String[] row = cells[r];
+            for (int c = 0; c < header.length; c++) {
+                String cell = rec.get(c);
+                row[c] = cell;
+                int v = variableOfColumn[c];
+                try {
+                    data[r * nv + v] = CellValues.parse(variables.get(v), cell);
+                } catch (IllegalArgumentException e) {
+                    throw csv.error(c, "column " + header[c] + ": " + e.getMessage());
+                }
+            }
+            r++;
+        }
+        return r;
+    }
+}

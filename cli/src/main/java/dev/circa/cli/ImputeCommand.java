@@ -1,0 +1,84 @@
+package dev.circa.cli;
+
+import dev.circa.engine.CompiledCircuit;
+import dev.circa.engine.Evaluator;
+import dev.circa.format.csv.CellValues;
+import dev.circa.format.csv.CsvReader;
+import dev.circa.format.io.AtomicOutput;
+import java.io.BufferedWriter;
+import java.io.OutputStreamWriter;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Path;
+import java.util.concurrent.Callable;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+
+/** {@code circa impute}: missing cells filled with their most probable values (MPE). */
+@Command(name = "impute", mixinStandardHelpOptions = true,
+        description = {"Fills each row's missing cells with their most probable values (MPE by max-product",
+            "with backtracking over every unobserved variable). The result is exact when the circuit is",
+            "deterministic; circa says on standard error whether it is."})
+final class ImputeCommand implements Callable<Integer> {
+    private static final int CHUNK = 1024;
+
+    @Parameters(index = "0", paramLabel = "CIRCUIT", description = "The circuit file.")
+    Path circuitFile;
+
+    @Option(names = "--data", required = true, paramLabel = "DATA.csv", description = "The data rows.")
+    Path dataFile;
+
+    @Option(names = "--output-name", paramLabel = "NAME", description = "The circuit output to use (default: the first).")
+    String outputName;
+
+    @Option(names = {"-o", "--output"}, paramLabel = "OUT.csv", description = "Output file (default: standard output).")
+    Path output = Path.of("-");
+
+    @Mixin
+    ReadOptions read;
+
+    @picocli.CommandLine.Spec
+    picocli.CommandLine.Model.CommandSpec spec;
+
+    @Override
+    public Integer call() throws Exception {
+        LoadedCircuit model = LoadedCircuit.load(circuitFile, read.limits(), spec.commandLine().getErr());
+        CompiledCircuit c = model.circuit();
+        int outIndex = OutputChoice.index(c, outputName);
+        int nv = c.variableCount();
+        try (CsvReader csv = CsvReader.open(dataFile, read.limits())) {
+            DataColumns cols = DataColumns.readHeader(csv, c.variables());
+            String[] header = cols.header();
+            AtomicOutput.write(output, stream -> {
+                BufferedWriter w = new BufferedWriter(new OutputStreamWriter(stream, StandardCharsets.UTF_8));
+                CsvOut out = new CsvOut(w);
+                out.record(header);
+                Evaluator ev = new Evaluator(c);
+                double[] data = new double[CHUNK * nv];
+                double[] filled = new double[CHUNK * nv];
+                double[] logValue = new double[CHUNK];
+                String[][] cells = new String[CHUNK][header.length];
+                String[] line = new String[header.length];
+                int rows;
+                while ((rows = cols.readRows(data, cells, CHUNK)) > 0) {
+                    ev.mpe(data, rows, outIndex, filled, logValue);
+                    for (int r = 0; r < rows; r++) {
+                        for (int col = 0; col < header.length; col++) {
+                            int v = cols.variableOf(col);
+                            line[col] = cells[r][col].isBlank()
+                                    ? CellValues.format(c.variables().get(v), filled[r * nv + v]) : cells[r][col];
+                        }
+                        out.record(line);
+                    }
+                }
+                out.flush();
+            }, circuitFile, dataFile);
+        }
+        spec.commandLine().getErr().println(model.deterministic()
+                ? "circa impute: exact (the circuit is deterministic, so max-product gives the most probable explanation)"
+                : "circa impute: approximate (the circuit is not proven deterministic; max-product gives a lower bound "
+                        + "of the most probable explanation, not necessarily the exact one)");
+        return ExitStatus.OK;
+    }
+}

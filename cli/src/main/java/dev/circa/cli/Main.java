@@ -1,0 +1,83 @@
+package dev.circa.cli;
+
+import dev.circa.format.io.FormatException;
+import java.io.PrintWriter;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+
+/** Entry point of the {@code circa} command line. */
+@Command(name = "circa", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
+        description = "Validate, convert, check and evaluate probabilistic circuit files.",
+        subcommands = {
+            ValidateCommand.class,
+            EvalCommand.class,
+            ImputeCommand.class,
+            SampleCommand.class,
+            InspectCommand.class,
+            CommandLine.HelpCommand.class
+        })
+public final class Main implements Runnable {
+    /** The version printed by {@code --version}. */
+    public static final String VERSION = "0.1.0";
+
+    @CommandLine.Spec
+    CommandLine.Model.CommandSpec spec;
+
+    @Override
+    public void run() {
+        throw new CommandLine.ParameterException(spec.commandLine(), "a subcommand is required");
+    }
+
+    /** Runs the command line and exits with its status. */
+    public static void main(String[] args) {
+        System.exit(run(args, new PrintWriter(System.out, true), new PrintWriter(System.err, true)));
+    }
+
+    /** Runs the command line with the given streams and returns the exit status (for tests). */
+    public static int run(String[] args, PrintWriter out, PrintWriter err) {
+        CommandLine cl = new CommandLine(new Main());
+        cl.setOut(out);
+        cl.setErr(err);
+        boolean debug = java.util.Arrays.asList(args).contains("--debug");
+        cl.setParameterExceptionHandler((ex, a) -> {
+            CommandLine c = ex.getCommandLine();
+            c.getErr().println("circa: " + ex.getMessage());
+            c.getErr().println("Try 'circa " + commandPath(c) + " --help' for the options.");
+            return ExitStatus.UNUSABLE;
+        });
+        cl.setExecutionExceptionHandler((ex, c, parsed) -> {
+            if (ex instanceof FormatException || ex instanceof UsageException) {
+                c.getErr().println("circa: " + ex.getMessage());
+            } else if (ex instanceof OutOfMemoryError) {
+                c.getErr().println("circa: out of memory; raise the heap with CIRCA_JAVA_OPTS=-Xmx... or lower the input size");
+            } else {
+                c.getErr().println("circa: unexpected error: " + ex);
+                if (debug) {
+                    ex.printStackTrace(c.getErr());
+                } else {
+                    c.getErr().println("(run with --debug for the stack trace)");
+                }
+            }
+            return ExitStatus.UNUSABLE;
+        });
+        try {
+            return cl.execute(args);
+        } catch (StackOverflowError e) {
+            err.println("circa: the input is nested too deeply to process (stack exhausted)");
+            return ExitStatus.UNUSABLE;
+        }
+    }
+
+    private static String commandPath(CommandLine c) {
+        String q = c.getCommandSpec().qualifiedName();
+        return q.startsWith("circa ") ? q.substring(6) : "";
+    }
+
+    /** Supplies {@code --version}. */
+    static final class Version implements CommandLine.IVersionProvider {
+        @Override
+        public String[] getVersion() {
+            return new String[] {"circa " + VERSION};
+        }
+    }
+}

@@ -1,0 +1,125 @@
+package dev.circa.format.csv;
+
+import dev.circa.format.Variable;
+
+/**
+ * Turns CSV cells into values and back (FORMAT.md section 5): an empty cell is missing (NaN), a
+ * categorical or binary cell equal to a state label is that state, else a decimal state index; a
+ * count is a non-negative integer; a real is a finite decimal number.
+ */
+public final class CellValues {
+    private CellValues() {
+    }
+
+    /**
+     * The value of {@code cell} for {@code v}, NaN when empty.
+     *
+     * @return the value
+     * @throws IllegalArgumentException with a sentence saying what was expected, when the cell is not a value of {@code v}
+     */
+    public static double parse(Variable v, String cell) {
+        String s = cell.strip();
+        if (s.isEmpty()) {
+            return Double.NaN;
+        }
+        switch (v.type()) {
+            case REAL -> {
+                double d = number(s, v);
+                if (!Double.isFinite(d)) {
+                    throw new IllegalArgumentException("\"" + cell + "\" is not a finite number (variable " + v.name() + " is real)");
+                }
+                return d;
+            }
+            case COUNT -> {
+                long n = integer(s, v, "a count (0, 1, 2, ...)");
+                if (n < 0) {
+                    throw new IllegalArgumentException("\"" + cell + "\" is negative; variable " + v.name() + " is a count (0, 1, 2, ...)");
+                }
+                return n;
+            }
+            default -> {
+                int k = v.stateIndex(s);
+                if (k >= 0) {
+                    return k;
+                }
+                int states = v.stateCount();
+                String expected = v.states().isEmpty() ? "a state index from 0 to " + (states - 1)
+                        : "one of " + String.join(", ", v.states()) + " or a state index from 0 to " + (states - 1);
+                long n;
+                try {
+                    n = integer(s, v, expected);
+                } catch (IllegalArgumentException e) {
+                    throw new IllegalArgumentException("\"" + cell + "\" is not a value of " + v.name() + "; expected " + expected);
+                }
+                if (n < 0 || n >= states) {
+                    throw new IllegalArgumentException("\"" + cell + "\" is not a value of " + v.name() + "; expected " + expected);
+                }
+                return n;
+            }
+        }
+    }
+
+    /** The CSV text of {@code value} for {@code v}: a label when the variable has labels, empty when NaN. */
+    public static String format(Variable v, double value) {
+        if (Double.isNaN(value)) {
+            return "";
+        }
+        if (v.type().isDiscrete()) {
+            int k = (int) value;
+            if (!v.states().isEmpty() && k >= 0 && k < v.states().size()) {
+                return v.states().get(k);
+            }
+            return Long.toString((long) value);
+        }
+        return Double.toString(value);
+    }
+
+    /** A log-density as written in CSV: {@code -inf} for negative infinity. */
+    public static String formatLogDensity(double value) {
+        if (value == Double.NEGATIVE_INFINITY) {
+            return "-inf";
+        }
+        if (Double.isNaN(value)) {
+            return "nan";
+        }
+        return Double.toString(value);
+    }
+
+    /** Parses a log-density cell: a decimal number or {@code -inf}. */
+    public static double parseLogDensity(String cell) {
+        String s = cell.strip();
+        if (s.equalsIgnoreCase("-inf") || s.equalsIgnoreCase("-infinity")) {
+            return Double.NEGATIVE_INFINITY;
+        }
+        if (!s.matches("[+-]?([0-9]+\\.?[0-9]*|\\.[0-9]+)([eE][+-]?[0-9]+)?")) {
+            throw new IllegalArgumentException("\"" + cell + "\" is not a log-density; expected a decimal number or -inf");
+        }
+        double d = Double.parseDouble(s);
+        if (!Double.isFinite(d)) {
+            throw new IllegalArgumentException("\"" + cell + "\" is out of double range");
+        }
+        return d;
+    }
+
+    private static double number(String s, Variable v) {
+        if (!s.matches("[+-]?([0-9]+\\.?[0-9]*|\\.[0-9]+)([eE][+-]?[0-9]+)?")) {
+            throw new IllegalArgumentException("\"" + s + "\" is not a number (variable " + v.name() + " is real)");
+        }
+        return Double.parseDouble(s);
+    }
+
+    private static long integer(String s, Variable v, String expected) {
+        if (!s.matches("[+-]?[0-9]{1,18}")) {
+            throw new IllegalArgumentException("\"" + s + "\" is not a value of " + v.name() + "; expected " + expected);
+        }
+        return Long.parseLong(s);
+    }
+
+    /** Quotes a field for CSV output when it needs it. */
+    public static String quote(String s) {
+        if (s.indexOf(',') < 0 && s.indexOf('"') < 0 && s.indexOf('\n') < 0 && s.indexOf('\r') < 0) {
+            return s;
+        }
+        return '"' + s.replace("\"", "\"\"") + '"';
+    }
+}

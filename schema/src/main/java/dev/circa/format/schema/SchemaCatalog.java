@@ -1,0 +1,267 @@
+package dev.circa.format.schema;
+
+import com.networknt.schema.AbsoluteIri;
+import com.networknt.schema.Schema;
+import com.networknt.schema.SchemaLocation;
+import com.networknt.schema.SchemaRegistry;
+import com.networknt.schema.SchemaRegistryConfig;
+import com.networknt.schema.SpecificationVersion;
+import com.networknt.schema.path.PathType;
+import com.networknt.schema.resource.InputStreamSource;
+import com.networknt.schema.resource.ResourceLoader;
+import com.networknt.schema.resource.SchemaLoader;
+import dev.circa.format.io.FormatException;
+import dev.circa.format.io.JsonInput;
+import dev.circa.format.io.LimitExceededException;
+import dev.circa.format.io.ReadLimits;
+import java.io.InputStream;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.EnumMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import tools.jackson.core.JsonToken;
+import tools.jackson.databind.JsonNode;
+import tools.jackson.databind.node.ArrayNode;
+import tools.jackson.databind.node.JsonNodeFactory;
+import tools.jackson.databind.node.ObjectNode;
+
+/**
+ * The bundled JSON Schemas (draft 2020-12) of the circa documents and validation against them.
+ *
+ * <p>Only the schemas shipped with circa (and the 2020-12 meta-schema bundled with the schema
+ * library) can ever be loaded: a {@code $schema}, {@code $id} or {@code $ref} named by a document
+ * is data, never a location to fetch. Instances are immutable and safe to share between threads;
+ * {@link #get()} returns a shared one.
+ */
+public final class SchemaCatalog {
+    /** The base of every circa schema {@code $id} (an identifier only; nothing is fetched from it). */
+    public static final String ID_BASE = "https://circa.dev/schemas/1/";
+
+    private static final String RESOURCE_DIR = "dev/circa/format/schemas/";
+    private static final String META_BASE = "https://json-schema.org/draft/2020-12/";
+
+    /** The document kinds with a schema. */
+    public enum Kind {
+        /** {@code circa.circuit}. */
+        CIRCUIT("circuit.schema.json"),
+        /** {@code circa.regions}. */
+        REGIONS("regions.schema.json"),
+        /** {@code circa.mixture} (JSON or YAML read into the same tree). */
+        MIXTURE("mixture.schema.json");
+
+        private final String fileName;
+
+        Kind(String fileName) {
+            this.fileName = fileName;
+        }
+
+        /** The schema's resource file name, e.g. {@code circuit.schema.json}. */
+        public String fileName() {
+            return fileName;
+        }
+
+        /** The schema's {@code $id}. */
+        public String id() {
+            return ID_BASE + fileName;
+        }
+
+        /** The kind whose {@code format} value is {@code format}, or {@code null}. */
+        public static Kind ofFormat(String format) {
+            return switch (format == null ? "" : format) {
+                case "circa.circuit" -> CIRCUIT;
+                case "circa.regions" -> REGIONS;
+                case "circa.mixture" -> MIXTURE;
+                default -> null;
+            };
+        }
+    }
+
+    private static final class Holder {
+        static final SchemaCatalog INSTANCE = new SchemaCatalog();
+    }
+
+    private final SchemaRegistry registry;
+    private final Map<Kind, Schema> schemas = new EnumMap<>(Kind.class);
+    private final Schema nodeSchema;
+
+    private SchemaCatalog() {
+        registry = newRegistry();
+        for (Kind k : Kind.values()) {
+            Schema s = registry.getSchema(SchemaLocation.of(k.id()));
+            s.initializeValidators();
+            schemas.put(k, s);
+        }
+        nodeSchema = registry.getSchema(SchemaLocation.of(Kind.CIRCUIT.id() + "#/$defs/node"));
+        nodeSchema.initializeValidators();
+    }
+
+    /** The shared catalog (schemas are loaded once, on first use). */
+    public static SchemaCatalog get() {
+        return Holder.INSTANCE;
+    }
+
+    /**
+     * A registry that resolves only circa's classpath schemas and the bundled 2020-12 meta-schema;
+     * every other address is refused before any attempt to read it.
+     */
+    static SchemaRegistry newRegistry() {
+        ResourceLoader bundled = SchemaCatalog::bundled;
+        SchemaLoader loader = SchemaLoader.builder()
+                .fetchRemoteResources(false)
+                .resourceLoaders(r -> r.values(list -> {
+                    list.clear();
+                    list.add(bundled);
+                }))
+                .allow(SchemaCatalog::allowed)
+                .build();
+        SchemaRegistryConfig config = SchemaRegistryConfig.builder()
+                .pathType(PathType.JSON_POINTER)
+                .locale(Locale.ROOT)
+                .formatAssertionsEnabled(false)
+                .build();
+        return SchemaRegistry.withDefaultDialect(SpecificationVersion.DRAFT_2020_12,
+                b -> b.schemaLoader(loader).schemaRegistryConfig(config));
+    }
+
+    private static boolean allowed(AbsoluteIri iri) {
+        String s = iri.toString();
+        return s.startsWith(ID_BASE) || s.startsWith(META_BASE);
+    }
+
+    private static InputStreamSource bundled(AbsoluteIri iri) {
+        String s = iri.toString();
+        if (!s.startsWith(ID_BASE)) {
+            return null;
+        }
+        String name = s.substring(ID_BASE.length());
+        for (Kind k : Kind.values()) {
+            if (k.fileName().equals(name)) {
+                return () -> open(k);
+            }
+        }
+        return null;
+    }
+
+    private static InputStream open(Kind kind) {
+        InputStream in = SchemaCatalog.class.getClassLoader().getResourceAsStream(RESOURCE_DIR + kind.fileName());
+        if (in == null) {
+            throw new IllegalStateException("the bundled schema " + kind.fileName() + " is missing from the classpath");
+        }
+        return in;
+    }
+
+    /** The schema text of {@code kind} as shipped (for {@code --help}-style output and tests). */
+    public static InputStream openSchema(Kind kind) {
+        return open(kind);
+    }
+
+    /**
+     * Validates a whole document (already parsed into a tree) against the schema of {@code kind}.
+     *
+     * @return the violations, empty when the document conforms; in document order of the schema checks
+     */
+    public List<SchemaViolation> validate(Kind kind, JsonNode document) {
+        return convert(schemas.get(kind).validate(document), "");
+    }
+
+    /**
+     * Validates a document against the schema its {@code format} names; a missing or unknown
+     * {@code format} is itself a violation at {@code /format}.
+     */
+    public List<SchemaViolation> validate(JsonNode document) {
+        JsonNode f = document == null ? null : document.get("format");
+        Kind kind = f != null && f.isString() ? Kind.ofFormat(f.asString()) : null;
+        if (kind == null) {
+            return List.of(new SchemaViolation("/format", "const",
+                    "expected \"format\" to be one of circa.circuit, circa.regions or circa.mixture"));
+        }
+        return validate(kind, document);
+    }
+
+    /**
+     * Validates one element of a circuit's {@code nodes} array against the node sub-schema, so that a
+     * large file can be checked one node at a time while streaming.
+     *
+     * @param node the node object
+     * @param pointer the node's pointer in its document (e.g. {@code /nodes/41}), prefixed to every violation
+     */
+    public List<SchemaViolation> validateNode(JsonNode node, String pointer) {
+        return convert(nodeSchema.validate(node), pointer == null ? "" : pointer);
+    }
+
+    /**
+     * Validates a circuit file against the circuit schema in one streaming pass, holding one node at a
+     * time: each node is checked against the node sub-schema, the rest of the document as a whole. The
+     * verdict is the same as {@link #validate(Kind, JsonNode)} on the whole tree.
+     *
+     * @param path the file ({@code .gz} decompressed, {@code -} for standard input)
+     * @return document-level violations first, then each node's in node order
+     * @throws FormatException when the file is not JSON or a read limit is hit
+     */
+    public List<SchemaViolation> validateCircuit(Path path, ReadLimits limits) throws FormatException {
+        try (JsonInput json = JsonInput.openJson(path, limits)) {
+            return validateCircuit(json, limits);
+        }
+    }
+
+    /** As {@link #validateCircuit(Path, ReadLimits)}, from a stream; {@code file} names it in messages. */
+    public List<SchemaViolation> validateCircuit(InputStream in, String file, ReadLimits limits) throws FormatException {
+        try (JsonInput json = JsonInput.fromStream(in, file, limits)) {
+            return validateCircuit(json, limits);
+        }
+    }
+
+    private List<SchemaViolation> validateCircuit(JsonInput json, ReadLimits limits) throws FormatException {
+        List<SchemaViolation> nodeViolations = new ArrayList<>();
+        ObjectNode skeleton = JsonNodeFactory.instance.objectNode();
+        json.startDocument("a circuit document");
+        String member;
+        while ((member = json.nextProperty()) != null) {
+            if (member.equals("nodes") && json.token() == JsonToken.START_ARRAY) {
+                long count = 0;
+                while (json.nextElement()) {
+                    if (count >= limits.maxNodes()) {
+                        throw LimitExceededException.of(json.file(), json.line(), json.column(), "/nodes/" + count,
+                                "the number of nodes", ReadLimits.MAX_NODES, limits.maxNodes());
+                    }
+                    nodeViolations.addAll(validateNode(json.readTree(), "/nodes/" + count));
+                    count++;
+                }
+                // The nodes were checked one by one; a valid stand-in keeps the array's own rules (minItems) in play.
+                ArrayNode stand = skeleton.putArray("nodes");
+                if (count > 0) {
+                    stand.addObject().put("id", 0).putArray("product").add(0);
+                }
+            } else {
+                skeleton.set(member, json.readTree());
+            }
+        }
+        json.endDocument();
+        List<SchemaViolation> out = new ArrayList<>(validate(Kind.CIRCUIT, skeleton));
+        out.addAll(nodeViolations);
+        return out;
+    }
+
+    private static List<SchemaViolation> convert(List<com.networknt.schema.Error> errors, String prefix) {
+        List<SchemaViolation> out = new ArrayList<>(errors.size());
+        for (com.networknt.schema.Error e : errors) {
+            String at = e.getInstanceLocation() == null ? "" : e.getInstanceLocation().toString();
+            if ("/".equals(at) || "$".equals(at)) {
+                at = "";
+            }
+            String keyword = e.getKeyword();
+            if (("additionalProperties".equals(keyword) || "unevaluatedProperties".equals(keyword))
+                    && e.getProperty() != null) {
+                at = at + "/" + escape(e.getProperty());
+            }
+            out.add(new SchemaViolation(prefix + at, keyword, e.getMessage()));
+        }
+        return out;
+    }
+
+    private static String escape(String token) {
+        return token.replace("~", "~0").replace("/", "~1");
+    }
+}
