@@ -27,9 +27,11 @@ import tools.jackson.core.JsonGenerator;
  * and peak heap, beside a bare streaming Jackson write of as many numbers in the same run. Not a
  * test; one run, one line per phase on standard output.
  *
- * <p>Run from the repository root after {@code mvn -B -q -o compile -pl bench -am}:
- * {@code java -Xmx6g -cp bench/target/classes:converter/target/classes:...:JACKSON_JARS dev.circa.bench.CompileScale [vars depth repeats sums inputs]}
- * (defaults 256 6 15 24 24: about 10^7 edges).
+ * <p>Run from the repository root (Java 17), one command:
+ * <pre>
+ * mvn -B -q package -pl bench -am -DskipTests &amp;&amp; java -Xmx4g -cp bench/target/benchmarks.jar dev.circa.bench.CompileScale [VARS DEPTH REPEATS SUMS INPUTS]
+ * </pre>
+ * Defaults 256 6 15 24 24 (a random region graph, seed 1; parameters seed 7): about 10^7 edges.
  */
 public final class CompileScale {
     private CompileScale() {
