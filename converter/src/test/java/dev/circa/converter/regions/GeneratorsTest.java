@@ -115,6 +115,16 @@ class GeneratorsTest {
         assertTrue(RegionStructure.of(g).isLeaf(0));
     }
 
+    @Test
+    void generated_randomAndGrid_conformToRegionsSchema() throws IOException {
+        for (RegionGraph g : List.of(GridRegions.generate(3, 5), RandomRegions.generate(RandomRegions.realVariables(9), 4, 3, 8))) {
+            tools.jackson.databind.JsonNode tree = dev.circa.format.io.JsonInput
+                    .mapperFor(dev.circa.format.io.ReadLimits.DEFAULT).readTree(bytes(g));
+            assertEquals(List.of(), dev.circa.format.schema.SchemaCatalog.get()
+                    .validate(dev.circa.format.schema.SchemaCatalog.Kind.REGIONS, tree));
+        }
+    }
+
     private static byte[] bytes(RegionGraph g) throws IOException {
         ByteArrayOutputStream out = new ByteArrayOutputStream();
         new RegionGraphWriter().write(g, out);

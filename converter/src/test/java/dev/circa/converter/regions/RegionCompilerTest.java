@@ -90,6 +90,9 @@ class RegionCompilerTest {
             assertTrue(passes(got, want), "got " + got + ", SciPy reference " + want);
         }
         assertEquals(List.of("joint"), doc.outputs().stream().map(o -> o.name()).toList());
+        assertEquals(List.of(), dev.circa.format.schema.SchemaCatalog.get().validate(
+                dev.circa.format.schema.SchemaCatalog.Kind.CIRCUIT,
+                dev.circa.format.io.JsonInput.mapperFor(dev.circa.format.io.ReadLimits.DEFAULT).readTree(bytes(doc))));
     }
 
     @Test

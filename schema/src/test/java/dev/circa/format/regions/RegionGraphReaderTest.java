@@ -67,6 +67,17 @@ class RegionGraphReaderTest {
     }
 
     @Test
+    void write_example_conformsToRegionsSchema() throws IOException {
+        RegionGraph g = new RegionGraphReader().read(EXAMPLE);
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        new RegionGraphWriter().write(g, out);
+        tools.jackson.databind.JsonNode tree = dev.circa.format.io.JsonInput.mapperFor(dev.circa.format.io.ReadLimits.DEFAULT)
+                .readTree(out.toByteArray());
+        assertEquals(List.of(), dev.circa.format.schema.SchemaCatalog.get()
+                .validate(dev.circa.format.schema.SchemaCatalog.Kind.REGIONS, tree));
+    }
+
+    @Test
     void read_membersInAnyOrder_sameGraph() throws FormatException {
         String json = """
                 {"partitions": [{"parts": [1, 2], "region": 0}],
