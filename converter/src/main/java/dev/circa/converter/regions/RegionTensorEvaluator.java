@@ -18,6 +18,7 @@ public final class RegionTensorEvaluator {
     private final double[][] logw;
     private double[][] tensor;
     private int capacity;
+    private int[] digit = new int[2];
 
     /** An evaluator of the model that {@code params} define. */
     public RegionTensorEvaluator(RegionParameters params) {
@@ -138,7 +139,10 @@ public final class RegionTensorEvaluator {
         for (int part : s.partitionsOf(r)) {
             int[] parts = s.parts(part);
             int m = parts.length;
-            int[] digit = new int[m];
+            if (digit.length < m) {
+                digit = new int[m];
+            }
+            java.util.Arrays.fill(digit, 0, m, 0);
             boolean more = true;
             while (more) {
                 double v = 0;
