@@ -1,0 +1,263 @@
+package dev.circa.engine;
+
+import dev.circa.engine.family.Families;
+import dev.circa.engine.family.MvNormal;
+import dev.circa.engine.family.MvNormalWorkspace;
+import dev.circa.engine.internal.CircuitData;
+import dev.circa.engine.internal.ForwardKernel;
+import java.util.Arrays;
+
+/**
+ * Evaluates a {@link CompiledCircuit} on batches of rows in log space, so nothing underflows.
+ *
+ * <p>Data layout (every method): {@code data} is row-major, {@code rows x variableCount()} cells; NaN is a
+ * missing value, which is marginalised (an input over a missing variable has value 1); a discrete value
+ * is the double of its state index or count. A value outside an input's support has density 0 (log -inf).
+ *
+ * <p>Not thread-safe: use one evaluator per thread (they may share the circuit). An evaluator owns a
+ * workspace of about {@code nodeCount x chunk} doubles that is grown on first use and reused by every
+ * later call; rows are processed in chunks of at most {@value #MAX_CHUNK_ROWS} rows, fewer for circuits
+ * so large that the workspace would pass {@value #VALUE_BUDGET} doubles, so memory stays bounded for any
+ * batch size. No call allocates inside its evaluation loop.
+ */
+public final class Evaluator {
+    /** Largest number of rows evaluated together. */
+    public static final int MAX_CHUNK_ROWS = 64;
+    /** Largest number of doubles in the value workspace (64 MiB), unless one row alone needs more. */
+    public static final int VALUE_BUDGET = 1 << 23;
+
+    private final CompiledCircuit circuit;
+    private final CircuitData c;
+    private final int chunk;
+    private final double[] scratch;
+    private final MvNormalWorkspace mvn;
+    private double[] value = new double[0];
+    private double[] partial = new double[0];
+    private boolean[] hide;
+    private int[] stack;
+    private int[] stamp;
+    private int generation;
+
+    /** An evaluator for {@code circuit}. */
+    public Evaluator(CompiledCircuit circuit) {
+        this.circuit = circuit;
+        this.c = circuit.data();
+        this.chunk = Math.max(1, Math.min(MAX_CHUNK_ROWS, VALUE_BUDGET / Math.max(1, c.nodeCount)));
+        this.scratch = new double[chunk];
+        this.mvn = new MvNormalWorkspace(c.maxInputDimension);
+    }
+
+    /** The circuit this evaluator evaluates. */
+    public CompiledCircuit circuit() {
+        return circuit;
+    }
+
+    /**
+     * Log-density of every output at every row, missing values marginalised.
+     *
+     * @param data input: {@code rows x variableCount()} cells, row-major, NaN = missing
+     * @param rows input: number of rows
+     * @param out output: {@code out[r * outputCount() + o]} = log value of output o at row r (-inf where 0)
+     */
+    public void logDensity(double[] data, int rows, double[] out) {
+        checkBatch(data, rows, out, (long) rows * c.outputNode.length);
+        for (int row0 = 0; row0 < rows; row0 += chunk) {
+            int n = Math.min(chunk, rows - row0);
+            double[] v = run(data, row0, n, null, false);
+            copyOutputs(v, row0, n, out);
+        }
+    }
+
+    /**
+     * Conditional log-density log p(observed cells not given | observed cells given) of every output,
+     * computed in two passes as log p(all observed) - log p(observed given). Missing cells are
+     * marginalised in both. NaN where the given cells have probability 0.
+     *
+     * @param data input: as {@link #logDensity}
+     * @param rows input: number of rows
+     * @param given input: per variable, whether its column is evidence ({@code variableCount()} entries)
+     * @param out output: as {@link #logDensity}
+     */
+    public void conditional(double[] data, int rows, boolean[] given, double[] out) {
+        int outs = c.outputNode.length;
+        checkBatch(data, rows, out, (long) rows * outs);
+        if (given.length != c.variableCount) {
+            throw new IllegalArgumentException("given has " + given.length + " entries (expected "
+                    + c.variableCount + ", one per variable)");
+        }
+        if (hide == null) {
+            hide = new boolean[c.variableCount];
+        }
+        for (int v = 0; v < given.length; v++) {
+            hide[v] = !given[v];
+        }
+        if (partial.length < chunk * outs) {
+            partial = new double[chunk * outs];
+        }
+        for (int row0 = 0; row0 < rows; row0 += chunk) {
+            int n = Math.min(chunk, rows - row0);
+            double[] v = run(data, row0, n, null, false);
+            for (int r = 0; r < n; r++) {
+                for (int o = 0; o < outs; o++) {
+                    partial[r * outs + o] = v[c.outputNode[o] * n + r];
+                }
+            }
+            v = run(data, row0, n, hide, false);
+            for (int r = 0; r < n; r++) {
+                for (int o = 0; o < outs; o++) {
+                    double evidence = v[c.outputNode[o] * n + r];
+                    out[(row0 + r) * outs + o] = evidence == Double.NEGATIVE_INFINITY ? Double.NaN
+                            : partial[r * outs + o] - evidence;
+                }
+            }
+        }
+    }
+
+    /**
+     * Log-partition log Z of every output: its value with every variable missing. For a smooth,
+     * decomposable circuit, 0 means normalised.
+     *
+     * @return a new array, one entry per output
+     */
+    public double[] logPartition() {
+        double[] missing = new double[c.variableCount];
+        Arrays.fill(missing, Double.NaN);
+        double[] out = new double[c.outputNode.length];
+        logDensity(missing, 1, out);
+        return out;
+    }
+
+    /**
+     * Most probable explanation by max-product and backtracking: each row's missing cells filled with the
+     * values of the best assignment reached from {@code output}. For a smooth, decomposable and
+     * deterministic circuit this is the exact MPE and {@code logValue} its log-density; for other circuits
+     * it is an approximation (the caller states which). Variables outside the output's scope stay NaN.
+     *
+     * @param data input: as {@link #logDensity}
+     * @param rows input: number of rows
+     * @param output input: the output's index
+     * @param completed output: {@code rows x variableCount()} cells, {@code data} with missing cells filled
+     * @param logValue output: per row, the max-product value of the output
+     */
+    public void mpe(double[] data, int rows, int output, double[] completed, double[] logValue) {
+        int nv = c.variableCount;
+        checkBatch(data, rows, completed, (long) rows * nv);
+        if (logValue.length < rows) {
+            throw new IllegalArgumentException("logValue has " + logValue.length + " entries (expected " + rows + ")");
+        }
+        if (output < 0 || output >= c.outputNode.length) {
+            throw new IllegalArgumentException("no output " + output);
+        }
+        if (stack == null) {
+            stack = new int[c.nodeCount];
+            stamp = new int[c.nodeCount];
+        }
+        int root = c.outputNode[output];
+        for (int row0 = 0; row0 < rows; row0 += chunk) {
+            int n = Math.min(chunk, rows - row0);
+            double[] v = run(data, row0, n, null, true);
+            for (int r = 0; r < n; r++) {
+                logValue[row0 + r] = v[root * n + r];
+                System.arraycopy(data, (row0 + r) * nv, completed, (row0 + r) * nv, nv);
+                backtrack(v, n, r, root, completed, (row0 + r) * nv);
+            }
+        }
+    }
+
+    private void backtrack(double[] v, int n, int r, int root, double[] completed, int rowBase) {
+        int mark = nextGeneration();
+        int top = 0;
+        stack[top++] = root;
+        stamp[root] = mark;
+        while (top > 0) {
+            int i = stack[--top];
+            int s = c.childStart[i];
+            int end = c.childStart[i + 1];
+            if (c.kind[i] == CircuitData.PRODUCT) {
+                for (int e = end - 1; e >= s; e--) {
+                    int child = c.childIndex[e];
+                    if (stamp[child] != mark) {
+                        stamp[child] = mark;
+                        stack[top++] = child;
+                    }
+                }
+            } else if (c.kind[i] == CircuitData.SUM) {
+                int best = c.childIndex[s];
+                double bestValue = c.logWeight[s] + v[best * n + r];
+                for (int e = s + 1; e < end; e++) {
+                    double t = c.logWeight[e] + v[c.childIndex[e] * n + r];
+                    if (t > bestValue) {
+                        bestValue = t;
+                        best = c.childIndex[e];
+                    }
+                }
+                if (stamp[best] != mark) {
+                    stamp[best] = mark;
+                    stack[top++] = best;
+                }
+            } else {
+                fillMode(c.inputSlot[i], completed, rowBase);
+            }
+        }
+    }
+
+    private void fillMode(int slot, double[] completed, int rowBase) {
+        int code = c.family[slot];
+        int off = c.paramStart[slot];
+        int vs = c.varStart[slot];
+        if (code == Families.MVNORMAL) {
+            int d = c.varStart[slot + 1] - vs;
+            for (int a = 0; a < d; a++) {
+                mvn.value[a] = completed[rowBase + c.varIndex[vs + a]];
+            }
+            MvNormal.maxLogDensity(c.params, off, d, c.factor, c.factorStart[slot], mvn);
+            for (int a = 0; a < d; a++) {
+                completed[rowBase + c.varIndex[vs + a]] = mvn.value[a];
+            }
+            return;
+        }
+        int var = c.varIndex[vs];
+        if (Double.isNaN(completed[rowBase + var])) {
+            completed[rowBase + var] = Families.mode(code, c.params, off, c.paramStart[slot + 1] - off);
+        }
+    }
+
+    private int nextGeneration() {
+        if (++generation == Integer.MAX_VALUE) {
+            Arrays.fill(stamp, 0);
+            generation = 1;
+        }
+        return generation;
+    }
+
+    private double[] run(double[] data, int row0, int n, boolean[] hidden, boolean max) {
+        long need = (long) c.nodeCount * n;
+        if (value.length < need) {
+            value = new double[(int) Math.min(Integer.MAX_VALUE - 8, (long) c.nodeCount * chunk)];
+        }
+        ForwardKernel.run(c, data, row0, n, hidden, max, value, scratch, mvn);
+        return value;
+    }
+
+    private void copyOutputs(double[] v, int row0, int n, double[] out) {
+        int outs = c.outputNode.length;
+        for (int r = 0; r < n; r++) {
+            for (int o = 0; o < outs; o++) {
+                out[(row0 + r) * outs + o] = v[c.outputNode[o] * n + r];
+            }
+        }
+    }
+
+    private void checkBatch(double[] data, int rows, double[] out, long outNeeded) {
+        if (rows < 0) {
+            throw new IllegalArgumentException("rows = " + rows + " (expected >= 0)");
+        }
+        if (data.length < (long) rows * c.variableCount) {
+            throw new IllegalArgumentException("data has " + data.length + " cells (expected at least "
+                    + (long) rows * c.variableCount + " for " + rows + " rows)");
+        }
+        if (out.length < outNeeded) {
+            throw new IllegalArgumentException("output has " + out.length + " entries (expected at least " + outNeeded + ")");
+        }
+    }
+}

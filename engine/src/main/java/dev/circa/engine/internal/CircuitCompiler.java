@@ -1,0 +1,298 @@
+package dev.circa.engine.internal;
+
+import dev.circa.engine.CompileException;
+import dev.circa.engine.family.Families;
+import dev.circa.format.CircuitDocument;
+import dev.circa.format.Family;
+import dev.circa.format.InputNode;
+import dev.circa.format.Node;
+import dev.circa.format.Output;
+import dev.circa.format.SumNode;
+import dev.circa.format.Variable;
+import dev.circa.format.VariableType;
+import java.util.List;
+import java.util.Locale;
+import org.ejml.data.DMatrixRMaj;
+import org.ejml.dense.row.factory.DecompositionFactory_DDRM;
+import org.ejml.interfaces.decomposition.CholeskyDecomposition_F64;
+
+/** Builds {@link CircuitData} from a document in two passes over its nodes, checking every reference. */
+public final class CircuitCompiler {
+    private CircuitCompiler() {
+    }
+
+    /** Compiles {@code doc}; throws when a reference, a count or a parameter is broken. */
+    public static CircuitData compile(CircuitDocument doc) throws CompileException {
+        List<Variable> variables = doc.variables();
+        List<Node> nodes = doc.nodes();
+        int n = nodes.size();
+        if (n == 0) {
+            throw new CompileException(-1, "the circuit has no nodes (expected at least one)");
+        }
+        int[] nodeId = new int[n];
+        boolean identity = true;
+        long edges = 0;
+        int inputs = 0;
+        long varTotal = 0;
+        long paramTotal = 0;
+        long factorTotal = 0;
+        for (int i = 0; i < n; i++) {
+            Node node = nodes.get(i);
+            int id = node.id();
+            if (id < 0) {
+                throw new CompileException(i, where(i, id) + " has a negative id (expected >= 0)");
+            }
+            nodeId[i] = id;
+            identity &= id == i;
+            edges += node.children().length;
+            if (node instanceof InputNode in) {
+                inputs++;
+                varTotal += in.vars().length;
+                paramTotal += in.params().length;
+                if (in.family() == Family.MVNORMAL) {
+                    factorTotal += (long) in.vars().length * in.vars().length + 1;
+                }
+            }
+        }
+        if (edges > Integer.MAX_VALUE - 8 || paramTotal > Integer.MAX_VALUE - 8 || factorTotal > Integer.MAX_VALUE - 8) {
+            throw new CompileException(-1, "the circuit is too large to compile (more than 2^31 edges or parameters)");
+        }
+        IdIndex ids = null;
+        if (!identity) {
+            ids = new IdIndex(n);
+            for (int i = 0; i < n; i++) {
+                int previous = ids.putIfAbsent(nodeId[i], i);
+                if (previous >= 0) {
+                    throw new CompileException(i, where(i, nodeId[i]) + " repeats the id of /nodes/" + previous
+                            + " (expected unique ids)");
+                }
+            }
+        }
+        byte[] kind = new byte[n];
+        int[] childStart = new int[n + 1];
+        int[] childIndex = new int[(int) edges];
+        double[] logWeight = new double[(int) edges];
+        int[] inputSlot = new int[n];
+        byte[] family = new byte[inputs];
+        int[] inputNode = new int[inputs];
+        int[] varStart = new int[inputs + 1];
+        int[] varIndex = new int[(int) varTotal];
+        int[] paramStart = new int[inputs + 1];
+        double[] params = new double[(int) paramTotal];
+        int[] factorStart = new int[inputs];
+        double[] factor = new double[(int) factorTotal];
+        int maxDim = 0;
+        int e = 0;
+        int slot = 0;
+        int vp = 0;
+        int pp = 0;
+        int fp = 0;
+        for (int i = 0; i < n; i++) {
+            Node node = nodes.get(i);
+            childStart[i] = e;
+            inputSlot[i] = -1;
+            if (node instanceof InputNode in) {
+                kind[i] = CircuitData.INPUT;
+                inputSlot[i] = slot;
+                checkInput(i, in, variables);
+                family[slot] = (byte) Families.code(in.family(), in.logForm());
+                inputNode[slot] = i;
+                varStart[slot] = vp;
+                for (int v : in.vars()) {
+                    varIndex[vp++] = v;
+                }
+                paramStart[slot] = pp;
+                System.arraycopy(in.params(), 0, params, pp, in.params().length);
+                pp += in.params().length;
+                factorStart[slot] = -1;
+                maxDim = Math.max(maxDim, in.vars().length);
+                if (in.family() == Family.MVNORMAL) {
+                    factorStart[slot] = fp;
+                    fp = choleskyInto(i, in, factor, fp);
+                }
+                slot++;
+            } else {
+                int[] children = node.children();
+                if (children.length == 0) {
+                    throw new CompileException(i, where(i, nodeId[i]) + " has no children (expected at least one)");
+                }
+                boolean sum = node instanceof SumNode;
+                kind[i] = sum ? CircuitData.SUM : CircuitData.PRODUCT;
+                SumNode s = sum ? (SumNode) node : null;
+                if (sum && s.weights().length != children.length) {
+                    throw new CompileException(i, String.format(Locale.ROOT,
+                            "%s has %d %s for %d children (expected one per child)", where(i, nodeId[i]),
+                            s.weights().length, s.logWeights() ? "logWeights" : "weights", children.length));
+                }
+                for (int j = 0; j < children.length; j++) {
+                    int c = ids == null ? (children[j] >= 0 && children[j] < n ? children[j] : -1) : ids.get(children[j]);
+                    if (c < 0) {
+                        throw new CompileException(i, where(i, nodeId[i]) + " refers to child id " + children[j]
+                                + ", which no node has");
+                    }
+                    if (c >= i) {
+                        throw new CompileException(i, where(i, nodeId[i]) + " refers to child id " + children[j]
+                                + " at /nodes/" + c + ", which does not come earlier (expected children first)");
+                    }
+                    childIndex[e] = c;
+                    if (sum) {
+                        double w = s.weights()[j];
+                        if (s.logWeights() ? Double.isNaN(w) || w == Double.POSITIVE_INFINITY : !(w >= 0) || Double.isInfinite(w)) {
+                            throw new CompileException(i, String.format(Locale.ROOT, "%s has %s %s for child %d (expected %s)",
+                                    where(i, nodeId[i]), s.logWeights() ? "log-weight" : "weight", w, j,
+                                    s.logWeights() ? "a finite number" : "a finite number >= 0"));
+                        }
+                        logWeight[e] = s.logWeights() ? w : Math.log(w);
+                    }
+                    e++;
+                }
+            }
+        }
+        childStart[n] = e;
+        varStart[inputs] = vp;
+        paramStart[inputs] = pp;
+        List<Output> outputs = doc.outputs();
+        if (outputs.isEmpty()) {
+            throw new CompileException(-1, "the circuit has no outputs (expected at least one)");
+        }
+        int[] outputNode = new int[outputs.size()];
+        String[] outputName = new String[outputs.size()];
+        for (int o = 0; o < outputs.size(); o++) {
+            Output out = outputs.get(o);
+            int c = ids == null ? (out.node() >= 0 && out.node() < n ? out.node() : -1) : ids.get(out.node());
+            if (c < 0) {
+                throw new CompileException(-1, "output \"" + out.name() + "\" names node id " + out.node()
+                        + ", which no node has");
+            }
+            outputNode[o] = c;
+            outputName[o] = out.name();
+        }
+        return new CircuitData(n, variables.size(), kind, nodeId, childStart, childIndex, logWeight, inputSlot, family,
+                inputNode, varStart, varIndex, paramStart, params, factorStart, factor, maxDim, outputNode, outputName, ids);
+    }
+
+    private static String where(int i, int id) {
+        return "node " + id + " (/nodes/" + i + ")";
+    }
+
+    private static void checkInput(int i, InputNode in, List<Variable> variables) throws CompileException {
+        Family f = in.family();
+        String at = where(i, in.id());
+        int[] vars = in.vars();
+        if (f == Family.MVNORMAL ? vars.length < 2 : vars.length != 1) {
+            throw new CompileException(i, String.format(Locale.ROOT, "%s (%s) has %d variables (expected %s)", at,
+                    f.jsonName(), vars.length, f == Family.MVNORMAL ? "2 or more" : "1"));
+        }
+        for (int a = 0; a < vars.length; a++) {
+            int v = vars[a];
+            if (v < 0 || v >= variables.size()) {
+                throw new CompileException(i, String.format(Locale.ROOT,
+                        "%s refers to variable %d (expected an index 0..%d)", at, v, variables.size() - 1));
+            }
+            Variable var = variables.get(v);
+            if (!f.accepts(var.type())) {
+                throw new CompileException(i, String.format(Locale.ROOT,
+                        "%s is %s over variable %s of type %s (expected a variable of type %s)", at, f.jsonName(),
+                        var.name(), var.type().jsonName(), typeNames(f)));
+            }
+            for (int b = 0; b < a; b++) {
+                if (vars[b] == v) {
+                    throw new CompileException(i, at + " names variable " + var.name() + " twice (expected distinct variables)");
+                }
+            }
+        }
+        double[] p = in.params();
+        int expected = switch (f) {
+            case CATEGORICAL -> variables.get(vars[0]).stateCount();
+            case MVNORMAL -> vars.length + vars.length * vars.length;
+            default -> f.parameters().size();
+        };
+        if (p.length != expected) {
+            throw new CompileException(i, String.format(Locale.ROOT, "%s (%s) has %d parameter values (expected %d)",
+                    at, f.jsonName(), p.length, expected));
+        }
+        for (int k = 0; k < p.length; k++) {
+            boolean logProb = f == Family.CATEGORICAL && in.logForm();
+            if (logProb ? Double.isNaN(p[k]) || p[k] == Double.POSITIVE_INFINITY : !Double.isFinite(p[k])) {
+                throw new CompileException(i, String.format(Locale.ROOT, "%s (%s) has parameter value %s (expected a finite number)",
+                        at, f.jsonName(), p[k]));
+            }
+        }
+        String problem = switch (f) {
+            case BERNOULLI -> p[0] >= 0 && p[0] <= 1 ? null : "p = " + num(p[0]) + " (expected 0 <= p <= 1)";
+            case CATEGORICAL -> in.logForm() ? null : negativeProbability(p);
+            case INDICATOR -> p[0] == Math.rint(p[0]) && p[0] >= 0 && p[0] < Math.max(2, variables.get(vars[0]).stateCount())
+                    ? null : "value = " + num(p[0]) + " (expected a state index of " + variables.get(vars[0]).name() + ")";
+            case NORMAL -> p[1] > 0 ? null : "sd = " + num(p[1]) + " (expected > 0)";
+            case LOGNORMAL -> p[1] > 0 ? null : "sigma = " + num(p[1]) + " (expected > 0)";
+            case EXPONENTIAL, POISSON -> p[0] > 0 ? null : "rate = " + num(p[0]) + " (expected > 0)";
+            case GAMMA -> p[0] > 0 && p[1] > 0 ? null
+                    : "shape = " + num(p[0]) + ", rate = " + num(p[1]) + " (expected both > 0)";
+            case BETA -> p[0] > 0 && p[1] > 0 ? null
+                    : "alpha = " + num(p[0]) + ", beta = " + num(p[1]) + " (expected both > 0)";
+            case UNIFORM -> p[0] < p[1] ? null : "low = " + num(p[0]) + ", high = " + num(p[1]) + " (expected low < high)";
+            case BINOMIAL -> p[0] >= 0 && p[0] == Math.rint(p[0]) && p[1] >= 0 && p[1] <= 1 ? null
+                    : "trials = " + num(p[0]) + ", p = " + num(p[1]) + " (expected an integer >= 0 and 0 <= p <= 1)";
+            case MVNORMAL -> null;
+        };
+        if (problem != null) {
+            throw new CompileException(i, at + " (" + f.jsonName() + ") has " + problem);
+        }
+    }
+
+    private static String negativeProbability(double[] p) {
+        for (int k = 0; k < p.length; k++) {
+            if (p[k] < 0) {
+                return "probs[" + k + "] = " + num(p[k]) + " (expected >= 0)";
+            }
+        }
+        return null;
+    }
+
+    private static String num(double v) {
+        return String.format(Locale.ROOT, "%s", v);
+    }
+
+    private static String typeNames(Family f) {
+        StringBuilder b = new StringBuilder();
+        for (VariableType t : VariableType.values()) {
+            if (f.accepts(t)) {
+                b.append(b.length() == 0 ? "" : " or ").append(t.jsonName());
+            }
+        }
+        return b.toString();
+    }
+
+    /** Writes the lower Cholesky factor (row-major) and sum(log L_ii) at {@code factor[at]}; returns the next free index. */
+    private static int choleskyInto(int i, InputNode in, double[] factor, int at) throws CompileException {
+        int d = in.vars().length;
+        double[] p = in.params();
+        DMatrixRMaj cov = new DMatrixRMaj(d, d);
+        for (int r = 0; r < d; r++) {
+            for (int c = 0; c < d; c++) {
+                // the lower triangle is the covariance; the validator checks symmetry
+                cov.set(r, c, r >= c ? p[d + r * d + c] : p[d + c * d + r]);
+            }
+        }
+        CholeskyDecomposition_F64<DMatrixRMaj> chol = DecompositionFactory_DDRM.chol(d, true);
+        boolean ok = chol.decompose(cov);
+        DMatrixRMaj l = ok ? chol.getT(null) : null;
+        double logDiag = 0;
+        for (int r = 0; ok && r < d; r++) {
+            double pivot = l.get(r, r);
+            ok = pivot > 0 && Double.isFinite(pivot);
+            logDiag += Math.log(pivot);
+        }
+        if (!ok) {
+            throw new CompileException(i, where(i, in.id()) + " (mvnormal) has a covariance that is not positive definite"
+                    + " (expected a successful Cholesky factorisation)");
+        }
+        for (int r = 0; r < d; r++) {
+            for (int c = 0; c < d; c++) {
+                factor[at + r * d + c] = c <= r ? l.get(r, c) : 0;
+            }
+        }
+        factor[at + d * d] = logDiag;
+        return at + d * d + 1;
+    }
+}
