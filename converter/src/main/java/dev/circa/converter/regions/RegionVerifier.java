@@ -1,5 +1,7 @@
 package dev.circa.converter.regions;
 
+import dev.circa.engine.CompiledCircuit;
+import dev.circa.engine.Evaluator;
 import java.util.Locale;
 
 /**
@@ -35,6 +37,25 @@ public final class RegionVerifier {
     }
 
     private RegionVerifier() {
+    }
+
+    /**
+     * Compares the engine's evaluation of {@code circuit} (compiled from {@code params}) with the
+     * direct evaluation of {@code params}.
+     *
+     * @param sampled N: points drawn; 2N + 1 rows are compared
+     * @throws IllegalArgumentException when the circuit's variables or outputs do not match
+     */
+    public static Result verify(RegionParameters params, CompiledCircuit circuit, int sampled, long seed, double atol,
+            double rtol) {
+        if (circuit.variableCount() != params.structure().variables().size()
+                || circuit.outputCount() != params.options().outputs()) {
+            throw new IllegalArgumentException("the circuit has " + circuit.variableCount() + " variables and "
+                    + circuit.outputCount() + " outputs; the region graph compiles to "
+                    + params.structure().variables().size() + " and " + params.options().outputs());
+        }
+        Evaluator evaluator = new Evaluator(circuit);
+        return verify(params, evaluator::logDensity, sampled, seed, atol, rtol);
     }
 
     /**

@@ -1,0 +1,54 @@
+package dev.circa.converter.regions;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import dev.circa.engine.CompiledCircuit;
+import dev.circa.engine.Evaluator;
+import dev.circa.format.CircuitDocument;
+import dev.circa.format.Family;
+import dev.circa.format.VariableType;
+import java.util.List;
+import java.util.Map;
+import org.junit.jupiter.api.Test;
+
+/** The compiled circuits through the engine (itself checked against outside values in its module). */
+class EngineAgreementTest {
+    private static final double TOL = 1e-9;
+
+    @Test
+    void engine_exampleWithNumpyParams_reproducesScipyReference() throws Exception {
+        // Source: shared/data/npz/example-reference.csv (NumPy 1.24 / SciPy 1.10), through the engine's Evaluator.
+        CircuitDocument doc = RegionCompiler.compile(RegionCompilerTest.example(), RegionCompilerTest.k3i2c1(),
+                RegionCompilerTest.exampleParams());
+        List<double[]> rows = RegionCompilerTest.referenceRows();
+        double[] data = new double[rows.size() * 4];
+        for (int i = 0; i < rows.size(); i++) {
+            System.arraycopy(rows.get(i), 0, data, i * 4, 4);
+        }
+        double[] out = new double[rows.size()];
+        new Evaluator(CompiledCircuit.compile(doc)).logDensity(data, rows.size(), out);
+        for (int i = 0; i < rows.size(); i++) {
+            double want = rows.get(i)[4];
+            assertTrue(Math.abs(out[i] - want) <= TOL + TOL * Math.abs(want), "row " + i + ": " + out[i] + " vs " + want);
+        }
+    }
+
+    @Test
+    void verify_engineAgainstRegionTensors_agreeWithMissingValues() throws Exception {
+        RegionStructure example = RegionStructure.of(RegionCompilerTest.example());
+        List<RegionParameters> cases = List.of(
+                RegionParameters.fromArchive(example, RegionCompilerTest.k3i2c1(), RegionCompilerTest.exampleParams()),
+                RegionParameters.seeded(RegionStructure.of(RegionCompilerTest.mixedGraph()), new CompileOptions(3, 2, 2,
+                        Map.of(VariableType.REAL, Family.GAMMA, VariableType.COUNT, Family.BINOMIAL)), 4),
+                RegionParameters.seeded(RegionStructure.of(GridRegions.generate(3, 3)), new CompileOptions(3, 3, 1, Map.of()), 5),
+                RegionParameters.seeded(RegionStructure.of(RandomRegions.generate(RandomRegions.realVariables(10), 3, 3, 6)),
+                        new CompileOptions(2, 3, 3, Map.of(VariableType.REAL, Family.LOGNORMAL)), 6));
+        for (RegionParameters p : cases) {
+            CompiledCircuit c = CompiledCircuit.compile(RegionCompiler.compile(p));
+            RegionVerifier.Result r = RegionVerifier.verify(p, c, 200, 11, TOL, TOL);
+            assertTrue(r.passed(), r.summary());
+            assertEquals(401, r.points());
+        }
+    }
+}
