@@ -6,9 +6,12 @@ import java.util.Locale;
 
 /**
  * Checks a compiled circuit against the region-by-region evaluation of the parameters it was
- * compiled from ({@link RegionTensorEvaluator}): on points drawn from the model (ancestral sampling
- * with a seeded {@link SplitMix64}), the same points with random variables missing (each cell
- * missing with probability 1/2), and the point with every variable missing. A point passes when
+ * compiled from ({@link RegionTensorEvaluator}): on N points drawn from the model (ancestral
+ * sampling with a seeded {@link SplitMix64}), the same points with random variables missing (each
+ * cell missing with probability 1/2), N random assignments that ignore the model (real values
+ * uniform in [-4, 16), counts uniform in 0..20, states uniform; each cell missing with probability
+ * 1/2; values outside an input's support must give -inf on both sides), and the point with every
+ * variable missing: 3N + 1 rows. A point passes when
  * |circuit - direct| <= atol + rtol * |direct| for every output; -inf matches only -inf.
  * Stateless.
  */
@@ -43,7 +46,7 @@ public final class RegionVerifier {
      * Compares the engine's evaluation of {@code circuit} (compiled from {@code params}) with the
      * direct evaluation of {@code params}.
      *
-     * @param sampled N: points drawn; 2N + 1 rows are compared
+     * @param sampled N: points drawn; 3N + 1 rows are compared
      * @throws IllegalArgumentException when the circuit's variables or outputs do not match
      */
     public static Result verify(RegionParameters params, CompiledCircuit circuit, int sampled, long seed, double atol,
@@ -61,12 +64,12 @@ public final class RegionVerifier {
     /**
      * Compares {@code circuit} with the direct evaluation of {@code params}.
      *
-     * @param sampled N: points drawn; 2N + 1 rows are compared
+     * @param sampled N: points drawn; 3N + 1 rows are compared
      */
     public static Result verify(RegionParameters params, CircuitEvaluation circuit, int sampled, long seed,
             double atol, double rtol) {
         int nv = params.structure().variables().size();
-        int rows = 2 * sampled + 1;
+        int rows = 3 * sampled + 1;
         double[] data = new double[rows * nv];
         RegionSampler sampler = new RegionSampler(params, seed);
         SplitMix64 mask = new SplitMix64(seed ^ 0x6D697373696E67L);
@@ -78,6 +81,17 @@ public final class RegionVerifier {
             for (int v = 0; v < nv; v++) {
                 double x = data[i * nv + v];
                 data[(sampled + i) * nv + v] = mask.nextDouble() < 0.5 ? Double.NaN : x;
+            }
+        }
+        for (int i = 0; i < sampled; i++) {
+            for (int v = 0; v < nv; v++) {
+                dev.circa.format.Variable var = params.structure().variables().get(v);
+                double x = switch (var.type()) {
+                    case REAL -> mask.uniform(-4, 16);
+                    case COUNT -> mask.nextInt(21);
+                    case BINARY, CATEGORICAL -> mask.nextInt(var.stateCount());
+                };
+                data[(2 * sampled + i) * nv + v] = mask.nextDouble() < 0.5 ? Double.NaN : x;
             }
         }
         for (int v = 0; v < nv; v++) {

@@ -378,7 +378,7 @@ class RegionCompilerTest {
         CircuitDocument doc = RegionCompiler.compile(p);
         RegionVerifier.Result ok = RegionVerifier.verify(p, CircuitMath.evaluation(doc), 50, 3, TOL, TOL);
         assertTrue(ok.passed(), ok.summary());
-        assertEquals(101, ok.points());
+        assertEquals(151, ok.points());
         List<Node> nodes = new ArrayList<>(doc.nodes());
         SumNode root = (SumNode) nodes.get(nodes.size() - 1);
         double[] w = root.weights().clone();
