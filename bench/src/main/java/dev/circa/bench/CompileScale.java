@@ -3,6 +3,10 @@ package dev.circa.bench;
 import dev.circa.converter.regions.CompileOptions;
 import dev.circa.converter.regions.RandomRegions;
 import dev.circa.converter.regions.RegionCompiler;
+import dev.circa.converter.regions.RegionParameters;
+import dev.circa.converter.regions.RegionStructure;
+import dev.circa.converter.regions.RegionVerifier;
+import dev.circa.engine.CompiledCircuit;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.InputNode;
 import dev.circa.format.Node;
@@ -24,7 +28,8 @@ import tools.jackson.core.JsonGenerator;
 
 /**
  * Compiles a random region graph into a circuit of about 10^7 edges and writes it, reporting time
- * and peak heap, beside a bare streaming Jackson write of as many numbers in the same run. Not a
+ * and peak heap, beside a bare streaming Jackson write of as many numbers in the same run; also
+ * times the engine's compile and a short verification against the region-by-region evaluation. Not a
  * test; one run, one line per phase on standard output.
  *
  * <p>Run from the repository root (Java 17), one command:
@@ -34,6 +39,9 @@ import tools.jackson.core.JsonGenerator;
  * Defaults 256 6 15 24 24 (a random region graph, seed 1; parameters seed 7): about 10^7 edges.
  */
 public final class CompileScale {
+    /** Points sampled for the verification phase (3N + 1 rows, each costing about one pass over the edges per side). */
+    private static final int VERIFY_POINTS = 10;
+
     private CompileScale() {
     }
 
@@ -50,7 +58,8 @@ public final class CompileScale {
         RegionGraph g = RandomRegions.generate(RandomRegions.realVariables(vars), depth, repeats, 1);
         resetPeaks();
         long t0 = System.nanoTime();
-        CircuitDocument doc = RegionCompiler.compile(g, new CompileOptions(sums, inputs, 1, Map.of()), 7);
+        RegionParameters params = RegionParameters.seeded(RegionStructure.of(g), new CompileOptions(sums, inputs, 1, Map.of()), 7);
+        CircuitDocument doc = RegionCompiler.compile(params);
         long t1 = System.nanoTime();
         new CircuitWriter().write(doc, circuitFile);
         long t2 = System.nanoTime();
@@ -67,7 +76,16 @@ public final class CompileScale {
         }
         int nodes = doc.nodes().size();
         long circuitBytes = Files.size(circuitFile);
+
+        resetPeaks();
+        long t5 = System.nanoTime();
+        CompiledCircuit compiled = CompiledCircuit.compile(doc);
         doc = null;
+        RegionVerifier.Result verified = RegionVerifier.verify(params, compiled, VERIFY_POINTS, 3, 1e-9, 1e-9);
+        long t6 = System.nanoTime();
+        long peakVerify = peakHeap();
+        compiled = null;
+        params = null;
         System.gc();
 
         resetPeaks();
@@ -86,6 +104,8 @@ public final class CompileScale {
                 circuitBytes);
         System.out.printf(Locale.ROOT, "compile %.2f s + write %.2f s = %.2f s, peak heap %d MiB%n", compileS, writeS,
                 compileS + writeS, peakCompile >> 20);
+        System.out.printf(Locale.ROOT, "engine compile + verify on %d rows: %.2f s, peak heap %d MiB; %s%n",
+                verified.points(), (t6 - t5) / 1e9, peakVerify >> 20, verified.summary());
         System.out.printf(Locale.ROOT, "bare Jackson write of %d doubles: %.2f s (%d bytes), peak heap %d MiB%n", numbers,
                 bareS, bareBytes, peakBare >> 20);
         System.out.printf(Locale.ROOT, "compile+write time / bare write time = %.2f (target <= 2)%n",

@@ -57,4 +57,13 @@ class EngineAgreementTest {
             assertEquals(601, r.points());
         }
     }
+
+    @Test
+    void verify_engineOnOtherParameters_fails() throws Exception {
+        RegionStructure s = RegionStructure.of(GridRegions.generate(2, 2));
+        CompileOptions o = new CompileOptions(2, 2, 1, Map.of());
+        CompiledCircuit other = CompiledCircuit.compile(RegionCompiler.compile(RegionParameters.seeded(s, o, 1)));
+        RegionVerifier.Result r = RegionVerifier.verify(RegionParameters.seeded(s, o, 2), other, 20, 3, TOL, TOL);
+        assertTrue(!r.passed() && r.failures() > 0 && r.maxAbsDifference() > 1e-3, r.summary());
+    }
 }
