@@ -1,14 +1,22 @@
 package dev.circa.converter.regions;
 
 import dev.circa.format.Provenance;
+import dev.circa.format.ReadFinding;
+import dev.circa.format.SourceLocation;
 import dev.circa.format.Variable;
 import dev.circa.format.VariableType;
+import dev.circa.format.io.FormatException;
+import dev.circa.format.io.JsonInput;
+import dev.circa.format.io.ReadLimits;
+import dev.circa.format.io.VariableListReader;
 import dev.circa.format.regions.Partition;
 import dev.circa.format.regions.Region;
 import dev.circa.format.regions.RegionGraph;
+import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
+import tools.jackson.core.JsonToken;
 
 /**
  * Random region graphs: the variable set split at random to depth D, repeated R times from the root.
@@ -42,6 +50,32 @@ public final class RandomRegions {
             vars.add(Variable.of("x" + i, VariableType.REAL));
         }
         return vars;
+    }
+
+    /**
+     * Reads a JSON array of variables as in FORMAT.md section 1 (for {@code regions random --variables FILE.json});
+     * an unknown property is an error. Whether names are unique is checked when the graph is checked.
+     *
+     * @throws FormatException located at what is wrong
+     */
+    public static List<Variable> readVariables(Path file, ReadLimits limits) throws FormatException {
+        try (JsonInput in = JsonInput.openJson(file, limits)) {
+            JsonToken t = in.next();
+            if (t != JsonToken.START_ARRAY) {
+                throw in.error("", "expected a JSON array of variables, found " + JsonInput.describe(t));
+            }
+            List<ReadFinding> unknown = new ArrayList<>();
+            List<Variable> vars = VariableListReader.read(in, "", unknown);
+            if (!unknown.isEmpty()) {
+                SourceLocation l = unknown.get(0).location();
+                throw new FormatException(in.file(), l.line(), l.column(), l.pointer(), unknown.get(0).message());
+            }
+            in.endDocument();
+            if (vars.isEmpty()) {
+                throw new FormatException(in.file(), 1, 1, "", "the variable list is empty; expected at least one variable");
+            }
+            return vars;
+        }
     }
 
     /**

@@ -16,7 +16,8 @@ import java.util.Map;
  * positions: regions by their index in the document, partitions in document order.
  *
  * <p>The checks, each failing with a {@link FormatException} located at the offending region or
- * partition: region ids unique; every region's {@code vars} non-empty, sorted, unique and in range;
+ * partition: variable names non-empty and unique, a categorical variable with at least two unique
+ * states, a binary one with none or two; region ids unique; every region's {@code vars} non-empty, sorted, unique and in range;
  * every partition names an existing region and at least two existing parts that are pairwise
  * disjoint and together equal its region; exactly one root (a region that is the part of no
  * partition) and its {@code vars} are all the variables; no cycles; every region reachable from the root.
@@ -62,6 +63,7 @@ public final class RegionStructure {
         if (nr == 0) {
             throw fail(graph, SourceLocation.of("/regions"), "a region graph needs at least one region (the root)");
         }
+        checkVariables(graph);
         Map<Integer, Integer> byId = new HashMap<>(nr * 2);
         int[] ids = new int[nr];
         int[][] vars = new int[nr][];
@@ -244,6 +246,33 @@ public final class RegionStructure {
             }
         }
         return order;
+    }
+
+    private static void checkVariables(RegionGraph graph) throws FormatException {
+        Map<String, Integer> names = new HashMap<>();
+        List<Variable> vars = graph.variables();
+        for (int i = 0; i < vars.size(); i++) {
+            Variable v = vars.get(i);
+            SourceLocation at = SourceLocation.of("/variables/" + i);
+            if (v.name().isEmpty()) {
+                throw fail(graph, at, "variable " + i + " has an empty name; expected a non-empty, unique name");
+            }
+            Integer prev = names.putIfAbsent(v.name(), i);
+            if (prev != null) {
+                throw fail(graph, at, "the variable name \"" + v.name() + "\" is used by variables " + prev + " and " + i
+                        + "; expected unique names");
+            }
+            int states = v.states().size();
+            boolean unique = new java.util.HashSet<>(v.states()).size() == states;
+            if (v.type() == dev.circa.format.VariableType.CATEGORICAL && (states < 2 || !unique)) {
+                throw fail(graph, at, "categorical variable \"" + v.name() + "\" has " + states
+                        + (unique ? "" : " (not unique)") + " states; expected at least 2 unique state labels");
+            }
+            if (v.type() == dev.circa.format.VariableType.BINARY && (states != 0 && states != 2 || !unique)) {
+                throw fail(graph, at, "binary variable \"" + v.name() + "\" has " + states
+                        + " state labels; expected none or 2 unique labels");
+            }
+        }
     }
 
     private static FormatException fail(RegionGraph g, SourceLocation at, String problem) {

@@ -130,4 +130,27 @@ class GeneratorsTest {
         new RegionGraphWriter().write(g, out);
         return out.toByteArray();
     }
+
+    @Test
+    void readVariables_jsonArray_variablesOrLocatedError(@org.junit.jupiter.api.io.TempDir java.nio.file.Path dir)
+            throws IOException {
+        java.nio.file.Path ok = dir.resolve("vars.json");
+        java.nio.file.Files.writeString(ok, "[{\"name\": \"inlet_pressure\", \"type\": \"real\", \"unit\": \"bar\"},\n"
+                + " {\"name\": \"valve\", \"type\": \"categorical\", \"states\": [\"closed\", \"half\", \"open\"]}]");
+        List<Variable> vars = RandomRegions.readVariables(ok, dev.circa.format.io.ReadLimits.DEFAULT);
+        assertEquals(2, vars.size());
+        assertEquals(3, vars.get(1).stateCount());
+        RegionStructure.of(RandomRegions.generate(vars, 2, 2, 5));
+        java.nio.file.Path bad = dir.resolve("bad.json");
+        java.nio.file.Files.writeString(bad, "[{\"name\": \"valve\", \"type\": \"real\",\n \"colour\": 1}]");
+        FormatException e = org.junit.jupiter.api.Assertions.assertThrows(FormatException.class,
+                () -> RandomRegions.readVariables(bad, dev.circa.format.io.ReadLimits.DEFAULT));
+        assertTrue(e.getMessage().contains("unknown property \"colour\""), e.getMessage());
+        assertEquals(2, e.line());
+        java.nio.file.Path obj = dir.resolve("obj.json");
+        java.nio.file.Files.writeString(obj, "{}");
+        FormatException f = org.junit.jupiter.api.Assertions.assertThrows(FormatException.class,
+                () -> RandomRegions.readVariables(obj, dev.circa.format.io.ReadLimits.DEFAULT));
+        assertTrue(f.getMessage().contains("expected a JSON array of variables"), f.getMessage());
+    }
 }

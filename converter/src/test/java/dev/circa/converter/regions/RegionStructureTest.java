@@ -94,4 +94,25 @@ class RegionStructureTest {
             assertTrue(e.getMessage().startsWith("rg.json:" + c.line() + ":"), e.getMessage());
         }
     }
+
+    @Test
+    void of_badVariables_pointerAtVariable() {
+        record Case(String vars, String pointer, String fragment) {
+        }
+        List<Case> cases = List.of(
+                new Case("[{\"name\": \"valve\", \"type\": \"real\"}, {\"name\": \"valve\", \"type\": \"count\"}]",
+                        "/variables/1", "used by variables 0 and 1"),
+                new Case("[{\"name\": \"valve\", \"type\": \"categorical\", \"states\": [\"open\"]}, "
+                        + "{\"name\": \"alarm\", \"type\": \"binary\"}]", "/variables/0", "expected at least 2 unique state labels"),
+                new Case("[{\"name\": \"valve\", \"type\": \"real\"}, {\"name\": \"alarm\", \"type\": \"binary\","
+                        + " \"states\": [\"off\", \"on\", \"stuck\"]}]", "/variables/1", "expected none or 2 unique labels"));
+        for (Case c : cases) {
+            String doc = "{\"format\": \"circa.regions\", \"version\": \"1.0\", \"variables\": " + c.vars()
+                    + ", \"regions\": [{\"id\": 0, \"vars\": [0, 1]}]}";
+            FormatException e = assertThrows(FormatException.class,
+                    () -> RegionStructure.of(new RegionGraphReader().readString(doc, "v.json")));
+            assertTrue(e.getMessage().contains(c.fragment()), e.getMessage());
+            assertEquals(c.pointer(), e.pointer());
+        }
+    }
 }
