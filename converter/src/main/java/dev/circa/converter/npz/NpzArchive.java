@@ -19,6 +19,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.zip.CRC32;
+import java.util.zip.CheckedInputStream;
 import java.util.zip.ZipEntry;
 import java.util.zip.ZipException;
 import java.util.zip.ZipFile;
@@ -80,12 +81,14 @@ public final class NpzArchive {
                 String key = keyOf(e, file);
                 long limit = e.getSize() >= 0 ? Math.min(budget, e.getSize()) : budget;
                 try (InputStream in = new BufferedInputStream(zip.getInputStream(e), 1 << 16)) {
-                    Counting counted = new Counting(in);
+                    CheckedInputStream checked = new CheckedInputStream(in, new CRC32());
+                    Counting counted = new Counting(checked);
                     NpyArray a = NpyFormat.read(counted, key, file, limit);
                     budget -= counted.count;
+                    if (e.getCrc() != -1 && checked.getChecksum().getValue() != e.getCrc()) {
+                        throw NpyFormat.problem(file, key, "the zip entry's CRC-32 does not match its data (a damaged file)");
+                    }
                     put(out, a, file);
-                } catch (ZipException ze) {
-                    throw NpyFormat.problem(file, key, "the zip entry is damaged: " + ze.getMessage());
                 }
             }
         } catch (NoSuchFileException e) {

@@ -239,6 +239,31 @@ class NpzArchiveTest {
     }
 
     @Test
+    void read_damagedEntries_errorsNameTheArray() throws IOException {
+        // Source: fixtures/npz/arrays.npz (NumPy 1.24, stored) with one value byte flipped, and
+        // arrays-compressed.npz with its deflated data overwritten.
+        byte[] stored = Files.readAllBytes(NPZ.resolve("arrays.npz"));
+        byte[] flipped = stored.clone();
+        int at = indexOf(flipped, (byte) 0x93) + 128 + 3;
+        flipped[at] ^= 0x40;
+        Path p = tmp.resolve("flipped.npz");
+        Files.write(p, flipped);
+        FormatException e = assertThrows(FormatException.class, () -> NpzArchive.read(p, 1 << 20));
+        assertTrue(e.getMessage().contains("array f8_c: the zip entry's CRC-32 does not match"), e.getMessage());
+        FormatException s = assertThrows(FormatException.class,
+                () -> NpzArchive.read(new ByteArrayInputStream(flipped), "flipped.npz", 1 << 20));
+        assertTrue(s.getMessage().contains("array f8_c: cannot be read"), s.getMessage());
+        byte[] deflated = Files.readAllBytes(NPZ.resolve("arrays-compressed.npz"));
+        for (int i = 60; i < 90; i++) {
+            deflated[i] = (byte) 0xff;
+        }
+        Path q = tmp.resolve("broken.npz");
+        Files.write(q, deflated);
+        FormatException d = assertThrows(FormatException.class, () -> NpzArchive.read(q, 1 << 20));
+        assertTrue(d.getMessage().contains("array f8_c: "), d.getMessage());
+    }
+
+    @Test
     void read_notNpyEntryOrNotZip_errors() throws IOException {
         Path p = tmp.resolve("other.npz");
         Files.write(p, zip(false, Map.of("readme.txt", "hello".getBytes(StandardCharsets.US_ASCII))));
