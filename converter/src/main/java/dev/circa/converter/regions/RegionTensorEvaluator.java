@@ -7,11 +7,15 @@ import dev.circa.format.Family;
  * building or reading a circuit: each region holds a tensor of shape (rows, its node count) of
  * log-values (bundles of a leaf, sums of an inner region), filled children first; a partition's
  * products are sums of its parts' log-values over the cross product (first part varying slowest)
- * and a sum is a log-sum-exp of weight plus child. Written separately from the engine to check it.
+ * and a sum is a log-sum-exp of weight plus child. Rows are taken {@value #CHUNK_ROWS} at a time.
+ * Written separately from the engine to check it.
  *
  * <p>Not thread-safe (it keeps its tensors between calls).
  */
 public final class RegionTensorEvaluator {
+    /** Rows evaluated together: the tensors hold this many rows, whatever the number of rows asked for. */
+    public static final int CHUNK_ROWS = 64;
+
     private final RegionParameters p;
     private final RegionStructure s;
     private final Layout layout;
@@ -56,6 +60,19 @@ public final class RegionTensorEvaluator {
      * @param out output: {@code out[row * outputCount() + o]}
      */
     public void logDensity(double[] data, int rows, double[] out) {
+        int nv = s.variables().size();
+        int co = outputCount();
+        double[] chunkData = new double[Math.min(rows, CHUNK_ROWS) * nv];
+        double[] chunkOut = new double[Math.min(rows, CHUNK_ROWS) * co];
+        for (int from = 0; from < rows; from += CHUNK_ROWS) {
+            int n = Math.min(CHUNK_ROWS, rows - from);
+            System.arraycopy(data, from * nv, chunkData, 0, n * nv);
+            chunk(chunkData, n, chunkOut);
+            System.arraycopy(chunkOut, 0, out, from * co, n * co);
+        }
+    }
+
+    private void chunk(double[] data, int rows, double[] out) {
         int nv = s.variables().size();
         int nr = s.regionCount();
         if (tensor == null || capacity < rows) {
