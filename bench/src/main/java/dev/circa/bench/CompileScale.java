@@ -34,14 +34,11 @@ import tools.jackson.core.JsonGenerator;
  *
  * <p>Run from the repository root (Java 17), one command:
  * <pre>
- * mvn -B -q package -pl bench -am -DskipTests &amp;&amp; java -Xmx4g -cp bench/target/benchmarks.jar dev.circa.bench.CompileScale [VARS DEPTH REPEATS SUMS INPUTS]
+ * mvn -B -q package -pl bench -am -DskipTests &amp;&amp; java -Xmx4g -cp bench/target/benchmarks.jar dev.circa.bench.CompileScale [VARS DEPTH REPEATS SUMS INPUTS VERIFY_POINTS]
  * </pre>
- * Defaults 256 6 15 24 24 (a random region graph, seed 1; parameters seed 7): about 10^7 edges.
+ * Defaults 256 6 15 24 24 10 (a random region graph, seed 1; parameters seed 7): about 10^7 edges.
  */
 public final class CompileScale {
-    /** Points sampled for the verification phase (3N + 1 rows, each costing about one pass over the edges per side). */
-    private static final int VERIFY_POINTS = 10;
-
     private CompileScale() {
     }
 
@@ -51,6 +48,8 @@ public final class CompileScale {
         int repeats = args.length > 2 ? Integer.parseInt(args[2]) : 15;
         int sums = args.length > 3 ? Integer.parseInt(args[3]) : 24;
         int inputs = args.length > 4 ? Integer.parseInt(args[4]) : 24;
+        // points sampled for the verification phase (3N + 1 rows, each about one pass over the edges per side)
+        int verifyPoints = args.length > 5 ? Integer.parseInt(args[5]) : 10;
         Path dir = Files.createTempDirectory("circa-bench");
         Path circuitFile = dir.resolve("compiled.json");
         Path bareFile = dir.resolve("bare.json");
@@ -81,7 +80,7 @@ public final class CompileScale {
         long t5 = System.nanoTime();
         CompiledCircuit compiled = CompiledCircuit.compile(doc);
         doc = null;
-        RegionVerifier.Result verified = RegionVerifier.verify(params, compiled, VERIFY_POINTS, 3, 1e-9, 1e-9);
+        RegionVerifier.Result verified = RegionVerifier.verify(params, compiled, verifyPoints, 3, 1e-9, 1e-9);
         long t6 = System.nanoTime();
         long peakVerify = peakHeap();
         compiled = null;
