@@ -391,6 +391,24 @@ class RegionCompilerTest {
         assertNotEquals(0, r.failures());
     }
 
+    @Test
+    void tensorEvaluator_zeroWeightOnDominantChild_exactLogSumExp() throws IOException {
+        // A zero weight on the only child that does not underflow: the value is the other child's, about -5000.
+        RegionGraph g = RegionGraph.builder().variables(List.of(Variable.of("inlet_pressure", VariableType.REAL)))
+                .regions(List.of(new Region(0, new int[] {0}))).build();
+        NpzArchive a = NpzArchive.of(List.of(NpyArray.ofDoubles("r0.v0.mean", new int[] {2}, new double[] {0, 100}),
+                NpyArray.ofDoubles("r0.v0.sd", new int[] {2}, new double[] {1, 1}),
+                NpyArray.ofDoubles("r0.weights", new int[] {1, 2}, new double[] {0, 1})));
+        CompileOptions o = new CompileOptions(1, 2, 1, Map.of());
+        RegionParameters p = RegionParameters.fromArchive(RegionStructure.of(g), o, a);
+        double[] out = new double[1];
+        new RegionTensorEvaluator(p).logDensity(new double[] {0}, 1, out);
+        // commons-math3 3.6.1 normal log-density of N(100, 1) at 0
+        double want = new org.apache.commons.math3.distribution.NormalDistribution(null, 100, 1).logDensity(0);
+        assertEquals(want, out[0], 1e-9 * Math.abs(want));
+        assertEquals(want, CircuitMath.logDensity(RegionCompiler.compile(p), new double[] {0})[0], 1e-9 * Math.abs(want));
+    }
+
     /** Pump-station variables of four types over two leaves and a 3-variable leaf. */
     static RegionGraph mixedGraph() {
         List<Variable> vars = List.of(Variable.of("inlet_pressure", VariableType.REAL),
