@@ -153,4 +153,16 @@ class GeneratorsTest {
                 () -> RandomRegions.readVariables(obj, dev.circa.format.io.ReadLimits.DEFAULT));
         assertTrue(f.getMessage().contains("expected a JSON array of variables"), f.getMessage());
     }
+
+    @Test
+    void goldenFiles_randomGraphAndSeededCompile_sameBytes() throws IOException {
+        // Golden files written by this code (fixtures/regions/SOURCE.md): a seed must keep giving the same bytes.
+        java.nio.file.Path dir = java.nio.file.Path.of("..", "fixtures", "regions");
+        assertArrayEquals(java.nio.file.Files.readAllBytes(dir.resolve("random-n6-d2-r2-seed7.json")),
+                bytes(RandomRegions.generate(RandomRegions.realVariables(6), 2, 2, 7)));
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        new dev.circa.format.io.CircuitWriter().write(RegionCompiler.compile(GridRegions.generate(2, 2),
+                new CompileOptions(2, 2, 1, java.util.Map.of()), 3), out);
+        assertArrayEquals(java.nio.file.Files.readAllBytes(dir.resolve("grid-2x2-k2-i2-seed3.circuit.json")), out.toByteArray());
+    }
 }
