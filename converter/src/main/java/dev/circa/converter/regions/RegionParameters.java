@@ -231,14 +231,15 @@ public final class RegionParameters {
                         for (int j = 0; j < c; j++) {
                             int at = t * c + j;
                             double x = arr.value(at);
-                            if (logw[r] ? !(x < Double.POSITIVE_INFINITY) || Double.isNaN(x) : !(x >= 0 && x < Double.POSITIVE_INFINITY)) {
-                                throw fail(arr.name(), String.format(Locale.ROOT, "value at [%d, %d] is %s; expected %s",
-                                        t, j, x, logw[r] ? "a finite log-weight" : "a finite weight >= 0"));
-                            }
                             if (logw[r] && x == Double.NEGATIVE_INFINITY) {
                                 throw fail(arr.name(), String.format(Locale.ROOT,
                                         "value at [%d, %d] is -inf, which a circuit file cannot hold; give a zero weight in %s",
                                         t, j, lin));
+                            }
+                            boolean ok = logw[r] ? Double.isFinite(x) : Double.isFinite(x) && x >= 0;
+                            if (!ok) {
+                                throw fail(arr.name(), String.format(Locale.ROOT, "value at [%d, %d] is %s; expected %s",
+                                        t, j, x, logw[r] ? "a finite log-weight" : "a finite weight >= 0"));
                             }
                             row[j] = x;
                         }
