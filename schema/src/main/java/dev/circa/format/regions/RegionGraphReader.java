@@ -78,6 +78,8 @@ public final class RegionGraphReader {
 
         RegionGraph run() throws FormatException {
             in.startDocument("a region graph document");
+            int rootLine = in.line();
+            int rootColumn = in.column();
             RegionGraph.Builder b = RegionGraph.builder().source(in.file());
             String format = null;
             String version = null;
@@ -135,16 +137,16 @@ public final class RegionGraphReader {
             }
             in.endDocument();
             if (format == null) {
-                throw new FormatException(in.file(), 1, 1, "", "missing \"format\"; expected \"" + RegionGraph.FORMAT + "\"");
+                throw new FormatException(in.file(), rootLine, rootColumn, "", "missing \"format\"; expected \"" + RegionGraph.FORMAT + "\"");
             }
             if (version == null) {
-                throw new FormatException(in.file(), 1, 1, "", "missing \"version\"; expected \"1.0\"");
+                throw new FormatException(in.file(), rootLine, rootColumn, "", "missing \"version\"; expected \"1.0\"");
             }
             if (!sawVariables) {
-                throw new FormatException(in.file(), 1, 1, "", "missing \"variables\"; expected an array of variables");
+                throw new FormatException(in.file(), rootLine, rootColumn, "", "missing \"variables\"; expected an array of variables");
             }
             if (!sawRegions) {
-                throw new FormatException(in.file(), 1, 1, "", "missing \"regions\"; expected an array of regions");
+                throw new FormatException(in.file(), rootLine, rootColumn, "", "missing \"regions\"; expected an array of regions");
             }
             if (!unknown.isEmpty()) {
                 if (minor(version) <= SUPPORTED_MINOR) {

@@ -119,7 +119,9 @@ class RegionGraphReaderTest {
                         "/partitions/0", "needs \"parts\""),
                 new Case("{\"format\": \"circa.circuit\", \"version\": \"1.0\"}", 1, 12, "/format", "unknown format"),
                 new Case("{\"format\": \"circa.regions\", \"version\": \"2.0\"}", 1, 40, "/version", "unsupported major version"),
-                new Case(head + "\"partitions\": []}", 1, 1, "", "missing \"regions\""));
+                new Case(head + "\"partitions\": []}", 1, 1, "", "missing \"regions\""),
+                new Case("\n  {\"format\": \"circa.regions\", \"version\": \"1.0\", \"regions\": []}", 2, 3, "",
+                        "missing \"variables\""));
         for (Case c : cases) {
             FormatException e = assertThrows(FormatException.class, () -> new RegionGraphReader().readString(c.json(), "g.json"),
                     c.fragment());
