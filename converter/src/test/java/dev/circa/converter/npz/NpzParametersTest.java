@@ -28,7 +28,7 @@ import org.junit.jupiter.api.Test;
 /** FORMAT.md section 3: parameter arrays may be integer, float32, big-endian or Fortran order. */
 class NpzParametersTest {
     @Test
-    void compile_integerFloat32BigEndianFortranArrays_sameParameters() throws IOException {
+    void compile_integerFloat32BigEndianFortranArrays_sameParameters() throws Exception {
         ByteBuffer trials = ByteBuffer.allocate(16).order(ByteOrder.LITTLE_ENDIAN).putLong(10).putLong(20);
         ByteBuffer p = ByteBuffer.allocate(8).order(ByteOrder.BIG_ENDIAN).putFloat(0.25f).putFloat(0.5f);
         ByteBuffer alarm = ByteBuffer.allocate(16).order(ByteOrder.LITTLE_ENDIAN).putDouble(0.1).putDouble(0.9);
