@@ -14,6 +14,7 @@ import picocli.CommandLine.Command;
             ImputeCommand.class,
             SampleCommand.class,
             InspectCommand.class,
+            CheckCommand.class, CompareCommand.class, NormalizeCommand.class, RenderCommand.class,
             CommandLine.HelpCommand.class
         })
 public final class Main implements Runnable {
@@ -48,8 +49,6 @@ public final class Main implements Runnable {
         cl.setExecutionExceptionHandler((ex, c, parsed) -> {
             if (ex instanceof FormatException || ex instanceof UsageException) {
                 c.getErr().println("circa: " + ex.getMessage());
-            } else if (ex instanceof OutOfMemoryError) {
-                c.getErr().println("circa: out of memory; raise the heap with CIRCA_JAVA_OPTS=-Xmx... or lower the input size");
             } else {
                 c.getErr().println("circa: unexpected error: " + ex);
                 if (debug) {
@@ -64,6 +63,9 @@ public final class Main implements Runnable {
             return cl.execute(args);
         } catch (StackOverflowError e) {
             err.println("circa: the input is nested too deeply to process (stack exhausted)");
+            return ExitStatus.UNUSABLE;
+        } catch (OutOfMemoryError e) {
+            err.println("circa: out of memory; give Java more heap with CIRCA_JAVA_OPTS=-Xmx... or lower the input size");
             return ExitStatus.UNUSABLE;
         }
     }

@@ -27,6 +27,7 @@ public final class CsvReader implements AutoCloseable {
     private final char[] buf = new char[1 << 16];
     private int pos;
     private int len;
+    private boolean eof;
     private int line = 1;
     private int col = 1;
     private int recordLine;
@@ -181,9 +182,15 @@ public final class CsvReader implements AutoCloseable {
     }
 
     private int peek() throws FormatException {
-        if (pos == len) {
+        if (pos >= len) {
+            if (eof) {
+                return -1;
+            }
             fill();
             if (len <= 0) {
+                eof = true;
+                len = 0;
+                pos = 0;
                 return -1;
             }
         }

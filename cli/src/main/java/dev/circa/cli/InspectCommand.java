@@ -1,0 +1,94 @@
+package dev.circa.cli;
+
+import dev.circa.format.CircuitDocument;
+import dev.circa.format.Family;
+import dev.circa.format.InputNode;
+import dev.circa.format.Node;
+import dev.circa.format.Output;
+import dev.circa.format.ProductNode;
+import dev.circa.format.SumNode;
+import dev.circa.format.io.CircuitReader;
+import dev.circa.validator.CircuitStats;
+import dev.circa.validator.ExactQueries;
+import dev.circa.validator.Property;
+import dev.circa.validator.ValidationOptions;
+import dev.circa.validator.ValidationReport;
+import dev.circa.validator.Validator;
+import java.io.PrintWriter;
+import java.nio.file.Path;
+import java.util.EnumMap;
+import java.util.Locale;
+import java.util.Map;
+import java.util.concurrent.Callable;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Parameters;
+
+/** {@code circa inspect}: sizes, depth, families, outputs, properties, variable tree and exact queries. */
+@Command(name = "inspect", mixinStandardHelpOptions = true,
+        description = "Sizes, depth, families, outputs and their scopes, properties, variable tree and exact queries.")
+final class InspectCommand implements Callable<Integer> {
+    @Parameters(index = "0", paramLabel = "CIRCUIT", description = "The circuit file.")
+    Path circuitFile;
+
+    @Mixin
+    ReadOptions read;
+
+    @picocli.CommandLine.Spec
+    picocli.CommandLine.Model.CommandSpec spec;
+
+    @Override
+    public Integer call() throws Exception {
+        CircuitDocument doc = new CircuitReader(read.limits()).read(circuitFile);
+        ValidationReport report = new Validator(ValidationOptions.defaults().withRequire("")
+                .withRule("CheckCaseFailed:off")).validate(doc);
+        PrintWriter out = spec.commandLine().getOut();
+        CircuitStats s = report.stats();
+        int inputs = 0;
+        int products = 0;
+        int sums = 0;
+        Map<Family, Integer> families = new EnumMap<>(Family.class);
+        for (Node n : doc.nodes()) {
+            if (n instanceof InputNode in) {
+                inputs++;
+                families.merge(in.family(), 1, Integer::sum);
+            } else if (n instanceof ProductNode) {
+                products++;
+            } else if (n instanceof SumNode) {
+                sums++;
+            }
+        }
+        out.printf(Locale.ROOT, "%s%s%n", circuitFile, doc.name() == null ? "" : " (" + doc.name() + ")");
+        out.printf(Locale.ROOT, "  variables: %d%n", s.variables());
+        out.printf(Locale.ROOT, "  nodes:     %d (%d inputs, %d products, %d sums)%n", s.nodes(), inputs, products, sums);
+        out.printf(Locale.ROOT, "  edges:     %d%n", s.edges());
+        out.printf(Locale.ROOT, "  depth:     %d%n", s.depth());
+        StringBuilder fam = new StringBuilder();
+        for (Map.Entry<Family, Integer> e : families.entrySet()) {
+            fam.append(fam.length() == 0 ? "" : ", ").append(e.getKey().jsonName()).append(' ').append(e.getValue());
+        }
+        out.printf(Locale.ROOT, "  families:  %s%n", fam);
+        out.println("  outputs:");
+        for (Output o : doc.outputs()) {
+            Double z = report.logPartition() == null ? null : report.logPartition().get(o.name());
+            out.printf(Locale.ROOT, "    %s = node %d%s%n", o.name(), o.node(),
+                    z == null ? "" : ", log Z = " + z);
+        }
+        out.println("  properties:");
+        for (Property p : Property.values()) {
+            out.printf(Locale.ROOT, "    %-24s %s%n", p.optionName(), report.property(p).toString().toLowerCase(Locale.ROOT));
+        }
+        out.printf(Locale.ROOT, "  variable tree: %s%n", report.variableTree() == null ? "none (not structured-decomposable)"
+                : report.variableTree().toString());
+        ExactQueries q = report.exactQueries();
+        out.printf(Locale.ROOT, "  exact queries: density %s, marginal %s, conditional %s, mpe %s, sampling %s%n",
+                yes(q.density()), yes(q.marginal()), yes(q.conditional()), yes(q.mpe()), yes(q.sampling()));
+        out.printf(Locale.ROOT, "  diagnostics: %d (run circa validate for them)%n", report.diagnostics().size());
+        out.flush();
+        return ExitStatus.OK;
+    }
+
+    private static String yes(boolean b) {
+        return b ? "yes" : "no";
+    }
+}

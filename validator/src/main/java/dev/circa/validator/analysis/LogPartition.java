@@ -1,0 +1,83 @@
+package dev.circa.validator.analysis;
+
+import dev.circa.format.InputNode;
+import dev.circa.format.SumNode;
+import dev.circa.format.Family;
+
+/**
+ * log Z of every node of a smooth, decomposable circuit with valid parameters, children first in
+ * one pass: an input's log Z is 0 except for a categorical (log of its probabilities' sum), a
+ * product's is the sum of its children's, a sum's the log-sum-exp of log-weight plus child log Z.
+ */
+public final class LogPartition {
+    private LogPartition() {
+    }
+
+    /** log Z per node index. */
+    public static double[] of(Graph g) {
+        int n = g.size();
+        double[] z = new double[n];
+        for (int i = 0; i < n; i++) {
+            byte k = g.kind(i);
+            int a = g.childStart(i);
+            int b = g.childEnd(i);
+            if (k == Graph.INPUT) {
+                InputNode in = (InputNode) g.node(i);
+                if (in.family() == Family.CATEGORICAL) {
+                    z[i] = logSumExp(in.params(), in.logForm());
+                }
+            } else if (k == Graph.PRODUCT) {
+                double s = 0;
+                for (int e = a; e < b; e++) {
+                    s += z[g.child(e)];
+                }
+                z[i] = s;
+            } else {
+                SumNode sn = (SumNode) g.node(i);
+                double[] w = sn.weights();
+                boolean log = sn.logWeights();
+                double max = Double.NEGATIVE_INFINITY;
+                for (int e = a; e < b; e++) {
+                    double c = z[g.child(e)];
+                    max = Math.max(max, log ? w[e - a] + c : c);
+                }
+                if (max == Double.NEGATIVE_INFINITY || max == Double.POSITIVE_INFINITY) {
+                    z[i] = log || max == Double.POSITIVE_INFINITY ? max : Double.NEGATIVE_INFINITY;
+                    continue;
+                }
+                // linear weights scale exp(z - max) directly: one exp per edge and no log per weight
+                double s = 0;
+                for (int e = a; e < b; e++) {
+                    double c = z[g.child(e)];
+                    double d = c - max;
+                    // normalised sub-circuits have log Z = 0 everywhere: no exp needed then
+                    s += log ? Math.exp(w[e - a] + d) : d == 0 ? w[e - a] : w[e - a] * Math.exp(d);
+                }
+                z[i] = max + Math.log(s);
+            }
+        }
+        return z;
+    }
+
+    private static double logSumExp(double[] p, boolean log) {
+        if (!log) {
+            double s = 0;
+            for (double x : p) {
+                s += x;
+            }
+            return Math.log(s);
+        }
+        double max = Double.NEGATIVE_INFINITY;
+        for (double x : p) {
+            max = Math.max(max, x);
+        }
+        if (max == Double.NEGATIVE_INFINITY) {
+            return max;
+        }
+        double s = 0;
+        for (double x : p) {
+            s += Math.exp(x - max);
+        }
+        return max + Math.log(s);
+    }
+}

@@ -1,0 +1,27 @@
+package dev.circa.validator.analysis;
+
+import java.util.Locale;
+
+/** Numbers in messages: shortest round-trip digits, {@code 1e-9} rather than {@code 1.0E-9}, Locale.ROOT. */
+public final class Numbers {
+    private Numbers() {
+    }
+
+    /** {@code x} as message text, e.g. {@code 0.93}, {@code 1e-9}, {@code -inf}. */
+    public static String text(double x) {
+        if (Double.isInfinite(x)) {
+            return x > 0 ? "inf" : "-inf";
+        }
+        if (Double.isNaN(x)) {
+            return "NaN";
+        }
+        String s = Double.toString(x).toLowerCase(Locale.ROOT);
+        int e = s.indexOf('e');
+        String mantissa = e < 0 ? s : s.substring(0, e);
+        String exp = e < 0 ? "" : s.substring(e);
+        if (mantissa.endsWith(".0")) {
+            mantissa = mantissa.substring(0, mantissa.length() - 2);
+        }
+        return mantissa + exp;
+    }
+}

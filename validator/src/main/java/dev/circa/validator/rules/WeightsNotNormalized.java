@@ -1,0 +1,40 @@
+package dev.circa.validator.rules;
+
+import dev.circa.format.SumNode;
+import dev.circa.validator.Severity;
+import dev.circa.validator.analysis.Graph;
+import dev.circa.validator.analysis.Numbers;
+import java.util.Locale;
+
+/** A sum's weights do not add to 1. */
+@RuleInfo(id = "WeightsNotNormalized", summary = "A sum's weights do not add to 1", severity = Severity.WARNING, guards = Aspect.NORMALIZED)
+public final class WeightsNotNormalized extends Rule {
+    @Override
+    public void check(RuleContext ctx) {
+        Graph g = ctx.graph();
+        double tol = ctx.options().tolerance();
+        Severity sev = null;
+        for (int i = 0; i < g.size(); i++) {
+            if (!(g.node(i) instanceof SumNode s) || s.weights().length == 0) {
+                continue;
+            }
+            double sum = 0;
+            for (int j = 0; j < s.weights().length; j++) {
+                sum += s.weight(j);
+            }
+            if (Math.abs(sum - 1) <= tol || Double.isNaN(sum)) {
+                continue;
+            }
+            if (sev == null) {
+                // CLI.md: a warning when every output's |log Z| is within the tolerance, else an error.
+                sev = ctx.outputsNormalized() ? Severity.WARNING : Severity.ERROR;
+            }
+            if (ctx.skip(this, sev)) {
+                continue;
+            }
+            ctx.atNode(this, sev, i, s.logWeights() ? "logWeights" : "weights", String.format(Locale.ROOT,
+                    "weights of sum %d add to %s (expected 1 +/- %s, set by --tolerance)",
+                    s.id(), Numbers.text(sum), Numbers.text(tol)));
+        }
+    }
+}
