@@ -8,11 +8,17 @@ import dev.circa.engine.Evaluator;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.Family;
 import dev.circa.format.VariableType;
+import dev.circa.format.regions.RegionGraph;
+import dev.circa.validator.Property;
+import dev.circa.validator.ValidationOptions;
+import dev.circa.validator.ValidationReport;
+import dev.circa.validator.Validator;
+import dev.circa.validator.Verdict;
 import java.util.List;
 import java.util.Map;
 import org.junit.jupiter.api.Test;
 
-/** The compiled circuits through the engine (itself checked against outside values in its module). */
+/** The compiled circuits through the engine and the validator (each checked against outside values in its module). */
 class EngineAgreementTest {
     private static final double TOL = 1e-9;
 
@@ -65,5 +71,29 @@ class EngineAgreementTest {
         CompiledCircuit other = CompiledCircuit.compile(RegionCompiler.compile(RegionParameters.seeded(s, o, 1)));
         RegionVerifier.Result r = RegionVerifier.verify(RegionParameters.seeded(s, o, 2), other, 20, 3, TOL, TOL);
         assertTrue(!r.passed() && r.failures() > 0 && r.maxAbsDifference() > 1e-3, r.summary());
+    }
+
+    @Test
+    void validator_compiledCircuits_propertiesAsFormatSays() throws Exception {
+        // FORMAT.md section 3: smooth and decomposable by construction; structured-decomposable with one
+        // partition per inner region, not when the root's partitions split it in different ways.
+        record Case(RegionGraph graph, boolean structured) {
+        }
+        List<Case> cases = List.of(new Case(GridRegions.generate(2, 3), true),
+                new Case(RandomRegions.generate(RandomRegions.realVariables(8), 3, 1, 2), true),
+                new Case(RegionCompilerTest.example(), false),
+                new Case(RandomRegions.generate(RandomRegions.realVariables(6), 2, 3, 2), false));
+        Validator v = new Validator(ValidationOptions.defaults());
+        for (Case c : cases) {
+            CircuitDocument doc = RegionCompiler.compile(c.graph(), new CompileOptions(2, 2, 1, Map.of()), 3);
+            ValidationReport report = v.validate(doc);
+            assertTrue(report.valid(), report.toString());
+            assertEquals(Verdict.TRUE, report.property(Property.SMOOTH));
+            assertEquals(Verdict.TRUE, report.property(Property.DECOMPOSABLE));
+            assertEquals(Verdict.TRUE, report.property(Property.NORMALIZED));
+            assertEquals(c.structured() ? Verdict.TRUE : Verdict.FALSE, report.property(Property.STRUCTURED_DECOMPOSABLE),
+                    report.toString());
+            assertEquals(c.structured(), CircuitMath.structuredDecomposable(doc));
+        }
     }
 }
