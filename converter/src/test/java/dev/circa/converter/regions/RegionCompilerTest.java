@@ -70,6 +70,15 @@ class RegionCompilerTest {
         return rows;
     }
 
+    /** The validator's verdict on a produced model: valid, smooth, decomposable (STYLE.md: validate what a converter makes). */
+    static void assertValid(CircuitDocument doc) {
+        dev.circa.validator.ValidationReport r = new dev.circa.validator.Validator(
+                dev.circa.validator.ValidationOptions.defaults()).validate(doc);
+        assertTrue(r.valid(), r.toString());
+        assertEquals(dev.circa.validator.Verdict.TRUE, r.property(dev.circa.validator.Property.SMOOTH));
+        assertEquals(dev.circa.validator.Verdict.TRUE, r.property(dev.circa.validator.Property.DECOMPOSABLE));
+    }
+
     private static boolean passes(double got, double want) {
         if (want == Double.NEGATIVE_INFINITY) {
             return got == want;
@@ -90,6 +99,7 @@ class RegionCompilerTest {
             assertTrue(passes(got, want), "got " + got + ", SciPy reference " + want);
         }
         assertEquals(List.of("joint"), doc.outputs().stream().map(o -> o.name()).toList());
+        assertValid(doc);
         assertEquals(List.of(), dev.circa.format.schema.SchemaCatalog.get().validate(
                 dev.circa.format.schema.SchemaCatalog.Kind.CIRCUIT,
                 dev.circa.format.io.JsonInput.mapperFor(dev.circa.format.io.ReadLimits.DEFAULT).readTree(bytes(doc))));
@@ -196,8 +206,9 @@ class RegionCompilerTest {
                 CompileOptions o = new CompileOptions(2, 3, 1, Map.of(VariableType.REAL, real, VariableType.COUNT, count,
                         VariableType.BINARY, binary, VariableType.CATEGORICAL, categorical));
                 RegionParameters p = RegionParameters.seeded(RegionStructure.of(g), o, real.ordinal() * 10L + count.ordinal());
-                RegionVerifier.Result r = RegionVerifier.verify(p, CircuitMath.evaluation(RegionCompiler.compile(p)), 30,
-                        5, TOL, TOL);
+                CircuitDocument doc = RegionCompiler.compile(p);
+                assertValid(doc);
+                RegionVerifier.Result r = RegionVerifier.verify(p, CircuitMath.evaluation(doc), 30, 5, TOL, TOL);
                 assertTrue(r.passed(), real + " " + count + ": " + r.summary());
             }
         }
@@ -309,6 +320,7 @@ class RegionCompilerTest {
         exported.write(zip, true);
         NpzArchive again = NpzArchive.read(new ByteArrayInputStream(zip.toByteArray()), "p.npz", 1 << 24);
         CircuitDocument b = RegionCompiler.compile(g, o, again);
+        assertValid(b);
         assertEquals(string(a).replaceAll("\"provenance\".*\n", ""), string(b).replaceAll("\"provenance\".*\n", ""));
         assertTrue(exported.contains("r0.weights"));
         assertTrue(exported.contains("r" + leafIdOf(g, 2) + ".v2.p") || exported.contains("r" + leafIdOf(g, 2) + ".v2.probs"));
