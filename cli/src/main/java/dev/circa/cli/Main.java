@@ -10,6 +10,8 @@ import picocli.CommandLine.Command;
         description = "Validate, convert, check and evaluate probabilistic circuit files.",
         subcommands = {
             ValidateCommand.class,
+            ConvertCommand.class,
+            RegionsCommand.class,
             EvalCommand.class,
             ImputeCommand.class,
             SampleCommand.class,
