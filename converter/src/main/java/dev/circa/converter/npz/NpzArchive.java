@@ -97,6 +97,10 @@ public final class NpzArchive {
             throw e;
         } catch (ZipException e) {
             throw new FormatException(file, 0, 0, null, "not an .npz archive (a zip file): " + e.getMessage());
+        } catch (IllegalArgumentException e) {
+            // java.util.zip reports an entry name that is not valid UTF-8 this way
+            throw new FormatException(file, 0, 0, null, "not a readable .npz archive: an entry name is not valid UTF-8 ("
+                    + e.getMessage() + ")");
         } catch (IOException e) {
             throw new FormatException(file, 0, 0, null, "cannot be read: " + e.getMessage());
         }
@@ -129,6 +133,10 @@ public final class NpzArchive {
             throw e;
         } catch (ZipException e) {
             throw new FormatException(file, 0, 0, null, "not a readable .npz archive (a zip file): " + e.getMessage());
+        } catch (IllegalArgumentException e) {
+            // java.util.zip reports an entry name that is not valid UTF-8 this way
+            throw new FormatException(file, 0, 0, null, "not a readable .npz archive: an entry name is not valid UTF-8 ("
+                    + e.getMessage() + ")");
         } catch (IOException e) {
             throw new FormatException(file, 0, 0, null, "cannot be read: " + e.getMessage());
         }
