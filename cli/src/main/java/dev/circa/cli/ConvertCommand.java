@@ -15,6 +15,7 @@ import dev.circa.format.io.CircuitReader;
 import dev.circa.format.io.CircuitWriter;
 import dev.circa.format.io.DocumentKind;
 import dev.circa.format.io.FormatException;
+import dev.circa.format.io.LimitExceededException;
 import dev.circa.format.io.ReadLimits;
 import dev.circa.format.mixture.MixtureReader;
 import dev.circa.format.regions.RegionGraph;
@@ -139,6 +140,12 @@ final class ConvertCommand implements Callable<Integer> {
             throw new UsageException(e.getMessage());
         }
         RegionStructure structure = RegionStructure.of(graph);
+        long nodes = RegionCompiler.nodeCount(structure, options);
+        if (nodes > limits.maxNodes()) {
+            throw LimitExceededException.of(source.toString(), 0, 0, null, "the compiled circuit would have "
+                    + (nodes == Long.MAX_VALUE ? "more than 9.2e18" : Long.toString(nodes)) + " nodes, which",
+                    ReadLimits.MAX_NODES, limits.maxNodes());
+        }
         RegionParameters p = params == null ? RegionParameters.seeded(structure, options, seed)
                 : RegionParameters.fromArchive(structure, options, NpzArchive.read(params, limits.maxBytes()));
         CircuitDocument circuit = RegionCompiler.compile(p);

@@ -64,6 +64,45 @@ final class Layout {
         }
     }
 
+    /**
+     * The number of nodes the layout of {@code s} under {@code o} emits, counted without building
+     * anything and saturating at {@link Long#MAX_VALUE}, so that a region graph whose circuit would
+     * not fit in memory can be refused before any allocation.
+     */
+    static long nodeCount(RegionStructure s, CompileOptions o) {
+        long[] size = new long[s.regionCount()];
+        long total = 0;
+        for (int r : s.order()) {
+            size[r] = r == s.root() ? o.outputs() : s.isLeaf(r) ? o.inputs() : o.sums();
+            if (s.isLeaf(r)) {
+                int n = s.vars(r).length;
+                total = add(total, multiply(o.inputs(), n + (n > 1 ? 1 : 0)));
+                if (r == s.root()) {
+                    total = add(total, o.outputs());
+                }
+                continue;
+            }
+            for (int p : s.partitionsOf(r)) {
+                long products = 1;
+                for (int q : s.parts(p)) {
+                    products = multiply(products, size[q]);
+                }
+                total = add(total, products);
+            }
+            total = add(total, size[r]);
+        }
+        return total;
+    }
+
+    private static long add(long a, long b) {
+        long c = a + b;
+        return c < 0 ? Long.MAX_VALUE : c;
+    }
+
+    private static long multiply(long a, long b) {
+        return b != 0 && a > Long.MAX_VALUE / b ? Long.MAX_VALUE : a * b;
+    }
+
     /** Whether region {@code r} has sums (an inner region, or the root). */
     boolean hasSums(int r) {
         return !s.isLeaf(r) || r == s.root();

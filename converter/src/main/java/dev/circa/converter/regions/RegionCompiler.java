@@ -97,6 +97,16 @@ public final class RegionCompiler {
                 .variables(s.variables()).nodes(nodes).outputs(outputs).build();
     }
 
+    /**
+     * The number of nodes the circuit compiled from {@code s} under {@code options} has, computed
+     * without compiling (saturating at {@link Long#MAX_VALUE}); callers compare it with
+     * {@code --max-nodes} before compiling, since a small region graph can describe a circuit too
+     * large for memory.
+     */
+    public static long nodeCount(RegionStructure s, CompileOptions options) {
+        return Layout.nodeCount(s, options);
+    }
+
     /** The name of output {@code k} of {@code count}: {@code joint} when there is one, else {@code out<k>}. */
     public static String outputName(int k, int count) {
         return count == 1 ? "joint" : "out" + k;
