@@ -116,6 +116,10 @@ class CliNoNetworkTest {
         Files.writeString(y, yaml);
         MixtureDocument fromYaml = MixtureReader.read(y, ReadLimits.DEFAULT);
         MixtureConverter.convert(fromYaml, MixtureOptions.DEFAULT);
+        Cli.Result converted = Cli.run("convert", y.toString(), "-o", dir.resolve("converted.json").toString(), "--verify", "200");
+        assertEquals(ExitStatus.OK, converted.status(), converted::describe);
+        Cli.Result valid = Cli.run("validate", dir.resolve("converted.json").toString(), "--schema-check", "always");
+        assertEquals(ExitStatus.OK, valid.status(), valid::describe);
         // the same document as JSON, with a $schema member at the top level too (an unknown property)
         ObjectMapper json = new ObjectMapper();
         tools.jackson.databind.node.ObjectNode tree = (tools.jackson.databind.node.ObjectNode)
