@@ -53,13 +53,24 @@ class ReadmeLimitsTest {
         Set<String> readOptions = CommandLine.Model.CommandSpec.forAnnotatedObject(new ReadOptions()).options().stream()
                 .flatMap(o -> Arrays.stream(o.names())).filter(n -> n.startsWith("--max-")).collect(Collectors.toSet());
         assertEquals(expected.keySet(), readOptions);
-        for (Map.Entry<String, CommandLine> c : new CommandLine(new Main()).getSubcommands().entrySet()) {
-            if (c.getKey().equals("help")) {
+        java.util.ArrayDeque<CommandLine> todo = new java.util.ArrayDeque<>(new CommandLine(new Main()).getSubcommands().values());
+        int checked = 0;
+        while (!todo.isEmpty()) {
+            CommandLine c = todo.pop();
+            todo.addAll(c.getSubcommands().values());
+            CommandLine.Model.CommandSpec spec = c.getCommandSpec();
+            // an input file: a Path argument other than the outputs (-o, --to-params)
+            boolean takesFile = spec.args().stream()
+                    .filter(a -> !(a instanceof CommandLine.Model.OptionSpec o
+                            && Arrays.asList(o.names()).stream().anyMatch(n -> n.equals("-o") || n.equals("--to-params"))))
+                    .anyMatch(a -> a.type() == Path.class || Arrays.asList(a.auxiliaryTypes()).contains(Path.class));
+            if (!takesFile || spec.name().equals("help")) {
                 continue;
             }
-            Set<String> names = c.getValue().getCommandSpec().options().stream()
-                    .flatMap(o -> Arrays.stream(o.names())).collect(Collectors.toSet());
-            assertTrue(names.containsAll(readOptions), c.getKey() + " lacks some of " + readOptions);
+            Set<String> names = spec.options().stream().flatMap(o -> Arrays.stream(o.names())).collect(Collectors.toSet());
+            assertTrue(names.containsAll(readOptions), spec.qualifiedName() + " lacks some of " + readOptions);
+            checked++;
         }
+        assertTrue(checked >= 10, checked + " commands take files");
     }
 }
