@@ -17,6 +17,7 @@ import picocli.CommandLine.Command;
             SampleCommand.class,
             InspectCommand.class,
             CheckCommand.class, CompareCommand.class, NormalizeCommand.class, RenderCommand.class,
+            DemoCommand.class,
             CommandLine.HelpCommand.class
         })
 public final class Main implements Runnable {

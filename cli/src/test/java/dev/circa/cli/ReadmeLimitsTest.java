@@ -59,10 +59,11 @@ class ReadmeLimitsTest {
             CommandLine c = todo.pop();
             todo.addAll(c.getSubcommands().values());
             CommandLine.Model.CommandSpec spec = c.getCommandSpec();
-            // an input file: a Path argument other than the outputs (-o, --to-params)
+            // an input file: a Path argument other than the outputs (-o, --to-params, the demo's DIR)
             boolean takesFile = spec.args().stream()
                     .filter(a -> !(a instanceof CommandLine.Model.OptionSpec o
                             && Arrays.asList(o.names()).stream().anyMatch(n -> n.equals("-o") || n.equals("--to-params"))))
+                    .filter(a -> !"DIR".equals(a.paramLabel()))
                     .anyMatch(a -> a.type() == Path.class || Arrays.asList(a.auxiliaryTypes()).contains(Path.class));
             if (!takesFile || spec.name().equals("help")) {
                 continue;

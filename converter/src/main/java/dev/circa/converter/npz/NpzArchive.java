@@ -205,7 +205,7 @@ public final class NpzArchive {
 
     /** Writes the arrays as an archive to {@code out} (not closed). */
     public void write(OutputStream out, boolean compressed) throws IOException {
-        ZipOutputStream zip = new ZipOutputStream(new FilterOutputStreamNoClose(out));
+        ZipOutputStream zip = new ZipOutputStream(new dev.circa.format.io.NonClosingOutputStream(out));
         for (NpyArray a : arrays.values()) {
             ZipEntry e = new ZipEntry(a.name() + ".npy");
             e.setTimeLocal(ENTRY_TIME);
@@ -261,23 +261,6 @@ public final class NpzArchive {
         @Override
         public void close() {
             // the entry stream is closed by its owner
-        }
-    }
-
-    /** Lets the zip stream finish without closing the caller's stream. */
-    private static final class FilterOutputStreamNoClose extends java.io.FilterOutputStream {
-        FilterOutputStreamNoClose(OutputStream out) {
-            super(out);
-        }
-
-        @Override
-        public void write(byte[] b, int off, int len) throws IOException {
-            out.write(b, off, len);
-        }
-
-        @Override
-        public void close() throws IOException {
-            flush();
         }
     }
 }

@@ -6,6 +6,7 @@ import dev.circa.format.ReadFinding;
 import dev.circa.format.SourceLocation;
 import dev.circa.format.Variable;
 import dev.circa.format.VariableType;
+import dev.circa.format.io.DocumentHeader;
 import dev.circa.format.io.FormatException;
 import dev.circa.format.io.InputFiles;
 import dev.circa.format.io.JsonInput;
@@ -276,7 +277,7 @@ public final class MixtureReader {
                     }
                     case "version" -> {
                         version = readScalarText(member);
-                        checkVersion(version, member);
+                        DocumentHeader.checkVersion(in, version, member);
                     }
                     case "name" -> name = in.readString(member);
                     case "description" -> description = in.readString(member);
@@ -313,7 +314,7 @@ public final class MixtureReader {
                 throw new FormatException(file, 1, 1, "model", "missing \"model\"; expected the model expression");
             }
             List<ReadFinding> findings = new ArrayList<>();
-            if (minor(version) <= SUPPORTED_MINOR) {
+            if (DocumentHeader.minor(version) <= SUPPORTED_MINOR) {
                 if (!unknown.isEmpty()) {
                     ReadFinding f = unknown.get(0);
                     throw new FormatException(file, f.location().line(), f.location().column(),
@@ -355,23 +356,6 @@ public final class MixtureReader {
         private void unknown(String ptr, String path, String message) {
             unknown.add(new ReadFinding(ReadFinding.Kind.UNKNOWN_PROPERTY, message, here(ptr)));
             unknownPaths.add(path);
-        }
-
-        private void checkVersion(String version, String ptr) throws FormatException {
-            if (!version.matches("[0-9]+\\.[0-9]+")) {
-                throw in.error(ptr, "version \"" + version + "\" is not MAJOR.MINOR; expected \"1.0\"");
-            }
-            if (!version.startsWith("1.")) {
-                throw in.error(ptr, "unsupported major version \"" + version + "\"; this reader reads version 1.x");
-            }
-        }
-
-        private static int minor(String version) {
-            try {
-                return Integer.parseInt(version.substring(version.indexOf('.') + 1));
-            } catch (NumberFormatException e) {
-                return Integer.MAX_VALUE;
-            }
         }
 
         /** A string; in YAML also a plain number or boolean taken as written (labels are strings). */

@@ -1,9 +1,9 @@
 package dev.circa.format.regions;
 
-import dev.circa.format.Provenance;
 import dev.circa.format.ReadFinding;
 import dev.circa.format.SourceLocation;
 import dev.circa.format.Variable;
+import dev.circa.format.io.DocumentHeader;
 import dev.circa.format.io.FormatException;
 import dev.circa.format.io.JsonInput;
 import dev.circa.format.io.ReadLimits;
@@ -98,18 +98,12 @@ public final class RegionGraphReader {
                     }
                     case "version" -> {
                         version = in.readString(ptr);
-                        if (!version.matches("[0-9]+\\.[0-9]+")) {
-                            throw in.error(ptr, "version \"" + version + "\" is not MAJOR.MINOR; expected \"1.0\"");
-                        }
-                        if (!version.startsWith("1.")) {
-                            throw in.error(ptr, "unsupported major version \"" + version
-                                    + "\"; this reader reads version 1.x");
-                        }
+                        DocumentHeader.checkVersion(in, version, ptr);
                         b.version(version);
                     }
                     case "name" -> b.name(in.readString(ptr));
                     case "description" -> b.description(in.readString(ptr));
-                    case "provenance" -> b.provenance(readProvenance(ptr));
+                    case "provenance" -> b.provenance(DocumentHeader.readProvenance(in, ptr, unknown));
                     case "variables" -> {
                         List<ReadFinding> varFindings = new ArrayList<>();
                         List<Variable> vars = VariableListReader.read(in, ptr, varFindings);
@@ -149,7 +143,7 @@ public final class RegionGraphReader {
                 throw new FormatException(in.file(), rootLine, rootColumn, "", "missing \"regions\"; expected an array of regions");
             }
             if (!unknown.isEmpty()) {
-                if (minor(version) <= SUPPORTED_MINOR) {
+                if (DocumentHeader.minor(version) <= SUPPORTED_MINOR) {
                     SourceLocation l = unknown.get(0).location();
                     throw new FormatException(in.file(), l.line(), l.column(), l.pointer(), unknown.get(0).message()
                             + "; a version " + version + " document allows unknown properties only under \"extensions\"");
@@ -171,35 +165,6 @@ public final class RegionGraphReader {
         private void unknownAt(String pointer, String message) {
             unknown.add(new ReadFinding(ReadFinding.Kind.UNKNOWN_PROPERTY, message,
                     new SourceLocation(pointer, in.line(), in.column())));
-        }
-
-        private static int minor(String version) {
-            try {
-                return Integer.parseInt(version.substring(version.indexOf('.') + 1));
-            } catch (NumberFormatException e) {
-                return Integer.MAX_VALUE;
-            }
-        }
-
-        private Provenance readProvenance(String ptr) throws FormatException {
-            in.expect(JsonToken.START_OBJECT, ptr, "an object");
-            String producer = null;
-            String created = null;
-            String source = null;
-            String m;
-            while ((m = in.nextProperty()) != null) {
-                String p = ptr + "/" + m;
-                switch (m) {
-                    case "producer" -> producer = in.readString(p);
-                    case "created" -> created = in.readString(p);
-                    case "source" -> source = in.readString(p);
-                    default -> {
-                        unknownAt(p, "unknown property \"" + m + "\" in provenance");
-                        in.skipValue();
-                    }
-                }
-            }
-            return new Provenance(producer, created, source);
         }
 
         private void readRegions(String ptr) throws FormatException {

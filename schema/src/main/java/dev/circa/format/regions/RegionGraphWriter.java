@@ -1,11 +1,11 @@
 package dev.circa.format.regions;
 
-import dev.circa.format.Provenance;
 import dev.circa.format.io.AtomicOutput;
 import dev.circa.format.io.CircuitWriter;
+import dev.circa.format.io.DocumentHeader;
+import dev.circa.format.io.NonClosingOutputStream;
 import dev.circa.format.io.JsonInput;
 import dev.circa.format.io.ReadLimits;
-import java.io.FilterOutputStream;
 import java.io.IOException;
 import java.io.OutputStream;
 import java.nio.file.Path;
@@ -28,7 +28,7 @@ public final class RegionGraphWriter {
 
     /** Writes {@code graph} to {@code out} (not closed). */
     public void write(RegionGraph graph, OutputStream out) throws IOException {
-        try (JsonGenerator g = MAPPER.createGenerator(new NonClosing(out))) {
+        try (JsonGenerator g = MAPPER.createGenerator(new NonClosingOutputStream(out))) {
             g.writeStartObject();
             g.writeRaw("\n");
             g.writeName("format");
@@ -44,7 +44,7 @@ public final class RegionGraphWriter {
                 g.writeString(graph.description());
             }
             if (graph.provenance() != null) {
-                writeProvenance(g, graph.provenance());
+                DocumentHeader.writeProvenance(g, graph.provenance());
             }
             CircuitWriter.writeVariables(g, graph.variables());
             g.writeRaw("\n");
@@ -91,47 +91,11 @@ public final class RegionGraphWriter {
         }
     }
 
-    private static void writeProvenance(JsonGenerator g, Provenance p) {
-        g.writeRaw("\n");
-        g.writeName("provenance");
-        g.writeStartObject();
-        if (p.producer() != null) {
-            g.writeName("producer");
-            g.writeString(p.producer());
-        }
-        if (p.created() != null) {
-            g.writeName("created");
-            g.writeString(p.created());
-        }
-        if (p.source() != null) {
-            g.writeName("source");
-            g.writeString(p.source());
-        }
-        g.writeEndObject();
-    }
-
     private static void writeInts(JsonGenerator g, int[] a) {
         g.writeStartArray();
         for (int v : a) {
             g.writeNumber(v);
         }
         g.writeEndArray();
-    }
-
-    /** Keeps the generator from closing the caller's stream. */
-    private static final class NonClosing extends FilterOutputStream {
-        NonClosing(OutputStream out) {
-            super(out);
-        }
-
-        @Override
-        public void write(byte[] b, int off, int len) throws IOException {
-            out.write(b, off, len);
-        }
-
-        @Override
-        public void close() throws IOException {
-            flush();
-        }
     }
 }
