@@ -114,6 +114,13 @@ class CliMalformedInputTest {
             Files.writeString(ref, "inlet_pressure,valve,log_density\n3.0,open,0.18261296103078395\n" + row[0] + "\n");
             Cli.assertUnusable(Cli.run("check", f.toString(), "--reference", ref.toString()), ref + ":3:", row[1]);
         }
+        // a reference log-density of 19 characters is over a --max-number of 18, and reads under 19
+        Path longRef = dir.resolve("long.csv");
+        Files.writeString(longRef, "inlet_pressure,valve,log_density\n3.0,open,0.18261296103078395\n");
+        Cli.assertUnusable(Cli.run("check", f.toString(), "--reference", longRef.toString(), "--max-number", "18"),
+                longRef + ":2:", "--max-number");
+        Cli.Result raised = Cli.run("check", f.toString(), "--reference", longRef.toString(), "--max-number", "19");
+        assertEquals(ExitStatus.OK, raised.status(), raised::describe);
         Path ref = dir.resolve("unknown.csv");
         Files.writeString(ref, "inlet_pressure,flow,log_density\n3.0,1,0.1\n");
         Cli.assertUnusable(Cli.run("check", f.toString(), "--reference", ref.toString()), ref + ":1:", "flow");

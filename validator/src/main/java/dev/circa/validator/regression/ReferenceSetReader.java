@@ -1,9 +1,11 @@
 package dev.circa.validator.regression;
 
 import dev.circa.format.Variable;
+import dev.circa.format.VariableType;
 import dev.circa.format.csv.CellValues;
 import dev.circa.format.csv.CsvReader;
 import dev.circa.format.io.FormatException;
+import dev.circa.format.io.LimitExceededException;
 import dev.circa.format.io.ReadLimits;
 import java.nio.file.Path;
 import java.util.Arrays;
@@ -154,6 +156,7 @@ public final class ReferenceSetReader implements AutoCloseable {
             for (int c = 0; c < width; c++) {
                 String cell = rec.get(c);
                 if (c == densityColumn) {
+                    checkNumberLength(cell, c, LOG_DENSITY);
                     try {
                         expected[r] = CellValues.parseLogDensity(cell);
                     } catch (IllegalArgumentException e) {
@@ -163,6 +166,10 @@ public final class ReferenceSetReader implements AutoCloseable {
                     output[r] = outputOf(cell, c);
                 } else {
                     int v = variableOfColumn[c];
+                    VariableType type = variables.get(v).type();
+                    if (type == VariableType.REAL || type == VariableType.COUNT) {
+                        checkNumberLength(cell, c, variables.get(v).name());
+                    }
                     try {
                         data[r * nv + v] = CellValues.parse(variables.get(v), cell);
                     } catch (IllegalArgumentException e) {
@@ -175,6 +182,15 @@ public final class ReferenceSetReader implements AutoCloseable {
             r++;
         }
         return r;
+    }
+
+    /** A numeric cell longer than {@code --max-number} is a named limit, as in every other reader. */
+    private void checkNumberLength(String cell, int c, String column) throws FormatException {
+        int length = cell.strip().length();
+        if (length > csv.limits().maxNumber()) {
+            throw LimitExceededException.of(csv.file(), csv.line(), csv.column(c), null, "column " + column + ": a number of "
+                    + length + " characters", ReadLimits.MAX_NUMBER, csv.limits().maxNumber());
+        }
     }
 
     private int outputOf(String cell, int c) throws FormatException {
