@@ -1,9 +1,12 @@
 package dev.circa.cli;
 
 import dev.circa.format.Variable;
+import dev.circa.format.VariableType;
 import dev.circa.format.csv.CellValues;
 import dev.circa.format.csv.CsvReader;
 import dev.circa.format.io.FormatException;
+import dev.circa.format.io.LimitExceededException;
+import dev.circa.format.io.ReadLimits;
 import java.util.Arrays;
 import java.util.HashMap;
 import java.util.List;
@@ -97,6 +100,15 @@ final class DataColumns {
                 String cell = rec.get(c);
                 row[c] = cell;
                 int v = variableOfColumn[c];
+                Variable var = variables.get(v);
+                if (var.type() == VariableType.REAL || var.type() == VariableType.COUNT) {
+                    int length = cell.strip().length();
+                    if (length > csv.limits().maxNumber()) {
+                        throw LimitExceededException.of(csv.file(), csv.line(), csv.column(c), null,
+                                "column " + header[c] + ": a number of " + length + " characters", ReadLimits.MAX_NUMBER,
+                                csv.limits().maxNumber());
+                    }
+                }
                 try {
                     data[r * nv + v] = CellValues.parse(variables.get(v), cell);
                 } catch (IllegalArgumentException e) {

@@ -10,10 +10,14 @@ import picocli.CommandLine.Command;
         description = "Validate, convert, check and evaluate probabilistic circuit files.",
         subcommands = {
             ValidateCommand.class,
+            ConvertCommand.class,
+            RegionsCommand.class,
             EvalCommand.class,
             ImputeCommand.class,
             SampleCommand.class,
             InspectCommand.class,
+            CheckCommand.class, CompareCommand.class, NormalizeCommand.class, RenderCommand.class,
+            DemoCommand.class,
             CommandLine.HelpCommand.class
         })
 public final class Main implements Runnable {
@@ -48,6 +52,9 @@ public final class Main implements Runnable {
         cl.setExecutionExceptionHandler((ex, c, parsed) -> {
             if (ex instanceof FormatException || ex instanceof UsageException) {
                 c.getErr().println("circa: " + ex.getMessage());
+                if (debug) {
+                    ex.printStackTrace(c.getErr());
+                }
             } else {
                 c.getErr().println("circa: unexpected error: " + ex);
                 if (debug) {

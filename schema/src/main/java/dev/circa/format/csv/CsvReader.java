@@ -24,6 +24,7 @@ public final class CsvReader implements AutoCloseable {
     private final Reader in;
     private final String file;
     private final int maxField;
+    private final ReadLimits limits;
     private final char[] buf = new char[1 << 16];
     private int pos;
     private int len;
@@ -40,6 +41,7 @@ public final class CsvReader implements AutoCloseable {
         this.in = reader;
         this.file = file;
         this.maxField = limits.maxString();
+        this.limits = limits;
     }
 
     /** Opens {@code path} as UTF-8 ({@code .gz} decompressed, {@code -} for standard input). */
@@ -53,6 +55,11 @@ public final class CsvReader implements AutoCloseable {
     /** The file name used in messages. */
     public String file() {
         return file;
+    }
+
+    /** The limits this reader was opened with (callers apply {@code --max-number} to numeric cells). */
+    public ReadLimits limits() {
+        return limits;
     }
 
     /** Line on which the current record starts (1-based). */

@@ -50,7 +50,15 @@ public final class AtomicOutput {
         if (dir != null && !Files.isDirectory(dir)) {
             throw new FormatException(target.toString(), 0, 0, null, "cannot write: the folder " + dir + " does not exist");
         }
-        Path tmp = Files.createTempFile(dir, "." + abs.getFileName() + ".", ".tmp");
+        if (Files.isDirectory(abs)) {
+            throw new FormatException(target.toString(), 0, 0, null, "is a folder; expected the name of a file to write");
+        }
+        Path tmp;
+        try {
+            tmp = Files.createTempFile(dir, "." + abs.getFileName() + ".", ".tmp");
+        } catch (IOException e) {
+            throw cannotWrite(target, e);
+        }
         boolean done = false;
         try {
             try (OutputStream raw = Files.newOutputStream(tmp);
@@ -69,11 +77,24 @@ public final class AtomicOutput {
                 Files.move(tmp, abs, StandardCopyOption.REPLACE_EXISTING);
             }
             done = true;
+        } catch (FormatException e) {
+            // a problem of an input met while writing (it names that input)
+            throw e;
+        } catch (IOException e) {
+            throw cannotWrite(target, e);
         } finally {
             if (!done) {
                 Files.deleteIfExists(tmp);
             }
         }
+    }
+
+    /** A write failure (disk full, no permission...) as a message naming the target. */
+    private static FormatException cannotWrite(Path target, IOException e) {
+        FormatException f = new FormatException(target.toString(), 0, 0, null, "cannot write: " + e.getMessage()
+                + "; the existing file, if any, is unchanged");
+        f.initCause(e);
+        return f;
     }
 
     /** Refuses a target that is one of the inputs (same file, however named). */

@@ -10,7 +10,6 @@ import dev.circa.format.Node;
 import dev.circa.format.NodeLocations;
 import dev.circa.format.Output;
 import dev.circa.format.ProductNode;
-import dev.circa.format.Provenance;
 import dev.circa.format.ReadFinding;
 import dev.circa.format.SourceLocation;
 import dev.circa.format.SumNode;
@@ -120,12 +119,12 @@ public final class CircuitReader {
                     }
                     case "version" -> {
                         version = in.readString(ptr);
-                        checkVersion(version, ptr);
+                        DocumentHeader.checkVersion(in, version, ptr);
                         b.version(version);
                     }
                     case "name" -> b.name(in.readString(ptr));
                     case "description" -> b.description(in.readString(ptr));
-                    case "provenance" -> b.provenance(readProvenance(ptr));
+                    case "provenance" -> b.provenance(DocumentHeader.readProvenance(in, ptr, unknown));
                     case "variables" -> {
                         b.variables(VariableListReader.read(in, ptr, unknown));
                         sawVariables = true;
@@ -168,7 +167,7 @@ public final class CircuitReader {
             if (!sawOutputs) {
                 throw new FormatException(file, rootLine, rootColumn, "/outputs", "missing \"outputs\"; expected an array of outputs");
             }
-            boolean newerMinor = minor(version) > SUPPORTED_MINOR;
+            boolean newerMinor = DocumentHeader.minor(version) > SUPPORTED_MINOR;
             List<ReadFinding> findings = new ArrayList<>(unknown.size());
             for (ReadFinding f : unknown) {
                 findings.add(newerMinor
@@ -183,44 +182,6 @@ public final class CircuitReader {
         private void unknown(String ptr, String message) {
             unknown.add(new ReadFinding(ReadFinding.Kind.UNKNOWN_PROPERTY, message,
                     new SourceLocation(ptr, in.line(), in.column())));
-        }
-
-        private void checkVersion(String version, String ptr) throws FormatException {
-            if (!version.matches("[0-9]+\\.[0-9]+")) {
-                throw in.error(ptr, "version \"" + version + "\" is not MAJOR.MINOR; expected \"1.0\"");
-            }
-            if (!version.startsWith("1.")) {
-                throw in.error(ptr, "unsupported major version \"" + version + "\"; this reader reads version 1.x");
-            }
-        }
-
-        private static int minor(String version) {
-            try {
-                return Integer.parseInt(version.substring(version.indexOf('.') + 1));
-            } catch (NumberFormatException e) {
-                return Integer.MAX_VALUE;
-            }
-        }
-
-        private Provenance readProvenance(String ptr) throws FormatException {
-            in.expect(JsonToken.START_OBJECT, ptr, "an object");
-            String producer = null;
-            String created = null;
-            String source = null;
-            String m;
-            while ((m = in.nextProperty()) != null) {
-                String p = ptr + "/" + m;
-                switch (m) {
-                    case "producer" -> producer = in.readString(p);
-                    case "created" -> created = in.readString(p);
-                    case "source" -> source = in.readString(p);
-                    default -> {
-                        unknown(p, "unknown property \"" + m + "\" in provenance");
-                        in.skipValue();
-                    }
-                }
-            }
-            return new Provenance(producer, created, source);
         }
 
         private List<Output> readOutputs(String ptr) throws FormatException {

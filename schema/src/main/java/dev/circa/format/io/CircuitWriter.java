@@ -8,7 +8,6 @@ import dev.circa.format.InputNode;
 import dev.circa.format.Node;
 import dev.circa.format.Output;
 import dev.circa.format.ProductNode;
-import dev.circa.format.Provenance;
 import dev.circa.format.SumNode;
 import dev.circa.format.Variable;
 import java.io.IOException;
@@ -37,7 +36,7 @@ public final class CircuitWriter {
 
     /** Writes {@code doc} to {@code out} (not closed). */
     public void write(CircuitDocument doc, OutputStream out) throws IOException {
-        try (JsonGenerator g = MAPPER.createGenerator(new NonClosing(out))) {
+        try (JsonGenerator g = MAPPER.createGenerator(new NonClosingOutputStream(out))) {
             g.writeStartObject();
             g.writeRaw("\n");
             g.writeName("format");
@@ -53,7 +52,7 @@ public final class CircuitWriter {
                 g.writeString(doc.description());
             }
             if (doc.provenance() != null) {
-                writeProvenance(g, doc.provenance());
+                DocumentHeader.writeProvenance(g, doc.provenance());
             }
             writeVariables(g, doc.variables());
             g.writeRaw("\n");
@@ -95,25 +94,6 @@ public final class CircuitWriter {
             }
             throw new IOException(e.getMessage(), e);
         }
-    }
-
-    private static void writeProvenance(JsonGenerator g, Provenance p) {
-        g.writeRaw("\n");
-        g.writeName("provenance");
-        g.writeStartObject();
-        if (p.producer() != null) {
-            g.writeName("producer");
-            g.writeString(p.producer());
-        }
-        if (p.created() != null) {
-            g.writeName("created");
-            g.writeString(p.created());
-        }
-        if (p.source() != null) {
-            g.writeName("source");
-            g.writeString(p.source());
-        }
-        g.writeEndObject();
     }
 
     /** Writes a {@code variables} member (shared with the other document writers). */
@@ -269,22 +249,5 @@ public final class CircuitWriter {
             g.writeNumber(a[i]);
         }
         g.writeEndArray();
-    }
-
-    /** Keeps the generator from closing the caller's stream. */
-    private static final class NonClosing extends java.io.FilterOutputStream {
-        NonClosing(OutputStream out) {
-            super(out);
-        }
-
-        @Override
-        public void write(byte[] b, int off, int len) throws IOException {
-            out.write(b, off, len);
-        }
-
-        @Override
-        public void close() throws IOException {
-            flush();
-        }
     }
 }

@@ -48,7 +48,9 @@ public final class JsonInput implements AutoCloseable {
         try {
             return new JsonInput(mapperFor(limits).createParser(in), file);
         } catch (JacksonException e) {
-            throw translate(e, file);
+            // The parser is created after the encoding is detected from the first bytes: any problem is at the start.
+            FormatException f = translate(e, file);
+            throw f.line() > 0 ? f : f.relocated(1, 1);
         }
     }
 
@@ -374,6 +376,10 @@ public final class JsonInput implements AutoCloseable {
         if (msg.startsWith("Unexpected end-of-input")) {
             return new FormatException(file, line, col, null,
                     "the input ends before the document is complete (is the file truncated?): " + firstLine(msg));
+        }
+        if (msg.contains("UCS-4")) {
+            return new FormatException(file, line, col, null,
+                    "the text encoding cannot be detected (" + firstLine(msg) + "); expected UTF-8, UTF-16 or UTF-32");
         }
         if (e.getCause() instanceof IOException io && !(e.getCause() instanceof java.io.CharConversionException)) {
             return new FormatException(file, line, col, null, "cannot be read: " + io.getMessage());

@@ -1,0 +1,136 @@
+package dev.circa.converter.regions;
+
+import dev.circa.converter.npz.NpzArchive;
+import dev.circa.format.CircuitDocument;
+import dev.circa.format.Family;
+import dev.circa.format.InputNode;
+import dev.circa.format.Node;
+import dev.circa.format.Output;
+import dev.circa.format.ProductNode;
+import dev.circa.format.Provenance;
+import dev.circa.format.SumNode;
+import dev.circa.format.io.FormatException;
+import dev.circa.format.regions.RegionGraph;
+import java.io.IOException;
+import java.io.UncheckedIOException;
+import java.util.ArrayList;
+import java.util.List;
+
+/**
+ * Compiles a region graph into a circuit exactly as FORMAT.md section 3 says: I input bundles per
+ * leaf region, one product per combination of one node from each part of each partition (first
+ * part varying slowest), K sums per inner region over all products of all its partitions in
+ * document order, C sums at the root named {@code joint} (C = 1) or {@code out0} ... The circuit's
+ * node ids are 0 ... n-1, children first (the order of the region graph's depth-first post-order).
+ * The result is smooth and decomposable by construction.
+ *
+ * <p>Memory: the nodes of the circuit and, per region, the ids its parents need; the sums of a
+ * region share one child array and use the parameter arrays without copying. Stateless.
+ */
+public final class RegionCompiler {
+    private RegionCompiler() {
+    }
+
+    /** Compiles {@code graph} with parameters drawn from {@code seed} ({@link RegionParameters#seeded}). */
+    public static CircuitDocument compile(RegionGraph graph, CompileOptions options, long seed) throws FormatException {
+        RegionStructure s = RegionStructure.of(graph);
+        return compile(RegionParameters.seeded(s, options, seed), provenance(graph, options, "seed " + seed));
+    }
+
+    /** Compiles {@code graph} with parameters from a NumPy archive ({@link RegionParameters#fromArchive}). */
+    public static CircuitDocument compile(RegionGraph graph, CompileOptions options, NpzArchive params)
+            throws FormatException {
+        RegionStructure s = RegionStructure.of(graph);
+        return compile(RegionParameters.fromArchive(s, options, params),
+                provenance(graph, options, "parameters " + (params.source() == null ? "(in memory)" : params.source())));
+    }
+
+    /** Compiles with the given parameters; the provenance says what was compiled. */
+    public static CircuitDocument compile(RegionParameters params) {
+        RegionGraph g = params.structure().graph();
+        return compile(params, provenance(g, params.options(), "given parameters"));
+    }
+
+    /**
+     * Compiles with the given parameters.
+     *
+     * @param provenance the circuit's provenance, or {@code null} for none
+     */
+    public static CircuitDocument compile(RegionParameters params, Provenance provenance) {
+        RegionStructure s = params.structure();
+        int nv = s.variables().size();
+        int[][] varArrays = new int[nv][];
+        for (int v = 0; v < nv; v++) {
+            varArrays[v] = new int[] {v};
+        }
+        List<Node> nodes = new ArrayList<>();
+        Layout.Visitor visitor = new Layout.Visitor() {
+            @Override
+            public void input(int position, int region, int bundle, int varPos) {
+                int var = s.vars(region)[varPos];
+                Family f = params.family(var);
+                nodes.add(new InputNode(position, null, f, varArrays[var], params.inputParams(region, bundle, varPos), false));
+            }
+
+            @Override
+            public void product(int position, int region, int[] children) {
+                nodes.add(new ProductNode(position, null, children));
+            }
+
+            @Override
+            public void sum(int position, int region, int k, int[] children) {
+                nodes.add(new SumNode(position, null, children, params.weights(region, k), params.logWeights(region)));
+            }
+        };
+        int[] roots;
+        try {
+            roots = params.layout().walk(visitor);
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+        List<Output> outputs = new ArrayList<>(roots.length);
+        for (int k = 0; k < roots.length; k++) {
+            outputs.add(new Output(outputName(k, roots.length), roots[k]));
+        }
+        RegionGraph g = s.graph();
+        return CircuitDocument.builder().name(g.name()).description(g.description()).provenance(provenance)
+                .variables(s.variables()).nodes(nodes).outputs(outputs).build();
+    }
+
+    /**
+     * The number of nodes the circuit compiled from {@code s} under {@code options} has, computed
+     * without compiling (saturating at {@link Long#MAX_VALUE}); callers compare it with
+     * {@code --max-nodes} before compiling, since a small region graph can describe a circuit too
+     * large for memory.
+     */
+    public static long nodeCount(RegionStructure s, CompileOptions options) {
+        return Layout.nodeCount(s, options);
+    }
+
+    /** The name of output {@code k} of {@code count}: {@code joint} when there is one, else {@code out<k>}. */
+    public static String outputName(int k, int count) {
+        return count == 1 ? "joint" : "out" + k;
+    }
+
+    /**
+     * The parameters of {@code circuit}, compiled from {@code graph}, as an archive in the layout of
+     * FORMAT.md section 3 (see {@link RegionParameters#toArchive()}): compiling {@code graph} with
+     * the result and the same K, I, C and families gives the same circuit, bit for bit.
+     *
+     * @throws FormatException when the graph is not valid or the circuit is not laid out as compiling it gives
+     */
+    public static NpzArchive exportParameters(CircuitDocument circuit, RegionGraph graph) throws FormatException {
+        return RegionParameters.fromCircuit(RegionStructure.of(graph), circuit).toArchive();
+    }
+
+    private static Provenance provenance(RegionGraph g, CompileOptions o, String params) {
+        StringBuilder sb = new StringBuilder("compiled from the region graph");
+        if (g.source() != null) {
+            sb.append(' ').append(g.source());
+        }
+        sb.append(" with ").append(o.sums()).append(" sums per inner region, ").append(o.inputs())
+                .append(" input bundles per leaf region, ").append(o.outputs()).append(" output")
+                .append(o.outputs() == 1 ? "" : "s").append(", ").append(params);
+        return new Provenance(null, null, sb.toString());
+    }
+}
