@@ -177,6 +177,35 @@ public final class Families {
         }
     }
 
+    /**
+     * The log of the input's integral over its whole support: its value when its variable is missing
+     * (FORMAT.md). 0 for every family but a categorical, whose probabilities may not add exactly to 1.
+     */
+    public static double logTotalMass(int code, double[] p, int off, int len) {
+        if (code == CATEGORICAL) {
+            double total = 0;
+            for (int k = 0; k < len; k++) {
+                total += p[off + k];
+            }
+            return Math.log(total);
+        }
+        if (code == CATEGORICAL_LOG) {
+            double m = Double.NEGATIVE_INFINITY;
+            for (int k = 0; k < len; k++) {
+                m = Math.max(m, p[off + k]);
+            }
+            if (m == Double.NEGATIVE_INFINITY) {
+                return m;
+            }
+            double total = 0;
+            for (int k = 0; k < len; k++) {
+                total += Math.exp(p[off + k] - m);
+            }
+            return m + Math.log(total);
+        }
+        return 0;
+    }
+
     /** The log-density at the mode: the largest value the input takes (+inf when unbounded). */
     public static double maxLogDensity(int code, double[] p, int off, int len) {
         return logDensity(code, p, off, len, mode(code, p, off, len));

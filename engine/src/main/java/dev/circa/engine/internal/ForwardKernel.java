@@ -118,7 +118,7 @@ public final class ForwardKernel {
             return;
         }
         int v = c.varIndex[c.varStart[slot]];
-        double missing = max ? Families.maxLogDensity(code, p, off, len) : 0;
+        double missing = max ? Families.maxLogDensity(code, p, off, len) : Families.logTotalMass(code, p, off, len);
         if (hide != null && hide[v]) {
             for (int r = 0; r < rows; r++) {
                 value[base + r] = missing;
