@@ -1,5 +1,6 @@
 package dev.circa.converter.mixture;
 
+import dev.circa.converter.reference.ReferenceDensities;
 import dev.circa.format.Family;
 import dev.circa.format.io.FormatException;
 import dev.circa.format.mixture.Expression;
@@ -117,7 +118,7 @@ public final class MixtureDensity {
                             fullLogDet[i][0]);
                 } else {
                     double xv = data[offset + in.vars()[0]];
-                    v = Double.isNaN(xv) ? 0 : SourceFamilies.logValue(in.family(), in.params(), xv);
+                    v = Double.isNaN(xv) ? 0 : ReferenceDensities.logValue(in.family(), in.params(), xv);
                 }
             } else if (e instanceof GaussianMixtureExpr gm) {
                 v = Double.NEGATIVE_INFINITY;

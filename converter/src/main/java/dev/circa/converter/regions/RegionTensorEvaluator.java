@@ -1,5 +1,6 @@
 package dev.circa.converter.regions;
 
+import dev.circa.converter.reference.ReferenceDensities;
 import dev.circa.format.Family;
 
 /**
@@ -118,7 +119,7 @@ public final class RegionTensorEvaluator {
                             double x = data[row * nv + vars[j]];
                             if (!Double.isNaN(x)) {
                                 Family f = p.family(vars[j]);
-                                sum += LogDensities.of(f, p.inputParams(r, i, j), x);
+                                sum += ReferenceDensities.logValue(f, p.inputParams(r, i, j), x);
                             }
                         }
                         base[row * bundles + i] = sum;

@@ -1,4 +1,4 @@
-package dev.circa.converter.mixture;
+package dev.circa.converter.reference;
 
 import dev.circa.format.Family;
 
@@ -7,7 +7,7 @@ import dev.circa.format.Family;
  * source evaluator (independent of the engine's kernels). Values outside the support give -inf.
  * Not for application code.
  */
-final class SourceFamilies {
+public final class ReferenceDensities {
     private static final double HALF_LOG_2PI = 0.5 * Math.log(2 * Math.PI);
     /** Lanczos coefficients for g = 7, n = 9 (common practice; accurate to about 1e-15 relative). */
     private static final double[] LANCZOS = {
@@ -15,11 +15,11 @@ final class SourceFamilies {
         -176.61502916214059, 12.507343278686905, -0.13857109526572012, 9.9843695780195716e-6,
         1.5056327351493116e-7};
 
-    private SourceFamilies() {
+    private ReferenceDensities() {
     }
 
     /** log of the density or mass of a one-variable input at {@code x} (a state index for discrete families). */
-    static double logValue(Family f, double[] p, double x) {
+    public static double logValue(Family f, double[] p, double x) {
         switch (f) {
             case BERNOULLI:
                 if (x == 0) {
@@ -89,7 +89,7 @@ final class SourceFamilies {
     }
 
     /** log Gamma(x) for x &gt; 0 (Lanczos approximation, with reflection below 1/2). */
-    static double logGamma(double x) {
+    public static double logGamma(double x) {
         if (x < 0.5) {
             return Math.log(Math.PI / Math.abs(Math.sin(Math.PI * x))) - logGamma(1 - x);
         }
