@@ -75,6 +75,15 @@ class CliConvertHardeningTest {
     }
 
     @Test
+    void convert_circuitUnderMaxNodesButBeyondTheHeap_status2InsteadOfOutOfMemory() throws IOException {
+        // 13 leaves of 4 inputs: 4^13 = 67,108,864 products of 13 children each (FORMAT.md section 3, by hand):
+        // under the default --max-nodes, but some 872 million child references, far beyond the test heap.
+        Path g = dir.resolve("star-13.json");
+        Files.writeString(g, starGraph(13));
+        assertRefused(Cli.run("convert", g.toString(), "-o", out.toString()), g.toString(), "Java heap");
+    }
+
+    @Test
     void convert_mixtureUseCycle_status2NamingTheFile() throws IOException {
         Path m = dir.resolve("cycle.yaml");
         Files.writeString(m, "format: circa.mixture\nversion: \"1.0\"\nvariables:\n  - {name: x, type: real}\n"

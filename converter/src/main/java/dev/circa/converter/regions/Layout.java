@@ -94,6 +94,31 @@ final class Layout {
         return total;
     }
 
+    /**
+     * The number of child references of the products the layout emits (each product lists one node of
+     * every part), counted like {@link #nodeCount}; the sums of a region share one child list.
+     */
+    static long productEdgeCount(RegionStructure s, CompileOptions o) {
+        long[] size = new long[s.regionCount()];
+        long total = 0;
+        for (int r : s.order()) {
+            size[r] = r == s.root() ? o.outputs() : s.isLeaf(r) ? o.inputs() : o.sums();
+            if (s.isLeaf(r)) {
+                int n = s.vars(r).length;
+                total = add(total, n > 1 ? multiply(o.inputs(), n) : 0);
+                continue;
+            }
+            for (int p : s.partitionsOf(r)) {
+                long products = 1;
+                for (int q : s.parts(p)) {
+                    products = multiply(products, size[q]);
+                }
+                total = add(total, multiply(products, s.parts(p).length));
+            }
+        }
+        return total;
+    }
+
     private static long add(long a, long b) {
         long c = a + b;
         return c < 0 ? Long.MAX_VALUE : c;

@@ -107,6 +107,14 @@ public final class RegionCompiler {
         return Layout.nodeCount(s, options);
     }
 
+    /**
+     * The number of child references of the products compiling {@code s} under {@code options} would
+     * emit, counted without building anything (saturating at {@link Long#MAX_VALUE}).
+     */
+    public static long productEdgeCount(RegionStructure s, CompileOptions options) {
+        return Layout.productEdgeCount(s, options);
+    }
+
     /** The name of output {@code k} of {@code count}: {@code joint} when there is one, else {@code out<k>}. */
     public static String outputName(int k, int count) {
         return count == 1 ? "joint" : "out" + k;
