@@ -40,13 +40,16 @@ public final class Main implements Runnable {
     /** Runs the command line with the given streams and returns the exit status (for tests). */
     public static int run(String[] args, PrintWriter out, PrintWriter err) {
         CommandLine cl = new CommandLine(new Main());
+        for (CommandLine sub : cl.getSubcommands().values()) {
+            summarise(sub.getCommandSpec());
+        }
         cl.setOut(out);
         cl.setErr(err);
         boolean debug = java.util.Arrays.asList(args).contains("--debug");
         cl.setParameterExceptionHandler((ex, a) -> {
             CommandLine c = ex.getCommandLine();
             c.getErr().println("circa: " + ex.getMessage());
-            c.getErr().println("Try 'circa " + commandPath(c) + " --help' for the options.");
+            c.getErr().println("Try 'circa " + commandPath(c) + "--help' for the options.");
             return ExitStatus.UNUSABLE;
         });
         cl.setExecutionExceptionHandler((ex, c, parsed) -> {
@@ -78,7 +81,22 @@ public final class Main implements Runnable {
 
     private static String commandPath(CommandLine c) {
         String q = c.getCommandSpec().qualifiedName();
-        return q.startsWith("circa ") ? q.substring(6) : "";
+        return q.startsWith("circa ") ? q.substring(6) + " " : "";
+    }
+
+    /** The first sentence of a command's description, as its one-line entry in the list of subcommands. */
+    private static void summarise(CommandLine.Model.CommandSpec spec) {
+        String[] d = spec.usageMessage().description();
+        if (d.length == 0 || spec.usageMessage().header().length > 0) {
+            return;
+        }
+        String text = String.join(" ", d);
+        int end = text.indexOf(". ");
+        String first = end < 0 ? text : text.substring(0, end + 1);
+        if (first.length() > 110) {
+            first = first.substring(0, first.lastIndexOf(' ', 107)) + " ...";
+        }
+        spec.usageMessage().header(first);
     }
 
     /** Supplies {@code --version}. */
