@@ -71,12 +71,28 @@ public final class Main implements Runnable {
         try {
             return cl.execute(args);
         } catch (StackOverflowError e) {
-            err.println("circa: the input is nested too deeply to process (stack exhausted)");
+            err.println("circa: " + inputsNamed(args) + "the input is nested too deeply to process (stack exhausted)");
             return ExitStatus.UNUSABLE;
         } catch (OutOfMemoryError e) {
-            err.println("circa: out of memory; give Java more heap with CIRCA_JAVA_OPTS=-Xmx... or lower the input size");
+            err.println("circa: " + inputsNamed(args)
+                    + "out of memory; give Java more heap with CIRCA_JAVA_OPTS=-Xmx... or lower the input size");
             return ExitStatus.UNUSABLE;
         }
+    }
+
+    /** "a.json, b.csv: " for the arguments that name existing files, so that a last-resort message names the input. */
+    private static String inputsNamed(String[] args) {
+        StringBuilder sb = new StringBuilder();
+        for (String a : args) {
+            try {
+                if (!a.startsWith("-") && java.nio.file.Files.isRegularFile(java.nio.file.Path.of(a))) {
+                    sb.append(sb.length() == 0 ? "" : ", ").append(a);
+                }
+            } catch (java.nio.file.InvalidPathException e) {
+                // not a file name
+            }
+        }
+        return sb.length() == 0 ? "" : sb + ": ";
     }
 
     private static String commandPath(CommandLine c) {
