@@ -3,7 +3,6 @@ package dev.circa.converter.normalize;
 import dev.circa.engine.CompileException;
 import dev.circa.engine.CompiledCircuit;
 import dev.circa.engine.Evaluator;
-import dev.circa.engine.NodeKind;
 import dev.circa.format.CheckCase;
 import dev.circa.format.Checks;
 import dev.circa.format.CircuitDocument;
@@ -12,8 +11,15 @@ import dev.circa.format.InputNode;
 import dev.circa.format.Node;
 import dev.circa.format.ProductNode;
 import dev.circa.format.SumNode;
+import dev.circa.validator.Diagnostic;
+import dev.circa.validator.Property;
+import dev.circa.validator.ValidationOptions;
+import dev.circa.validator.ValidationReport;
+import dev.circa.validator.Validator;
+import dev.circa.validator.Verdict;
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Set;
 
 /**
  * Exact renormalisation of a smooth, decomposable circuit with non-negative weights. With Z_j the
@@ -32,6 +38,10 @@ public final class Renormalizer {
      */
     public static final double ROUNDING = 64 * Math.ulp(1.0);
 
+    /** The validator's structure checks only: embedded checks are not evaluated here. */
+    private static final ValidationOptions STRUCTURE = ValidationOptions.defaults()
+            .withRequire(Set.of(Property.SMOOTH, Property.DECOMPOSABLE)).withRule("CheckCaseFailed:off");
+
     private Renormalizer() {
     }
 
@@ -47,7 +57,7 @@ public final class Renormalizer {
      *     the node and a variable), has a negative weight or probability, or a sum of total mass 0
      */
     public static NormalizationResult normalize(CircuitDocument doc, CompiledCircuit c) throws NotNormalizableException {
-        requireSmoothDecomposable(c);
+        requireSmoothDecomposable(doc);
         int n = c.nodeCount();
         List<Node> nodes = doc.nodes();
         double[] logZ = new double[n];
@@ -197,62 +207,24 @@ public final class Renormalizer {
         return Math.log(s);
     }
 
-    /** Throws when some product's children share a variable or some sum's children differ in scope. */
-    static void requireSmoothDecomposable(CompiledCircuit c) throws NotNormalizableException {
-        InternedScopes scopes = InternedScopes.of(c);
-        int[] cs = c.childStart();
-        int[] ci = c.childIndex();
-        int[] owner = new int[c.variableCount()];
-        java.util.Arrays.fill(owner, -1);
-        for (int i = 0; i < c.nodeCount(); i++) {
-            NodeKind k = c.kind(i);
-            if (k == NodeKind.PRODUCT) {
-                int total = 0;
-                for (int e = cs[i]; e < cs[i + 1]; e++) {
-                    total += scopes.variables(scopes.scopeOf(ci[e])).length;
-                }
-                if (total != scopes.variables(scopes.scopeOf(i)).length) {
-                    for (int e = cs[i]; e < cs[i + 1]; e++) {
-                        for (int v : scopes.variables(scopes.scopeOf(ci[e]))) {
-                            if (owner[v] >= 0) {
-                                throw new NotNormalizableException("the circuit is not decomposable: children "
-                                        + c.nodeId(ci[owner[v]]) + " and " + c.nodeId(ci[e]) + " of product node " + c.nodeId(i)
-                                        + " share variable " + c.variables().get(v).name() + "; renormalisation needs a smooth, decomposable circuit");
-                            }
-                            owner[v] = e;
-                        }
-                    }
-                }
-            } else if (k == NodeKind.SUM) {
-                int first = scopes.scopeOf(ci[cs[i]]);
-                for (int e = cs[i] + 1; e < cs[i + 1]; e++) {
-                    int s = scopes.scopeOf(ci[e]);
-                    if (s != first) {
-                        int[] a = scopes.variables(first);
-                        int[] b = scopes.variables(s);
-                        int v = firstDifference(a, b);
-                        boolean inFirst = java.util.Arrays.binarySearch(a, v) >= 0;
-                        throw new NotNormalizableException("the circuit is not smooth: variable " + c.variables().get(v).name()
-                                + " is in the scope of child " + c.nodeId(inFirst ? ci[cs[i]] : ci[e]) + " of sum node " + c.nodeId(i)
-                                + " but not of child " + c.nodeId(inFirst ? ci[e] : ci[cs[i]])
-                                + "; renormalisation needs a smooth, decomposable circuit");
-                    }
-                }
+    /**
+     * Throws when the validator finds a product whose children share a variable or a sum whose
+     * children differ in scope, naming the node and the variable.
+     */
+    static void requireSmoothDecomposable(CircuitDocument doc) throws NotNormalizableException {
+        ValidationReport report = new Validator(STRUCTURE).validate(doc);
+        if (report.property(Property.SMOOTH) == Verdict.TRUE && report.property(Property.DECOMPOSABLE) == Verdict.TRUE) {
+            return;
+        }
+        for (Diagnostic d : report.diagnostics()) {
+            String what = d.code().equals("ProductScopesOverlap") ? "not decomposable at product node "
+                    : d.code().equals("SumScopesDiffer") ? "not smooth at sum node " : null;
+            if (what != null) {
+                throw new NotNormalizableException("the circuit is " + what + d.node() + ": " + d.message()
+                        + "; renormalisation needs a smooth, decomposable circuit");
             }
         }
-    }
-
-    private static int firstDifference(int[] a, int[] b) {
-        int i = 0;
-        int j = 0;
-        while (i < a.length && j < b.length) {
-            if (a[i] == b[j]) {
-                i++;
-                j++;
-            } else {
-                return Math.min(a[i], b[j]);
-            }
-        }
-        return i < a.length ? a[i] : b[j];
+        throw new NotNormalizableException("the circuit is not proven smooth and decomposable; renormalisation needs "
+                + "a smooth, decomposable circuit (run circa validate for the diagnostics)");
     }
 }
