@@ -8,8 +8,6 @@ import java.nio.file.Path;
 final class Fixtures {
     /** The FORMAT.md section 2 example circuit (pump station). */
     static final Path PUMP_STATION = Path.of("..", "fixtures", "circuits", "pump-station.json");
-    /** A circuit compiled from a 2x2 grid region graph (dense blocks). */
-    static final Path GRID = Path.of("..", "fixtures", "regions", "grid-2x2-k2-i2-seed3.circuit.json");
     /** FORMAT.md section 5: SciPy 1.10, log p(inlet_pressure = 3.0, valve = open) of the example circuit. */
     static final double SCIPY_FULL = 0.18261296103078395;
     /** FORMAT.md section 5: SciPy 1.10, log p(inlet_pressure = 2.1) of the example circuit, valve missing. */
