@@ -1,5 +1,7 @@
 package dev.circa.validator.analysis;
 
+import dev.circa.engine.family.ParameterLimits;
+import dev.circa.engine.family.ParameterLimits.Limit;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.Family;
 import dev.circa.format.InputNode;
@@ -111,41 +113,22 @@ public final class Parameters {
         List<Variable> vars = doc.variables();
         int v = in.vars().length > 0 ? in.vars()[0] : -1;
         Variable var = v >= 0 && v < vars.size() ? vars.get(v) : null;
-        switch (f) {
-            case BERNOULLI -> unit(i, in, "p", p[0]);
-            case CATEGORICAL -> categorical(i, in, var, tol);
-            case INDICATOR -> {
-                int states = var == null ? Integer.MAX_VALUE : var.stateCount();
-                if (p[0] != Math.rint(p[0]) || p[0] < 0 || p[0] >= states) {
-                    add(OUT_OF_RANGE, i, "value", "value of indicator node %d is %s; expected a state index 0..%d of %s",
-                            id, num(p[0]), states - 1, var == null ? "its variable" : var.name());
+        if (f == Family.CATEGORICAL) {
+            categorical(i, in, var, tol);
+        } else if (f == Family.MVNORMAL) {
+            mvnormal(i, in, tol);
+        } else {
+            List<Limit> limits = ParameterLimits.of(f);
+            int states = var == null ? Integer.MAX_VALUE : var.stateCount();
+            for (int k = 0; k < limits.size(); k++) {
+                if (!limits.get(k).holds(p[k], states)) {
+                    outOfRange(i, in, limits.get(k), f.parameters().get(k), p[k], states, var);
                 }
             }
-            case NORMAL -> positive(i, in, "sd", p[1]);
-            case LOGNORMAL -> positive(i, in, "sigma", p[1]);
-            case EXPONENTIAL, POISSON -> positive(i, in, "rate", p[0]);
-            case GAMMA -> {
-                positive(i, in, "shape", p[0]);
-                positive(i, in, "rate", p[1]);
+            if (!ParameterLimits.inOrder(f, p)) {
+                add(OUT_OF_RANGE, i, "low", "uniform node %d has low %s and high %s; expected low < high",
+                        id, num(p[0]), num(p[1]));
             }
-            case BETA -> {
-                positive(i, in, "alpha", p[0]);
-                positive(i, in, "beta", p[1]);
-            }
-            case UNIFORM -> {
-                if (!(p[0] < p[1])) {
-                    add(OUT_OF_RANGE, i, "low", "uniform node %d has low %s and high %s; expected low < high",
-                            id, num(p[0]), num(p[1]));
-                }
-            }
-            case BINOMIAL -> {
-                if (p[0] != Math.rint(p[0]) || p[0] < 0) {
-                    add(OUT_OF_RANGE, i, "trials", "trials of binomial node %d is %s; expected an integer >= 0", id, num(p[0]));
-                }
-                unit(i, in, "p", p[1]);
-            }
-            case MVNORMAL -> mvnormal(i, in, tol);
-            default -> throw new IllegalStateException(fam);
         }
     }
 
@@ -165,17 +148,19 @@ public final class Parameters {
         return Numbers.text(x);
     }
 
-    private void unit(int i, InputNode in, String name, double x) {
-        if (!(x >= 0 && x <= 1)) {
-            add(OUT_OF_RANGE, i, name, "%s of %s node %d is %s; expected a probability in [0, 1]",
-                    name, in.family().jsonName(), in.id(), num(x));
-        }
-    }
-
-    private void positive(int i, InputNode in, String name, double x) {
-        if (!(x > 0)) {
-            add(OUT_OF_RANGE, i, name, "%s of %s node %d is %s; expected a number > 0",
-                    name, in.family().jsonName(), in.id(), num(x));
+    private void outOfRange(int i, InputNode in, Limit limit, String name, double x, int states, Variable var) {
+        String fam = in.family().jsonName();
+        switch (limit) {
+            case PROBABILITY -> add(OUT_OF_RANGE, i, name, "%s of %s node %d is %s; expected a probability in [0, 1]",
+                    name, fam, in.id(), num(x));
+            case POSITIVE -> add(OUT_OF_RANGE, i, name, "%s of %s node %d is %s; expected a number > 0",
+                    name, fam, in.id(), num(x));
+            case COUNT -> add(OUT_OF_RANGE, i, name, "%s of %s node %d is %s; expected an integer >= 0",
+                    name, fam, in.id(), num(x));
+            case STATE -> add(OUT_OF_RANGE, i, name, "%s of %s node %d is %s; expected a state index 0..%d of %s",
+                    name, fam, in.id(), num(x), states - 1, var == null ? "its variable" : var.name());
+            default -> add(OUT_OF_RANGE, i, name, "%s of %s node %d is %s; expected %s", name, fam, in.id(), num(x),
+                    limit.name().toLowerCase(Locale.ROOT));
         }
     }
 
@@ -191,7 +176,7 @@ public final class Parameters {
         for (int k = 0; k < p.length; k++) {
             if (in.logForm()) {
                 sum += Math.exp(p[k]);
-            } else if (p[k] < 0) {
+            } else if (!ParameterLimits.of(Family.CATEGORICAL).get(0).holds(p[k], Integer.MAX_VALUE)) {
                 negative = true;
                 add(OUT_OF_RANGE, i, member + "/" + k, "probability %d of categorical node %d is %s; expected >= 0",
                         k, in.id(), num(p[k]));
