@@ -19,8 +19,6 @@ public final class CircuitDocument implements Document {
     private final Checks checks;
     private final NodeLocations nodeLocations;
     private final DocumentLocations locations;
-    private final List<ReadFinding> findings;
-    private final String source;
 
     private CircuitDocument(Builder b) {
         this.header = b.header();
@@ -29,8 +27,6 @@ public final class CircuitDocument implements Document {
         this.checks = b.checks;
         this.nodeLocations = b.nodeLocations == null ? NodeLocations.NONE : b.nodeLocations;
         this.locations = b.locations == null ? DocumentLocations.NONE : b.locations;
-        this.findings = List.copyOf(b.findings);
-        this.source = b.source;
     }
 
     /** A builder for documents made in code (converters, tests). */
@@ -41,16 +37,6 @@ public final class CircuitDocument implements Document {
     @Override
     public Header header() {
         return header;
-    }
-
-    @Override
-    public List<ReadFinding> findings() {
-        return findings;
-    }
-
-    @Override
-    public String source() {
-        return source;
     }
 
     /** The nodes in document order. */
@@ -94,8 +80,6 @@ public final class CircuitDocument implements Document {
         private Checks checks;
         private NodeLocations nodeLocations;
         private DocumentLocations locations;
-        private List<ReadFinding> findings = List.of();
-        private String source;
 
         private Builder() {
         }
@@ -122,16 +106,6 @@ public final class CircuitDocument implements Document {
 
         public Builder locations(DocumentLocations v) {
             this.locations = v;
-            return this;
-        }
-
-        public Builder findings(List<ReadFinding> v) {
-            this.findings = v;
-            return this;
-        }
-
-        public Builder source(String v) {
-            this.source = v;
             return this;
         }
 

@@ -11,12 +11,6 @@ public interface Document {
     /** The shared members. */
     Header header();
 
-    /** Things the reader noticed that did not stop it (unknown properties). */
-    List<ReadFinding> findings();
-
-    /** The file the document was read from (for messages), or {@code null}. */
-    String source();
-
     /** The document's {@code version}, e.g. {@code "1.0"}. */
     default String version() {
         return header().version();
@@ -45,5 +39,15 @@ public interface Document {
     /** The free-form {@code extensions} object, or {@code null}. */
     default JsonNode extensions() {
         return header().extensions();
+    }
+
+    /** Things the reader noticed that did not stop it (unknown properties). */
+    default List<ReadFinding> findings() {
+        return header().findings();
+    }
+
+    /** The file the document was read from (for messages), or {@code null}. */
+    default String source() {
+        return header().source();
     }
 }

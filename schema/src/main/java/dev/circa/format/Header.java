@@ -5,8 +5,9 @@ import tools.jackson.databind.JsonNode;
 
 /**
  * The members every document kind shares (FORMAT.md: circuit, region graph, mixture): {@code version},
- * {@code name}, {@code description}, {@code provenance}, {@code variables} and {@code extensions}.
- * Immutable and safe to share between threads.
+ * {@code name}, {@code description}, {@code provenance}, {@code variables} and {@code extensions}, with
+ * what every reader keeps beside them: its findings and the file it read. Immutable and safe to share
+ * between threads.
  */
 public final class Header {
     private final String version;
@@ -15,6 +16,8 @@ public final class Header {
     private final Provenance provenance;
     private final List<Variable> variables;
     private final JsonNode extensions;
+    private final List<ReadFinding> findings;
+    private final String source;
 
     private Header(Setters<?> b) {
         this.version = b.version;
@@ -23,6 +26,8 @@ public final class Header {
         this.provenance = b.provenance;
         this.variables = List.copyOf(b.variables);
         this.extensions = b.extensions;
+        this.findings = List.copyOf(b.findings);
+        this.source = b.source;
     }
 
     /** A builder for a header on its own (readers, tests). */
@@ -60,6 +65,16 @@ public final class Header {
         return extensions;
     }
 
+    /** Things the reader noticed that did not stop it (unknown properties). */
+    public List<ReadFinding> findings() {
+        return findings;
+    }
+
+    /** The file the document was read from (for messages), or {@code null}. */
+    public String source() {
+        return source;
+    }
+
     /**
      * The header's setters, shared by the builder of every document kind. Not thread-safe.
      *
@@ -72,6 +87,8 @@ public final class Header {
         private Provenance provenance;
         private List<Variable> variables = List.of();
         private JsonNode extensions;
+        private List<ReadFinding> findings = List.of();
+        private String source;
 
         protected Setters() {
         }
@@ -108,6 +125,16 @@ public final class Header {
 
         public B extensions(JsonNode v) {
             this.extensions = v;
+            return self();
+        }
+
+        public B findings(List<ReadFinding> v) {
+            this.findings = v;
+            return self();
+        }
+
+        public B source(String v) {
+            this.source = v;
             return self();
         }
 

@@ -2,10 +2,8 @@ package dev.circa.format.mixture;
 
 import dev.circa.format.Document;
 import dev.circa.format.Header;
-import dev.circa.format.ReadFinding;
 import java.util.Collections;
 import java.util.LinkedHashMap;
-import java.util.List;
 import java.util.Map;
 
 /**
@@ -21,38 +19,21 @@ public final class MixtureDocument implements Document {
     private final Header header;
     private final Map<String, Definition> definitions;
     private final Expression model;
-    private final List<ReadFinding> findings;
-    private final String source;
 
     /**
-     * @param header version, name, description, provenance and variables
+     * @param header version, name, description, provenance and variables; the findings (unknown
+     *     properties ignored in a document of a newer minor version) and the file read, or {@code null}
      * @param definitions by name, in document order
-     * @param findings unknown properties ignored in a document of a newer minor version
-     * @param source the file it was read from, or {@code null}
      */
-    public MixtureDocument(Header header, Map<String, Definition> definitions, Expression model,
-            List<ReadFinding> findings, String source) {
+    public MixtureDocument(Header header, Map<String, Definition> definitions, Expression model) {
         this.header = header;
         this.definitions = Collections.unmodifiableMap(new LinkedHashMap<>(definitions));
         this.model = model;
-        this.findings = List.copyOf(findings);
-        this.source = source;
     }
 
     @Override
     public Header header() {
         return header;
-    }
-
-    /** Unknown properties that were ignored (only in a document of a newer minor version). */
-    @Override
-    public List<ReadFinding> findings() {
-        return findings;
-    }
-
-    @Override
-    public String source() {
-        return source;
     }
 
     /** The definitions by name, in document order. */

@@ -341,8 +341,8 @@ public final class MixtureReader {
             }
             Expression root = resolve(model);
             Header header = Header.builder().version(version).name(name).description(description)
-                    .provenance(provenance).variables(variables).build();
-            return new MixtureDocument(header, definitions, root, findings, file);
+                    .provenance(provenance).variables(variables).findings(findings).source(file).build();
+            return new MixtureDocument(header, definitions, root);
         }
 
         // ------------------------------------------------------------ reading

@@ -2,7 +2,6 @@ package dev.circa.format.regions;
 
 import dev.circa.format.Document;
 import dev.circa.format.Header;
-import dev.circa.format.ReadFinding;
 import dev.circa.format.SourceLocation;
 import java.util.Arrays;
 import java.util.List;
@@ -22,8 +21,6 @@ public final class RegionGraph implements Document {
     private final Header header;
     private final List<Region> regions;
     private final List<Partition> partitions;
-    private final List<ReadFinding> findings;
-    private final String source;
     private final int[] regionLines;
     private final int[] regionColumns;
     private final int[] partitionLines;
@@ -33,8 +30,6 @@ public final class RegionGraph implements Document {
         this.header = b.header();
         this.regions = List.copyOf(b.regions);
         this.partitions = List.copyOf(b.partitions);
-        this.findings = List.copyOf(b.findings);
-        this.source = b.source;
         this.regionLines = b.regionLines;
         this.regionColumns = b.regionColumns;
         this.partitionLines = b.partitionLines;
@@ -49,16 +44,6 @@ public final class RegionGraph implements Document {
     @Override
     public Header header() {
         return header;
-    }
-
-    @Override
-    public List<ReadFinding> findings() {
-        return findings;
-    }
-
-    @Override
-    public String source() {
-        return source;
     }
 
     /** The regions in document order. */
@@ -92,8 +77,6 @@ public final class RegionGraph implements Document {
     public static final class Builder extends Header.Setters<Builder> {
         private List<Region> regions = List.of();
         private List<Partition> partitions = List.of();
-        private List<ReadFinding> findings = List.of();
-        private String source;
         private int[] regionLines;
         private int[] regionColumns;
         private int[] partitionLines;
@@ -109,16 +92,6 @@ public final class RegionGraph implements Document {
 
         public Builder partitions(List<Partition> v) {
             this.partitions = v;
-            return this;
-        }
-
-        public Builder findings(List<ReadFinding> v) {
-            this.findings = v;
-            return this;
-        }
-
-        public Builder source(String v) {
-            this.source = v;
             return this;
         }
 

@@ -1,5 +1,8 @@
 package dev.circa.validator.compare;
 
+import static dev.circa.validator.ReportNumbers.g;
+import static dev.circa.validator.ReportNumbers.ld;
+
 import dev.circa.format.Variable;
 import dev.circa.format.csv.CellValues;
 import dev.circa.validator.ReportJson;
@@ -137,19 +140,5 @@ public record ComparisonReport(CompareOptions options, List<Variable> variables,
             sb.append(Double.isNaN(values[v]) ? "missing" : CellValues.format(variables.get(v), values[v]));
         }
         return sb.append('}').toString();
-    }
-
-    private static String g(double d) {
-        if (Double.isNaN(d)) {
-            return "n/a";
-        }
-        if (Double.isInfinite(d)) {
-            return d > 0 ? "inf" : "-inf";
-        }
-        return String.format(Locale.ROOT, "%.3g", d);
-    }
-
-    private static String ld(double d) {
-        return d == Double.NEGATIVE_INFINITY ? "-inf" : Double.isNaN(d) ? "NaN" : Double.toString(d);
     }
 }

@@ -1,5 +1,8 @@
 package dev.circa.validator.regression;
 
+import static dev.circa.validator.ReportNumbers.g;
+import static dev.circa.validator.ReportNumbers.ld;
+
 import dev.circa.validator.ReportJson;
 import java.util.List;
 import java.util.Locale;
@@ -107,19 +110,5 @@ public record CheckReport(Tolerance tolerance, long cases, long failures, double
             }
         }
         return sb.toString();
-    }
-
-    private static String g(double d) {
-        if (Double.isNaN(d)) {
-            return "n/a";
-        }
-        if (Double.isInfinite(d)) {
-            return d > 0 ? "inf" : "-inf";
-        }
-        return String.format(Locale.ROOT, "%.3g", d);
-    }
-
-    private static String ld(double d) {
-        return d == Double.NEGATIVE_INFINITY ? "-inf" : Double.isNaN(d) ? "NaN" : Double.toString(d);
     }
 }
