@@ -13,6 +13,7 @@ import dev.circa.format.mixture.MixtureDocument;
 import dev.circa.format.mixture.MixtureEntry;
 import dev.circa.format.mixture.MixtureExpr;
 import dev.circa.format.mixture.ProductExpr;
+import dev.circa.validator.analysis.Numbers;
 import java.util.List;
 import java.util.Locale;
 

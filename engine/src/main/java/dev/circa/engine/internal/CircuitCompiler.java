@@ -60,7 +60,7 @@ public final class CircuitCompiler {
         }
         IdIndex ids = null;
         if (!identity) {
-            ids = new IdIndex(n);
+            ids = new IdIndex(nodeId);
             for (int i = 0; i < n; i++) {
                 int previous = ids.putIfAbsent(nodeId[i], i);
                 if (previous >= 0) {
