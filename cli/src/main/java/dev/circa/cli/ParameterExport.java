@@ -1,7 +1,7 @@
 package dev.circa.cli;
 
 import dev.circa.converter.npz.NpzArchive;
-import dev.circa.converter.regions.RegionCompiler;
+import dev.circa.converter.regions.RegionConverter;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.io.CircuitReader;
 import dev.circa.format.io.ReadLimits;
@@ -22,7 +22,7 @@ final class ParameterExport {
         }
         CircuitDocument circuit = new CircuitReader(limits).read(circuitFile);
         RegionGraph graph = new RegionGraphReader(limits).read(regions);
-        NpzArchive archive = RegionCompiler.exportParameters(circuit, graph);
+        NpzArchive archive = RegionConverter.exportParameters(circuit, graph);
         archive.write(target, false, circuitFile, regions);
         err.println("wrote " + archive.size() + " arrays to " + target);
         return ExitStatus.OK;

@@ -1,5 +1,6 @@
 package dev.circa.converter.regions;
 
+import dev.circa.converter.npz.NpzArchive;
 import dev.circa.engine.CompileException;
 import dev.circa.engine.CompiledCircuit;
 import dev.circa.format.CircuitDocument;
@@ -105,6 +106,16 @@ public final class RegionConverter {
         ValidationReport report = new Validator(ValidationOptions.defaults()).validate(circuit);
         long t3 = System.nanoTime();
         return new Result(circuit, p, compiled, v, verify, report, new long[] {t1 - t0, t2 - t1, t3 - t2});
+    }
+
+    /**
+     * The parameters of {@code circuit}, compiled from {@code graph}, as an archive in the layout of
+     * FORMAT.md section 3 ({@link RegionCompiler#exportParameters}).
+     *
+     * @throws FormatException when the graph is not valid or the circuit is not laid out as compiling it gives
+     */
+    public static NpzArchive exportParameters(CircuitDocument circuit, RegionGraph graph) throws FormatException {
+        return RegionCompiler.exportParameters(circuit, graph);
     }
 
     private static String name(RegionGraph graph) {
