@@ -18,21 +18,11 @@ import org.junit.jupiter.api.io.TempDir;
  * describes it; sample writes the rows the API draws for the same seed.
  */
 class ModelLoadingTest {
-    private static final String NOT_DECOMPOSABLE = """
-            {"format": "circa.circuit", "version": "1.0",
-             "variables": [{"name": "inlet_pressure", "type": "real"}],
-             "nodes": [
-               {"id": 0, "input": "normal", "var": 0, "mean": 3.1, "sd": 0.2},
-               {"id": 1, "input": "normal", "var": 0, "mean": 2.2, "sd": 0.5},
-               {"id": 2, "product": [0, 1]}
-             ],
-             "outputs": [{"name": "joint", "node": 2}]}
-            """;
+    private static final Path NOT_DECOMPOSABLE = Path.of("..", "fixtures", "circuits", "not-decomposable.json");
 
     @Test
     void everyCircuitReader_notDecomposable_status2WithTheDiagnostic(@TempDir Path dir) throws Exception {
-        Path bad = dir.resolve("bad.json");
-        Files.writeString(bad, NOT_DECOMPOSABLE);
+        Path bad = NOT_DECOMPOSABLE;
         Path data = dir.resolve("data.csv");
         Files.writeString(data, "inlet_pressure\n3.0\n");
         Path regions = Path.of("..", "fixtures", "regions", "random-n6-d2-r2-seed7.json");
@@ -55,10 +45,8 @@ class ModelLoadingTest {
     }
 
     @Test
-    void inspect_notDecomposable_describedNotRefused(@TempDir Path dir) throws Exception {
-        Path bad = dir.resolve("bad.json");
-        Files.writeString(bad, NOT_DECOMPOSABLE);
-        Cli.Result r = Cli.run("inspect", bad.toString());
+    void inspect_notDecomposable_describedNotRefused() {
+        Cli.Result r = Cli.run("inspect", NOT_DECOMPOSABLE.toString());
         assertEquals(ExitStatus.OK, r.status(), r::describe);
         assertTrue(r.out().matches("(?s).*\n    decomposable +false\n.*"), r.out());
     }
