@@ -5,6 +5,7 @@ import dev.circa.validator.regression.CheckReport;
 import dev.circa.validator.regression.RegressionCheck;
 import dev.circa.validator.regression.Tolerance;
 import java.io.PrintWriter;
+import dev.circa.model.Model;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -44,7 +45,7 @@ final class CheckCommand implements Callable<Integer> {
     @Override
     public Integer call() throws FormatException {
         PrintWriter out = read.out();
-        LoadedCircuit model = read.load(circuitFile);
+        Model model = read.load(circuitFile);
         Tolerance tol;
         try {
             tol = Tolerance.resolve(model.document().checks(), atol, rtol);

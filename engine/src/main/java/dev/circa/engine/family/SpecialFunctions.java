@@ -24,7 +24,7 @@ public final class SpecialFunctions {
     private SpecialFunctions() {
     }
 
-    /** log Gamma(x) for x > 0 (NaN for x <= 0 or NaN, +inf for +inf). */
+    /** log Gamma(x) for x {@literal >} 0 (NaN for x {@literal <=} 0 or NaN, +inf for +inf). */
     public static double logGamma(double x) {
         if (!(x > 0)) {
             return Double.NaN;

@@ -12,7 +12,7 @@ public final class Variates {
     private Variates() {
     }
 
-    /** A Gamma(shape, 1) variate (Marsaglia and Tsang, 2000; shape < 1 by the power boost). */
+    /** A Gamma(shape, 1) variate (Marsaglia and Tsang, 2000; shape {@literal <} 1 by the power boost). */
     public static double gamma(Xoshiro256 rng, double shape) {
         if (shape < 1) {
             double g = gamma(rng, shape + 1);
