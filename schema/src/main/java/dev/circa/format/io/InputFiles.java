@@ -6,10 +6,11 @@ import java.io.InputStream;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
-import java.util.zip.GZIPInputStream;
-import java.util.zip.ZipException;
 
-/** Opens input files: {@code -} for standard input, {@code .gz} decompressed, {@code --max-bytes} enforced. */
+/**
+ * Opens input files: {@code -} for standard input, {@code .gz} decompressed (nothing but gzip members
+ * up to the end of the file), {@code --max-bytes} enforced.
+ */
 public final class InputFiles {
     private InputFiles() {
     }
@@ -43,11 +44,10 @@ public final class InputFiles {
             InputStream in = new BufferedInputStream(raw, 1 << 16);
             if (gz) {
                 try {
-                    in = new GZIPInputStream(in, 1 << 16);
-                } catch (ZipException | java.io.EOFException e) {
+                    in = GzipMembersInputStream.open(in, name);
+                } catch (IOException e) {
                     in.close();
-                    throw new FormatException(name, 0, 0, null,
-                            "the name ends in .gz but the file is not gzip-compressed");
+                    throw e;
                 }
             }
             return new LimitedInputStream(in, maxBytes, name);
