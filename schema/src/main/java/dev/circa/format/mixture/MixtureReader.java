@@ -12,6 +12,7 @@ import dev.circa.format.io.InputFiles;
 import dev.circa.format.io.JsonInput;
 import dev.circa.format.io.LimitExceededException;
 import dev.circa.format.io.ReadLimits;
+import dev.circa.format.io.TextDecoding;
 import java.io.BufferedInputStream;
 import java.io.ByteArrayInputStream;
 import java.io.IOException;
@@ -26,12 +27,14 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.Set;
 import org.snakeyaml.engine.v2.api.LoadSettings;
+import org.snakeyaml.engine.v2.schema.CoreSchema;
 import tools.jackson.core.JacksonException;
 import tools.jackson.core.JsonParser;
 import tools.jackson.core.JsonToken;
 import tools.jackson.core.StreamReadFeature;
 import tools.jackson.core.TokenStreamLocation;
 import tools.jackson.dataformat.yaml.YAMLFactory;
+import tools.jackson.dataformat.yaml.YAMLFactoryBuilder;
 import tools.jackson.dataformat.yaml.YAMLMapper;
 import tools.jackson.dataformat.yaml.YAMLReadFeature;
 import tools.jackson.dataformat.yaml.YAMLSchema;
@@ -164,15 +167,17 @@ public final class MixtureReader {
             return JsonInput.fromStream(in, file, limits);
         }
         try {
-            YAMLFactory factory = YAMLFactory.builder()
+            YAMLFactoryBuilder builder = YAMLFactory.builder()
                     .yamlSchema(YAMLSchema.CORE)
                     .disable(YAMLReadFeature.PARSE_OCTAL_NUMBERS)
                     .enable(StreamReadFeature.STRICT_DUPLICATE_DETECTION)
                     .streamReadConstraints(JsonInput.constraints(limits))
                     .loadSettings(LoadSettings.builder().setCodePointLimit(Integer.MAX_VALUE)
-                            .setMaxAliasesForCollections(0).build())
-                    .build();
-            JsonParser p = YAMLMapper.builder(factory).build().createParser(in);
+                            .setSchema(new CoreSchema())
+                            .setMaxAliasesForCollections(0).build());
+            // UTF-8, UTF-16 or UTF-32 with or without a byte-order mark, as JSON text is read
+            JsonParser p = YAMLMapper.builder(new CoreYamlFactory(builder, file)).build()
+                    .createParser(TextDecoding.reader(in, file));
             return new JsonInput(new YamlGuard(p, file), file);
         } catch (JacksonException e) {
             throw JsonInput.translate(e, file);
@@ -276,7 +281,12 @@ public final class MixtureReader {
                         }
                     }
                     case "version" -> {
-                        version = readScalarText(member);
+                        if (in.isNumber()) {
+                            // one rule for JSON and YAML: 1.0 unquoted is a number, and a number loses "1.10"
+                            throw in.error(member, "version " + in.parser().getText() + " is a number; expected the"
+                                    + " string \"1.0\" (quote it: version: \"1.0\")");
+                        }
+                        version = in.readString(member);
                         DocumentHeader.checkVersion(in, version, member);
                     }
                     case "name" -> name = in.readString(member);
