@@ -188,7 +188,37 @@ public final class SchemaCatalog {
      * @param pointer the node's pointer in its document (e.g. {@code /nodes/41}), prefixed to every violation
      */
     public List<SchemaViolation> validateNode(JsonNode node, String pointer) {
-        return convert(nodeSchema.validate(node), pointer == null ? "" : pointer);
+        String prefix = pointer == null ? "" : pointer;
+        List<SchemaViolation> huge = integersBeyondRange(node, prefix);
+        if (!huge.isEmpty()) {
+            // the schema library compares integer keywords in 64 bits and fails on such numbers; they are
+            // reported here, by member, instead
+            return huge;
+        }
+        return convert(nodeSchema.validate(node), prefix);
+    }
+
+    /** Numbers beyond 2^53 in magnitude are not integers a double holds exactly (nor, past 2^63, a long). */
+    private static final double LARGEST_EXACT_INTEGER = 9.007199254740992E15;
+
+    /**
+     * The members of a node whose integer parameters ({@code trials}, {@code value}) lie beyond the
+     * integers a double holds exactly, each as a violation naming the member.
+     */
+    private static List<SchemaViolation> integersBeyondRange(JsonNode node, String prefix) {
+        List<SchemaViolation> out = new ArrayList<>();
+        if (node == null || !node.isObject()) {
+            return out;
+        }
+        for (String member : new String[] {"trials", "value"}) {
+            JsonNode v = node.get(member);
+            if (v != null && v.isNumber() && Math.abs(v.asDouble()) > LARGEST_EXACT_INTEGER) {
+                out.add(new SchemaViolation(prefix + "/" + member, "maximum", String.format(Locale.ROOT,
+                        "%s is %s, beyond the integers a double holds exactly; expected an integer from %s to %.0f",
+                        member, v.toString(), member.equals("trials") ? "0" : "0 (a state index)", LARGEST_EXACT_INTEGER)));
+            }
+        }
+        return out;
     }
 
     /**
