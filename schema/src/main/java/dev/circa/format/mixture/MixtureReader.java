@@ -184,6 +184,28 @@ public final class MixtureReader {
         }
     }
 
+    /** The longest model path or pointer kept whole; a longer one keeps its start and its end. */
+    static final int MAX_PATH = 240;
+    private static final int PATH_HEAD = 80;
+    private static final String ELISION = "...";
+
+    /**
+     * The path of a member or element of {@code parent}. Paths are kept for every expression and value,
+     * so their length is bounded: beyond {@link #MAX_PATH} characters the middle is elided, and memory
+     * grows linearly with nesting instead of with its square (20,000 nested mixtures once took gigabytes).
+     */
+    static String child(String parent, String segment) {
+        int total = parent.length() + segment.length();
+        if (total <= MAX_PATH) {
+            return parent + segment;
+        }
+        int keep = MAX_PATH - PATH_HEAD - ELISION.length() - segment.length();
+        if (keep <= 0) {
+            return parent.substring(0, Math.min(parent.length(), PATH_HEAD)) + ELISION + segment;
+        }
+        return parent.substring(0, PATH_HEAD) + ELISION + parent.substring(parent.length() - keep) + segment;
+    }
+
     /** Gives a position to limit errors that the parser reported without one. */
     private static FormatException locate(FormatException e, JsonInput in) {
         if (e.line() > 0) {
@@ -490,7 +512,7 @@ public final class MixtureReader {
             in.expect(JsonToken.START_OBJECT, "definitions", "an object of named expressions");
             String m;
             while ((m = in.nextProperty()) != null) {
-                String q = ptr + "/" + escape(m);
+                String q = child(ptr, "/" + escape(m));
                 definitionLocations.put(m, here(q));
                 rawDefinitions.put(m, readExpression("definitions." + m, q, false));
             }
@@ -519,8 +541,8 @@ public final class MixtureReader {
             Located vars = null;
             String m;
             while ((m = in.nextProperty()) != null) {
-                String q = ptr + "/" + escape(m);
-                String qp = path + "." + m;
+                String q = child(ptr, "/" + escape(m));
+                String qp = child(path, "." + m);
                 Family family = Family.fromJsonName(m);
                 if (m.equals("label")) {
                     if (!entry) {
@@ -566,7 +588,7 @@ public final class MixtureReader {
                         in.expect(JsonToken.START_ARRAY, qp, "a list of mixture entries");
                         while (in.nextElement()) {
                             int i = r.entries.size();
-                            Raw e = readExpression(qp + "[" + i + "]", q + "/" + i, true);
+                            Raw e = readExpression(child(qp, "[" + i + "]"), child(q, "/" + i), true);
                             r.entries.add(e);
                             r.weights.add(e.weight);
                             r.weightLocations.add(e.weightLocation);
@@ -581,7 +603,7 @@ public final class MixtureReader {
                         in.expect(JsonToken.START_ARRAY, qp, "a list of expressions");
                         while (in.nextElement()) {
                             int i = r.factors.size();
-                            r.factors.add(readExpression(qp + "[" + i + "]", q + "/" + i, false));
+                            r.factors.add(readExpression(child(qp, "[" + i + "]"), child(q, "/" + i), false));
                         }
                         if (r.factors.isEmpty()) {
                             throw at(at, qp, "a product needs at least one factor");
@@ -642,14 +664,14 @@ public final class MixtureReader {
                 Map<String, Located> map = new LinkedHashMap<>();
                 String m;
                 while ((m = in.nextProperty()) != null) {
-                    map.put(m, readLocated(path + "." + m, ptr + "/" + escape(m)));
+                    map.put(m, readLocated(child(path, "." + m), child(ptr, "/" + escape(m))));
                 }
                 return new Located(map, path, loc);
             }
             if (t == JsonToken.START_ARRAY) {
                 List<Located> list = new ArrayList<>();
                 while (in.nextElement()) {
-                    list.add(readLocated(path + "[" + list.size() + "]", ptr + "/" + list.size()));
+                    list.add(readLocated(child(path, "[" + list.size() + "]"), child(ptr, "/" + list.size())));
                 }
                 return new Located(list, path, loc);
             }

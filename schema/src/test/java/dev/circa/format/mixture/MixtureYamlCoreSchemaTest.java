@@ -94,4 +94,23 @@ class MixtureYamlCoreSchemaTest {
         FormatException j = assertThrows(FormatException.class, () -> MixtureReader.readString(json, "v.json", ReadLimits.DEFAULT));
         assertTrue(j.getMessage().contains("expected the string \"1.0\" (quote it"), j.getMessage());
     }
+
+    @Test
+    void read_errorDeepInNestedMixtures_pathBoundedWithStartAndEnd() {
+        // paths are kept per expression: bounded, they cost memory linear in the nesting, not its square
+        StringBuilder json = new StringBuilder("{\"format\": \"circa.mixture\", \"version\": \"1.0\", "
+                + "\"variables\": [{\"name\": \"x\", \"type\": \"real\"}], \"model\": {");
+        int depth = 300;
+        for (int i = 0; i < depth; i++) {
+            json.append("\"mixture\": [{\"weight\": 1, ");
+        }
+        json.append("\"var\": \"nope\", \"normal\": {\"mean\": 0, \"sd\": 1}");
+        json.append("}]".repeat(depth)).append("}}");
+        FormatException e = assertThrows(FormatException.class,
+                () -> MixtureReader.readString(json.toString(), "deep.json", ReadLimits.DEFAULT.withMaxDepth(2000)));
+        assertTrue(e.getMessage().contains("unknown variable \"nope\""), e.getMessage());
+        String path = e.pointer();
+        assertTrue(path.length() <= MixtureReader.MAX_PATH + 16, path.length() + ": " + path);
+        assertTrue(path.startsWith("model.mixture[0].mixture[0]") && path.contains("...") && path.endsWith("mixture[0].var"), path);
+    }
 }
