@@ -11,7 +11,7 @@ final class Ceiling {
     }
 
     /** Calls per second of the product for {@code batch} right-hand columns. */
-    static double measure(long entries, int batch, double seconds) {
+    static double measure(long entries, int batch) {
         int n = (int) Math.max(1, Math.round(Math.sqrt(entries)));
         int m = (int) Math.max(1, entries / n);
         double[] a = PeerTable.rows(m, n, 3);
@@ -22,7 +22,7 @@ final class Ceiling {
         double[] y = new double[m * batch];
         double scale = (double) m * n / entries;
         Runnable r = batch == 1 ? () -> matVec(a, m, n, x, y) : () -> matMat(a, m, n, x, batch, y);
-        return PeerTable.loop(r) * scale;
+        return PeerTable.cpuRate(r) * scale;
     }
 
     /** y = A x, A column-major (m x n). */
@@ -37,16 +37,19 @@ final class Ceiling {
         }
     }
 
-    /** Y = A X, A row-major (m x n), X row-major (n x b), Y row-major (m x b). */
+    /** Y = A X, A row-major (m x n), X row-major (n x b), Y row-major (m x b); columns in tiles of 256. */
     static void matMat(double[] a, int m, int n, double[] x, int b, double[] y) {
         java.util.Arrays.fill(y, 0, m * b, 0);
-        for (int i = 0; i < m; i++) {
-            int yb = i * b;
-            for (int k = 0; k < n; k++) {
-                double aik = a[i * n + k];
-                int xb = k * b;
-                for (int j = 0; j < b; j++) {
-                    y[yb + j] += aik * x[xb + j];
+        for (int j0 = 0; j0 < b; j0 += 256) {
+            int j1 = Math.min(b, j0 + 256);
+            for (int i = 0; i < m; i++) {
+                int yb = i * b;
+                for (int k = 0; k < n; k++) {
+                    double aik = a[i * n + k];
+                    int xb = k * b;
+                    for (int j = j0; j < j1; j++) {
+                        y[yb + j] += aik * x[xb + j];
+                    }
                 }
             }
         }

@@ -1,8 +1,9 @@
 package dev.circa.engine.internal;
 
+import dev.circa.engine.family.Families;
 import dev.circa.engine.family.MvNormalWorkspace;
+import dev.circa.engine.family.SpecialFunctions;
 import org.ejml.data.DMatrixRMaj;
-import org.ejml.dense.row.CommonOps_DDRM;
 
 /**
  * One upward sum-product pass like {@link ForwardKernel#run} (same layout, same results to rounding), with
@@ -25,6 +26,7 @@ import org.ejml.dense.row.CommonOps_DDRM;
 public final class DenseKernel {
     /** Smallest linear sum taken as exact; below it an entry goes the generic way. */
     static final double TINY = 1e-200;
+    private static final double HALF_LOG_2PI = SpecialFunctions.HALF_LOG_2PI;
 
     private DenseKernel() {
     }
@@ -37,10 +39,12 @@ public final class DenseKernel {
     public static void run(CircuitData c, DenseBlocks blocks, double[] data, int row0, int rows, boolean[] hide,
             double[] value, double[] scratch, MvNormalWorkspace mvn, DenseWorkspace ws) {
         final byte[] action = blocks.action;
-        for (int i = 0; i < c.nodeCount; i++) {
+        for (int i : blocks.steps) {
             byte a = action[i];
             if (a == DenseBlocks.GENERIC) {
                 node(c, blocks, i, data, row0, rows, hide, value, scratch, mvn);
+            } else if (a == DenseBlocks.FUSED) {
+                fused(c, blocks, i, data, row0, rows, hide, value);
             } else if (a == DenseBlocks.BLOCK) {
                 block(c, blocks, blocks.blockAt[i], rows, value, ws);
             }
@@ -78,8 +82,92 @@ public final class DenseKernel {
                 }
             }
             ForwardKernel.logSumExp(value, base, rows, s, end, childSlot, logWeight, scratch);
-        } else {
+        } else if (c.family[c.inputSlot[i]] == Families.MVNORMAL) {
             ForwardKernel.input(c, data, row0, rows, hide, false, value, base, c.inputSlot[i], c.variableCount, mvn);
+        } else {
+            input(c, d, c.inputSlot[i], data, row0, rows, hide, value, base, false);
+        }
+    }
+
+    /** A {@link DenseBlocks#FUSED} product: the sum of its inputs' log-densities, in child order. */
+    private static void fused(CircuitData c, DenseBlocks d, int i, double[] data, int row0, int rows, boolean[] hide,
+            double[] value) {
+        final int base = d.nodeSlot[i] * rows;
+        final int s = c.childStart[i];
+        final int end = c.childStart[i + 1];
+        if (rows == 1 && hide == null) {
+            value[base] = fusedRow(c, d, s, end, data, row0 * c.variableCount);
+            return;
+        }
+        for (int e = s; e < end; e++) {
+            input(c, d, c.inputSlot[c.childIndex[e]], data, row0, rows, hide, value, base, e > s);
+        }
+    }
+
+    /** {@link #fused} at one row: the same sum in the same order. */
+    private static double fusedRow(CircuitData c, DenseBlocks d, int s, int end, double[] data, int rowBase) {
+        final int[] ci = c.childIndex;
+        final int[] inputSlot = c.inputSlot;
+        final byte[] family = c.family;
+        final int[] paramStart = c.paramStart;
+        final int[] varIndex = c.varIndex;
+        final int[] varStart = c.varStart;
+        final double[] p = c.params;
+        final double[] logSd = d.inputLogSd;
+        double acc = 0;
+        for (int e = s; e < end; e++) {
+            int slot = inputSlot[ci[e]];
+            int off = paramStart[slot];
+            double x = data[rowBase + varIndex[varStart[slot]]];
+            double f;
+            if (x != x) {
+                f = d.inputMissing[slot];
+            } else if (family[slot] == Families.NORMAL) {
+                double z = (x - p[off]) / p[off + 1];
+                f = -0.5 * z * z - logSd[slot] - HALF_LOG_2PI;
+            } else {
+                f = Families.logDensity(family[slot], p, off, paramStart[slot + 1] - off, x);
+            }
+            acc = e == s ? f : acc + f;
+        }
+        return acc;
+    }
+
+    /**
+     * The log-density of univariate input {@code slot} at each row, stored at {@code value[base + r]}, or
+     * added to it when {@code add}. Equal to {@link Families#logDensity} (a normal's log(sd) taken once).
+     */
+    private static void input(CircuitData c, DenseBlocks d, int slot, double[] data, int row0, int rows,
+            boolean[] hide, double[] value, int base, boolean add) {
+        final int code = c.family[slot];
+        final int off = c.paramStart[slot];
+        final int len = c.paramStart[slot + 1] - off;
+        final double[] p = c.params;
+        final int nv = c.variableCount;
+        final int v = c.varIndex[c.varStart[slot]];
+        final double missing = d.inputMissing[slot];
+        if (hide != null && hide[v]) {
+            for (int r = 0; r < rows; r++) {
+                value[base + r] = add ? value[base + r] + missing : missing;
+            }
+            return;
+        }
+        if (code == Families.NORMAL) {
+            final double mean = p[off];
+            final double sd = p[off + 1];
+            final double logSd = d.inputLogSd[slot];
+            for (int r = 0; r < rows; r++) {
+                double x = data[(row0 + r) * nv + v];
+                double z = (x - mean) / sd;
+                double f = x != x ? missing : -0.5 * z * z - logSd - HALF_LOG_2PI;
+                value[base + r] = add ? value[base + r] + f : f;
+            }
+            return;
+        }
+        for (int r = 0; r < rows; r++) {
+            double x = data[(row0 + r) * nv + v];
+            double f = x != x ? missing : Families.logDensity(code, p, off, len, x);
+            value[base + r] = add ? value[base + r] + f : f;
         }
     }
 
@@ -169,11 +257,8 @@ public final class DenseKernel {
                 cur *= size;
             }
         }
-        final DMatrixRMaj sums = ws.sums;
-        final DMatrixRMaj weights = d.weights[b];
-        sums.reshape(weights.numRows, rows, false);
-        CommonOps_DDRM.mult(weights, products, sums);
-        final double[] ct = sums.data;
+        final double[] ct = ws.sums.data;
+        multiply(d, b, pt, n, rows, ct);
         final int k0 = d.sumStart[b];
         final int k1 = d.sumStart[b + 1];
         for (int k = k0; k < k1; k++) {
@@ -198,11 +283,110 @@ public final class DenseKernel {
     }
 
     /**
+     * sums (K x rows) = weights (K x n) times products (n x rows). Every entry is the sum over j = 0..n-1,
+     * in that order from 0, of weight(k, j) x product(j, r), whatever the number of rows, so a row's
+     * result does not depend on the rows evaluated with it (bit for bit).
+     */
+    static void multiply(DenseBlocks d, int b, double[] pt, int n, int rows, double[] ct) {
+        final int kk = d.sumStart[b + 1] - d.sumStart[b];
+        final double[] w = d.weights[b].data;
+        if (rows == 1) {
+            int k = 0;
+            for (; k + 4 <= kk; k += 4) {
+                final int w0 = k * n;
+                double a0 = 0;
+                double a1 = 0;
+                double a2 = 0;
+                double a3 = 0;
+                for (int j = 0; j < n; j++) {
+                    double pj = pt[j];
+                    a0 += w[w0 + j] * pj;
+                    a1 += w[w0 + n + j] * pj;
+                    a2 += w[w0 + 2 * n + j] * pj;
+                    a3 += w[w0 + 3 * n + j] * pj;
+                }
+                ct[k] = a0;
+                ct[k + 1] = a1;
+                ct[k + 2] = a2;
+                ct[k + 3] = a3;
+            }
+            for (; k + 2 <= kk; k += 2) {
+                final int w0 = k * n;
+                double a0 = 0;
+                double a1 = 0;
+                for (int j = 0; j < n; j++) {
+                    double pj = pt[j];
+                    a0 += w[w0 + j] * pj;
+                    a1 += w[w0 + n + j] * pj;
+                }
+                ct[k] = a0;
+                ct[k + 1] = a1;
+            }
+            for (; k < kk; k++) {
+                final int w0 = k * n;
+                double a0 = 0;
+                for (int j = 0; j < n; j++) {
+                    a0 += w[w0 + j] * pt[j];
+                }
+                ct[k] = a0;
+            }
+            return;
+        }
+        int k = 0;
+        for (; k + 4 <= kk; k += 4) {
+            final int c0 = k * rows;
+            final int c1 = c0 + rows;
+            final int c2 = c1 + rows;
+            final int c3 = c2 + rows;
+            for (int r = 0; r < 4 * rows; r++) {
+                ct[c0 + r] = 0;
+            }
+            for (int j = 0; j < n; j++) {
+                double w0 = w[k * n + j];
+                double w1 = w[(k + 1) * n + j];
+                double w2 = w[(k + 2) * n + j];
+                double w3 = w[(k + 3) * n + j];
+                int pb = j * rows;
+                for (int r = 0; r < rows; r++) {
+                    double pv = pt[pb + r];
+                    ct[c0 + r] += w0 * pv;
+                    ct[c1 + r] += w1 * pv;
+                    ct[c2 + r] += w2 * pv;
+                    ct[c3 + r] += w3 * pv;
+                }
+            }
+        }
+        for (; k < kk; k++) {
+            final int c0 = k * rows;
+            for (int r = 0; r < rows; r++) {
+                ct[c0 + r] = 0;
+            }
+            for (int j = 0; j < n; j++) {
+                double w0 = w[k * n + j];
+                int pb = j * rows;
+                for (int r = 0; r < rows; r++) {
+                    ct[c0 + r] += w0 * pt[pb + r];
+                }
+            }
+        }
+    }
+
+    /**
      * Replaces the first {@code cur} product rows at {@code out} by their products with each of the
      * {@code size} rows of {@code e}: row i * size + j = row i times e_j (the new part varies fastest).
      * Works backwards so no row is overwritten before it is read.
      */
     private static void expand(double[] pt, int out, int cur, int size, double[] e, int rows, double[] tmp) {
+        if (rows == 1) {
+            for (int i = cur - 1; i >= 0; i--) {
+                double t = pt[out + i];
+                int dst = out + i * size;
+                for (int j = 0; j < size; j++) {
+                    pt[dst + j] = t * e[j];
+                }
+            }
+            return;
+        }
         for (int i = cur - 1; i >= 0; i--) {
             System.arraycopy(pt, out + i * rows, tmp, 0, rows);
             int dst = out + i * size * rows;
