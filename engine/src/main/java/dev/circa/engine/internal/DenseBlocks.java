@@ -52,6 +52,17 @@ public final class DenseBlocks {
     /** {@code weights[b]} transposed (n x K, row-major), for one row at a time. */
     public final double[][] weightsT;
     public final double[] inputLogSd;
+    /**
+     * The children of the fused products, flat in node and child order: fused product i's child e is entry
+     * {@code fusedBase[i] + e - childStart[i]}, with its input slot, variable, and for a normal its mean,
+     * sd and log sd (NaN for other families), so that one row reads them in sequence.
+     */
+    public final int[] fusedBase;
+    public final int[] fusedSlot;
+    public final int[] fusedVar;
+    public final double[] fusedMean;
+    public final double[] fusedSd;
+    public final double[] fusedLogSd;
     /** The nodes the kernel visits, in node order: those whose action is GENERIC, FUSED or BLOCK. */
     public final int[] steps;
     public final double[] inputMissing;
@@ -107,6 +118,36 @@ public final class DenseBlocks {
                 }
             }
             weightsT[b] = t;
+        }
+        this.fusedBase = new int[action.length];
+        int fusedEdges = 0;
+        for (int i = 0; i < action.length; i++) {
+            fusedBase[i] = -1;
+            if (action[i] == FUSED) {
+                fusedBase[i] = fusedEdges;
+                fusedEdges += c.childStart[i + 1] - c.childStart[i];
+            }
+        }
+        this.fusedSlot = new int[fusedEdges];
+        this.fusedVar = new int[fusedEdges];
+        this.fusedMean = new double[fusedEdges];
+        this.fusedSd = new double[fusedEdges];
+        this.fusedLogSd = new double[fusedEdges];
+        for (int i = 0; i < action.length; i++) {
+            if (action[i] != FUSED) {
+                continue;
+            }
+            for (int e = c.childStart[i]; e < c.childStart[i + 1]; e++) {
+                int f = fusedBase[i] + e - c.childStart[i];
+                int slot = c.inputSlot[c.childIndex[e]];
+                int off = c.paramStart[slot];
+                boolean normal = c.family[slot] == Families.NORMAL;
+                fusedSlot[f] = slot;
+                fusedVar[f] = c.varIndex[c.varStart[slot]];
+                fusedMean[f] = normal ? c.params[off] : Double.NaN;
+                fusedSd[f] = normal ? c.params[off + 1] : Double.NaN;
+                fusedLogSd[f] = normal ? Math.log(c.params[off + 1]) : Double.NaN;
+            }
         }
         int stepCount = 0;
         for (byte a : action) {

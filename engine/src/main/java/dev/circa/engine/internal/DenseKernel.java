@@ -96,7 +96,7 @@ public final class DenseKernel {
         final int s = c.childStart[i];
         final int end = c.childStart[i + 1];
         if (rows == 1 && hide == null) {
-            value[base] = fusedRow(c, d, s, end, data, row0 * c.variableCount);
+            value[base] = fusedRow(c, d, s, end, d.fusedBase[i], data, row0 * c.variableCount);
             return;
         }
         for (int e = s; e < end; e++) {
@@ -105,30 +105,26 @@ public final class DenseKernel {
     }
 
     /** {@link #fused} at one row: the same sum in the same order. */
-    private static double fusedRow(CircuitData c, DenseBlocks d, int s, int end, double[] data, int rowBase) {
-        final int[] ci = c.childIndex;
-        final int[] inputSlot = c.inputSlot;
-        final byte[] family = c.family;
-        final int[] paramStart = c.paramStart;
-        final int[] varIndex = c.varIndex;
-        final int[] varStart = c.varStart;
-        final double[] p = c.params;
-        final double[] logSd = d.inputLogSd;
+    private static double fusedRow(CircuitData c, DenseBlocks d, int s, int end, int f0, double[] data, int rowBase) {
+        final int[] fVar = d.fusedVar;
+        final double[] fMean = d.fusedMean;
+        final double[] fSd = d.fusedSd;
+        final double[] fLogSd = d.fusedLogSd;
         double acc = 0;
-        for (int e = s; e < end; e++) {
-            int slot = inputSlot[ci[e]];
-            int off = paramStart[slot];
-            double x = data[rowBase + varIndex[varStart[slot]]];
-            double f;
-            if (x != x) {
-                f = d.inputMissing[slot];
-            } else if (family[slot] == Families.NORMAL) {
-                double z = (x - p[off]) / p[off + 1];
-                f = -0.5 * z * z - logSd[slot] - HALF_LOG_2PI;
+        for (int f = f0, last = f0 + end - s; f < last; f++) {
+            double x = data[rowBase + fVar[f]];
+            double sd = fSd[f];
+            double g;
+            if (sd == sd && x == x) {
+                double z = (x - fMean[f]) / sd;
+                g = -0.5 * z * z - fLogSd[f] - HALF_LOG_2PI;
             } else {
-                f = Families.logDensity(family[slot], p, off, paramStart[slot + 1] - off, x);
+                int slot = d.fusedSlot[f];
+                int off = c.paramStart[slot];
+                g = x != x ? d.inputMissing[slot]
+                        : Families.logDensity(c.family[slot], c.params, off, c.paramStart[slot + 1] - off, x);
             }
-            acc = e == s ? f : acc + f;
+            acc = f == f0 ? g : acc + g;
         }
         return acc;
     }
