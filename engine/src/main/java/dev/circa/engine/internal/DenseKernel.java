@@ -14,7 +14,11 @@ import org.ejml.data.DMatrixRMaj;
  * materialised), times exp(segment maximum - block maximum) when there are several segments; then one
  * matrix product, sums (K x rows) = weights (K x n) times products (n x rows); then
  * value = log(sum) + largest log-weight of the sum + block maximum. So a row costs one exp per part node
- * and K x n multiply-adds instead of one exp per edge.
+ * and K x n multiply-adds instead of one exp per edge. The matrix product sums every entry over j in
+ * order from 0 whatever the number of rows (one row: K accumulators in registers; several: rows in the
+ * innermost loop), so results do not depend on the batch. A {@link DenseBlocks#FUSED} product adds its
+ * inputs' log-densities directly (a normal's log sd taken once per circuit, the same formula as
+ * {@link Families#logDensity}).
  *
  * <p>Exactness: every linear factor is in [0, 1] and the argmax product of a row is exactly 1, so a sum
  * below {@value #TINY} can only come from weights that are tiny where the products are large; such an
