@@ -43,12 +43,20 @@ public final class DenseKernel {
     public static void run(CircuitData c, DenseBlocks blocks, double[] data, int row0, int rows, boolean[] hide,
             double[] value, double[] scratch, MvNormalWorkspace mvn, DenseWorkspace ws) {
         final byte[] action = blocks.action;
+        final boolean sweep = rows == 1 && hide == null;
+        if (sweep) {
+            inputSweep(c, blocks, data, row0 * c.variableCount, ws.fused);
+        }
         for (int i : blocks.steps) {
             byte a = action[i];
             if (a == DenseBlocks.GENERIC) {
                 node(c, blocks, i, data, row0, rows, hide, value, scratch, mvn);
             } else if (a == DenseBlocks.FUSED) {
-                fused(c, blocks, i, data, row0, rows, hide, value);
+                if (sweep) {
+                    value[blocks.nodeSlot[i]] = fusedSum(ws.fused, blocks.fusedBase[i], c.childStart[i + 1] - c.childStart[i]);
+                } else {
+                    fused(c, blocks, i, data, row0, rows, hide, value);
+                }
             } else if (a == DenseBlocks.BLOCK) {
                 block(c, blocks, blocks.blockAt[i], rows, value, ws);
             }
@@ -106,6 +114,44 @@ public final class DenseKernel {
         for (int e = s; e < end; e++) {
             input(c, d, c.inputSlot[c.childIndex[e]], data, row0, rows, hide, value, base, e > s);
         }
+    }
+
+    /**
+     * One row: every fused product's input log-densities, {@code g[f]} for fused child f, in three loops
+     * (gather the cells; the normal formula over all, which the JIT vectorises; then every entry that is
+     * NaN, i.e. a missing cell or another family, again by itself). The same values as {@link #fusedRow}.
+     */
+    private static void inputSweep(CircuitData c, DenseBlocks d, double[] data, int rowBase, double[] g) {
+        final int[] fVar = d.fusedVar;
+        final double[] fMean = d.fusedMean;
+        final double[] fSd = d.fusedSd;
+        final double[] fLogSd = d.fusedLogSd;
+        final int m = fVar.length;
+        for (int f = 0; f < m; f++) {
+            g[f] = data[rowBase + fVar[f]];
+        }
+        for (int f = 0; f < m; f++) {
+            double z = (g[f] - fMean[f]) / fSd[f];
+            g[f] = -0.5 * z * z - fLogSd[f] - HALF_LOG_2PI;
+        }
+        for (int f = 0; f < m; f++) {
+            if (g[f] != g[f]) {
+                double x = data[rowBase + fVar[f]];
+                int slot = d.fusedSlot[f];
+                int off = c.paramStart[slot];
+                g[f] = x != x ? d.inputMissing[slot]
+                        : Families.logDensity(c.family[slot], c.params, off, c.paramStart[slot + 1] - off, x);
+            }
+        }
+    }
+
+    /** The sum of {@code g[f0 .. f0+count-1]} in order, as {@link #fusedRow} adds them. */
+    private static double fusedSum(double[] g, int f0, int count) {
+        double acc = g[f0];
+        for (int f = f0 + 1; f < f0 + count; f++) {
+            acc += g[f];
+        }
+        return acc;
     }
 
     /** {@link #fused} at one row: the same sum in the same order. */
@@ -292,6 +338,27 @@ public final class DenseKernel {
         final double[] w = d.weights[b].data;
         if (rows == 1) {
             int k = 0;
+            for (; kk % 5 == 0 && k + 5 <= kk; k += 5) {
+                final int w0 = k * n;
+                double a0 = 0;
+                double a1 = 0;
+                double a2 = 0;
+                double a3 = 0;
+                double a4 = 0;
+                for (int j = 0; j < n; j++) {
+                    double pj = pt[j];
+                    a0 += w[w0 + j] * pj;
+                    a1 += w[w0 + n + j] * pj;
+                    a2 += w[w0 + 2 * n + j] * pj;
+                    a3 += w[w0 + 3 * n + j] * pj;
+                    a4 += w[w0 + 4 * n + j] * pj;
+                }
+                ct[k] = a0;
+                ct[k + 1] = a1;
+                ct[k + 2] = a2;
+                ct[k + 3] = a3;
+                ct[k + 4] = a4;
+            }
             for (; k + 4 <= kk; k += 4) {
                 final int w0 = k * n;
                 double a0 = 0;
