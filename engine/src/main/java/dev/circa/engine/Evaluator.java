@@ -31,7 +31,8 @@ import java.util.Arrays;
  * one, node by node in log space, and the automatic one (the default), which evaluates the circuit's
  * dense blocks ({@link CompiledCircuit#denseBlockSummary()}) as matrix products in linear space with
  * per-row scaling and every other node the generic way. The automatic path serves {@link #logDensity},
- * {@link #conditional} and {@link #logPartition}; {@link #mpe} is always generic. On a region-graph
+ * {@link #conditional} and {@link #logPartition}; for {@link #mpe} it evaluates products of inputs without
+ * storing the inputs (the same values, so the same explanation, tested). On a region-graph
  * circuit of 10^6 edges at batch 1024 the automatic path is about 5 times faster on one thread (bench/run).
  *
  * <p>Reproducible to the bit: on either path a row's values are summed in one fixed order that does not
@@ -229,7 +230,7 @@ public final class Evaluator {
         int root = c.outputNode[output];
         for (int row0 = 0; row0 < rows; row0 += genericChunk) {
             int n = Math.min(genericChunk, rows - row0);
-            double[] v = run(data, row0, n, null, true);
+            double[] v = runMax(data, row0, n);
             for (int r = 0; r < n; r++) {
                 logValue[row0 + r] = v[root * n + r];
                 System.arraycopy(data, (row0 + r) * nv, completed, (row0 + r) * nv, nv);
@@ -302,6 +303,19 @@ public final class Evaluator {
             generation = 1;
         }
         return generation;
+    }
+
+    /** Max-product values of every node (node-major), fused products on the automatic path. */
+    private double[] runMax(double[] data, int row0, int n) {
+        if (blocks == null) {
+            return run(data, row0, n, null, true);
+        }
+        long need = (long) c.nodeCount * n;
+        if (value.length < need) {
+            value = new double[(int) Math.min(Integer.MAX_VALUE - 8, (long) c.nodeCount * genericChunk)];
+        }
+        DenseKernel.runMax(c, blocks, data, row0, n, value, scratch, mvn);
+        return value;
     }
 
     private double[] run(double[] data, int row0, int n, boolean[] hidden, boolean max) {

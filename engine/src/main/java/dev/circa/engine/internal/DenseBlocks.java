@@ -66,6 +66,8 @@ public final class DenseBlocks {
     /** The nodes the kernel visits, in node order: those whose action is GENERIC, FUSED or BLOCK. */
     public final int[] steps;
     public final double[] inputMissing;
+    /** Per input slot, its largest log-density (its max-product value over a missing variable). */
+    public final double[] inputMaxMissing;
     public final int[] segStart;
     public final int[] segOffset;
     public final int[] segLength;
@@ -165,12 +167,14 @@ public final class DenseBlocks {
         int inputs = c.inputNode.length;
         this.inputLogSd = new double[inputs];
         this.inputMissing = new double[inputs];
+        this.inputMaxMissing = new double[inputs];
         for (int slot = 0; slot < inputs; slot++) {
             int code = c.family[slot];
             int off = c.paramStart[slot];
             int len = c.paramStart[slot + 1] - off;
             inputLogSd[slot] = code == Families.NORMAL ? Math.log(c.params[off + 1]) : Double.NaN;
             inputMissing[slot] = code == Families.MVNORMAL ? Double.NaN : Families.logTotalMass(code, c.params, off, len);
+            inputMaxMissing[slot] = code == Families.MVNORMAL ? Double.NaN : Families.maxLogDensity(code, c.params, off, len);
         }
         this.groupSlot = new int[groupNode.length];
         for (int g = 0; g < groupNode.length; g++) {

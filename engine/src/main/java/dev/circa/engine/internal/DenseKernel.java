@@ -63,6 +63,48 @@ public final class DenseKernel {
         }
     }
 
+    /**
+     * Max-product pass for the most probable explanation, node-major like {@link ForwardKernel#run} with
+     * {@code max = true} and the same values at every node a backtrack reads: fused products add their
+     * inputs' log-densities (a missing variable: the input's largest) without storing the inputs, whose
+     * entries are left unset; every other node as {@link ForwardKernel#node}.
+     */
+    public static void runMax(CircuitData c, DenseBlocks d, double[] data, int row0, int rows, double[] value,
+            double[] scratch, MvNormalWorkspace mvn) {
+        final byte[] action = d.action;
+        final int nv = c.variableCount;
+        for (int i = 0; i < c.nodeCount; i++) {
+            byte a = action[i];
+            if (a == DenseBlocks.FUSED) {
+                final int base = i * rows;
+                final int f0 = d.fusedBase[i];
+                final int count = c.childStart[i + 1] - c.childStart[i];
+                for (int r = 0; r < rows; r++) {
+                    final int rowBase = (row0 + r) * nv;
+                    double acc = 0;
+                    for (int f = f0; f < f0 + count; f++) {
+                        int slot = d.fusedSlot[f];
+                        double x = data[rowBase + d.fusedVar[f]];
+                        double g;
+                        if (x != x) {
+                            g = d.inputMaxMissing[slot];
+                        } else if (d.fusedSd[f] == d.fusedSd[f]) {
+                            double z = (x - d.fusedMean[f]) / d.fusedSd[f];
+                            g = -0.5 * z * z - d.fusedLogSd[f] - HALF_LOG_2PI;
+                        } else {
+                            int off = c.paramStart[slot];
+                            g = Families.logDensity(c.family[slot], c.params, off, c.paramStart[slot + 1] - off, x);
+                        }
+                        acc = f == f0 ? g : acc + g;
+                    }
+                    value[base + r] = acc;
+                }
+            } else if (a != DenseBlocks.SKIP || c.kind[i] != CircuitData.INPUT) {
+                ForwardKernel.node(c, i, data, row0, rows, null, true, value, scratch, mvn);
+            }
+        }
+    }
+
     /** {@link ForwardKernel#node} in slots. */
     private static void node(CircuitData c, DenseBlocks d, int i, double[] data, int row0, int rows, boolean[] hide,
             double[] value, double[] scratch, MvNormalWorkspace mvn) {
