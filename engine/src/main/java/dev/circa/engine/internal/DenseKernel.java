@@ -15,7 +15,7 @@ import org.ejml.data.DMatrixRMaj;
  * matrix product, sums (K x rows) = weights (K x n) times products (n x rows); then
  * value = log(sum) + largest log-weight of the sum + block maximum. So a row costs one exp per part node
  * and K x n multiply-adds instead of one exp per edge. The matrix product sums every entry over j in
- * order from 0 whatever the number of rows (one row: K accumulators in registers; several: rows in the
+ * order from 0 whatever the number of rows (one row: accumulators in registers, five sums at a time; several: rows in the
  * innermost loop), so results do not depend on the batch. A {@link DenseBlocks#FUSED} product adds its
  * inputs' log-densities directly (a normal's log sd taken once per circuit, the same formula as
  * {@link Families#logDensity}).
@@ -92,8 +92,7 @@ public final class DenseKernel {
                             double z = (x - d.fusedMean[f]) / d.fusedSd[f];
                             g = -0.5 * z * z - d.fusedLogSd[f] - HALF_LOG_2PI;
                         } else {
-                            int off = c.paramStart[slot];
-                            g = Families.logDensity(c.family[slot], c.params, off, c.paramStart[slot + 1] - off, x);
+                            g = density(c, slot, x);
                         }
                         acc = f == f0 ? g : acc + g;
                     }
@@ -180,11 +179,15 @@ public final class DenseKernel {
             if (g[f] != g[f]) {
                 double x = data[rowBase + fVar[f]];
                 int slot = d.fusedSlot[f];
-                int off = c.paramStart[slot];
-                g[f] = x != x ? d.inputMissing[slot]
-                        : Families.logDensity(c.family[slot], c.params, off, c.paramStart[slot + 1] - off, x);
+                g[f] = x != x ? d.inputMissing[slot] : density(c, slot, x);
             }
         }
+    }
+
+    /** {@link Families#logDensity} of univariate input {@code slot} at the observed value {@code x}. */
+    private static double density(CircuitData c, int slot, double x) {
+        int off = c.paramStart[slot];
+        return Families.logDensity(c.family[slot], c.params, off, c.paramStart[slot + 1] - off, x);
     }
 
     /** The sum of {@code g[f0 .. f0+count-1]} in order, as {@link #fusedRow} adds them. */
@@ -212,9 +215,7 @@ public final class DenseKernel {
                 g = -0.5 * z * z - fLogSd[f] - HALF_LOG_2PI;
             } else {
                 int slot = d.fusedSlot[f];
-                int off = c.paramStart[slot];
-                g = x != x ? d.inputMissing[slot]
-                        : Families.logDensity(c.family[slot], c.params, off, c.paramStart[slot + 1] - off, x);
+                g = x != x ? d.inputMissing[slot] : density(c, slot, x);
             }
             acc = f == f0 ? g : acc + g;
         }
@@ -380,7 +381,7 @@ public final class DenseKernel {
         final double[] w = d.weights[b].data;
         if (rows == 1) {
             int k = 0;
-            for (; kk % 5 == 0 && k + 5 <= kk; k += 5) {
+            for (; k + 5 <= kk; k += 5) {
                 final int w0 = k * n;
                 double a0 = 0;
                 double a1 = 0;
@@ -400,24 +401,6 @@ public final class DenseKernel {
                 ct[k + 2] = a2;
                 ct[k + 3] = a3;
                 ct[k + 4] = a4;
-            }
-            for (; k + 4 <= kk; k += 4) {
-                final int w0 = k * n;
-                double a0 = 0;
-                double a1 = 0;
-                double a2 = 0;
-                double a3 = 0;
-                for (int j = 0; j < n; j++) {
-                    double pj = pt[j];
-                    a0 += w[w0 + j] * pj;
-                    a1 += w[w0 + n + j] * pj;
-                    a2 += w[w0 + 2 * n + j] * pj;
-                    a3 += w[w0 + 3 * n + j] * pj;
-                }
-                ct[k] = a0;
-                ct[k + 1] = a1;
-                ct[k + 2] = a2;
-                ct[k + 3] = a3;
             }
             for (; k + 2 <= kk; k += 2) {
                 final int w0 = k * n;
