@@ -27,7 +27,7 @@ import java.util.Set;
  * @param circuit the compiled circuit
  * @param report the validation report (embedded checks are not evaluated here)
  */
-record LoadedCircuit(Path file, CircuitDocument document, CompiledCircuit circuit, ValidationReport report) {
+public record LoadedCircuit(Path file, CircuitDocument document, CompiledCircuit circuit, ValidationReport report) {
     private static final ValidationOptions LOAD_OPTIONS = ValidationOptions.defaults()
             .withRequire(Set.of(Property.SMOOTH, Property.DECOMPOSABLE))
             .withRule("CheckCaseFailed:off")
@@ -36,12 +36,12 @@ record LoadedCircuit(Path file, CircuitDocument document, CompiledCircuit circui
             .withRule("ProbabilitiesNotNormalized:warn");
 
     /** Whether the validator proved the circuit deterministic (then MPE is exact). */
-    boolean deterministic() {
+    public boolean deterministic() {
         return report.property(Property.DETERMINISTIC) == Verdict.TRUE;
     }
 
     /** Reads, validates and compiles {@code file}; diagnostics and warnings go to {@code err}. */
-    static LoadedCircuit load(Path file, ReadLimits limits, PrintWriter err) throws FormatException {
+    public static LoadedCircuit load(Path file, ReadLimits limits, PrintWriter err) throws FormatException {
         CircuitDocument doc = new CircuitReader(limits).read(file);
         ValidationReport report = new Validator(LOAD_OPTIONS).validate(doc);
         if (!report.valid()) {
