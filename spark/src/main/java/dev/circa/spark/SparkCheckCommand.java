@@ -1,19 +1,13 @@
 package dev.circa.spark;
 
-import dev.circa.cli.ExitStatus;
+import dev.circa.cli.CheckOptions;
 import dev.circa.cli.ReadOptions;
-import dev.circa.cli.UsageException;
 import dev.circa.format.io.FormatException;
 import dev.circa.validator.regression.CheckReport;
-import dev.circa.validator.regression.Tolerance;
-import java.io.PrintWriter;
 import java.nio.file.Path;
-import java.util.ArrayList;
-import java.util.List;
 import java.util.concurrent.Callable;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
-import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
 /** {@code circa-spark check}: {@code circa check} with its reference sets checked in parallel on Spark. */
@@ -22,23 +16,11 @@ import picocli.CommandLine.Parameters;
             "Parquet when the name ends in .parquet), the rows checked in parallel. Prints the report",
             "of circa check; exit status 1 when any case fails."})
 final class SparkCheckCommand implements Callable<Integer> {
-    /** Report forms. */
-    enum Format { text, json }
-
     @Parameters(index = "0", paramLabel = "CIRCUIT", description = "The circuit file (.json or .json.gz).")
     Path circuitFile;
 
-    @Option(names = "--reference", paramLabel = "REF", description = "A reference set (repeatable).")
-    List<String> references = new ArrayList<>();
-
-    @Option(names = "--atol", paramLabel = "A", description = "Absolute tolerance (default: the file's checks value, else 1e-9).")
-    Double atol;
-
-    @Option(names = "--rtol", paramLabel = "R", description = "Relative tolerance (default: the file's checks value, else 1e-9).")
-    Double rtol;
-
-    @Option(names = "--format", paramLabel = "FORMAT", description = "text (default) or json.")
-    Format format = Format.text;
+    @Mixin
+    CheckOptions check;
 
     @Mixin
     ReadOptions read;
@@ -51,33 +33,14 @@ final class SparkCheckCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws FormatException {
-        PrintWriter out = spec.commandLine().getOut();
-        SparkModel model = SparkModel.load(circuitFile, read.limits(), spec.commandLine().getErr());
-        Tolerance tol;
-        try {
-            tol = Tolerance.resolve(model.driverModel().document().checks(), atol, rtol);
-        } catch (IllegalArgumentException e) {
-            throw new UsageException("--atol and --rtol must be finite and >= 0");
-        }
-        Sessions.Opened opened = sparkOptions.open();
-        CheckReport report;
-        try {
-            DistributedCheck check = new DistributedCheck(opened.spark(), model, tol);
-            for (String ref : references) {
-                check.checkReference(ref);
+        CheckReport report = sparkOptions.run(circuitFile, read, spec, (spark, model) -> {
+            DistributedCheck distributed = new DistributedCheck(spark, model,
+                    check.tolerance(model.driverModel().document().checks()));
+            for (Path ref : check.references()) {
+                distributed.checkReference(ref.toString());
             }
-            report = check.report();
-        } finally {
-            if (opened.created()) {
-                opened.spark().stop();
-            }
-        }
-        if (report.cases() == 0) {
-            throw new UsageException("nothing to check: " + circuitFile + " has no embedded checks"
-                    + (references.isEmpty() ? " and no --reference was given" : " and the reference sets have no rows"));
-        }
-        out.print(format == Format.json ? report.toJson() : report.toText());
-        out.flush();
-        return report.passed() ? ExitStatus.OK : ExitStatus.FAILED;
+            return distributed.report();
+        });
+        return check.finish(report, circuitFile, spec.commandLine().getOut());
     }
 }

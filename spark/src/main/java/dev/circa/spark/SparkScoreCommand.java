@@ -4,7 +4,6 @@ import dev.circa.cli.ExitStatus;
 import dev.circa.cli.ReadOptions;
 import dev.circa.cli.UsageException;
 import dev.circa.format.io.FormatException;
-import java.io.IOException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -12,7 +11,6 @@ import java.util.concurrent.Callable;
 import org.apache.spark.sql.Dataset;
 import org.apache.spark.sql.Encoders;
 import org.apache.spark.sql.Row;
-import org.apache.spark.sql.SparkSession;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -56,41 +54,32 @@ final class SparkScoreCommand implements Callable<Integer> {
     picocli.CommandLine.Model.CommandSpec spec;
 
     @Override
-    public Integer call() throws FormatException, IOException {
-        SparkModel model = SparkModel.load(circuitFile, read.limits(), spec.commandLine().getErr());
-        Sessions.Opened opened = sparkOptions.open();
-        try {
-            SparkSession spark = opened.spark();
+    public Integer call() throws FormatException {
+        sparkOptions.run(circuitFile, read, spec, (spark, model) -> {
             org.apache.hadoop.fs.Path out = new org.apache.hadoop.fs.Path(output);
             if (out.getFileSystem(spark.sparkContext().hadoopConfiguration()).exists(out)) {
                 throw new UsageException(output + " exists; give a new folder for the output (nothing was written)");
             }
-            Dataset<Row> rows = DataFiles.read(spark, data);
             CircuitScorer scorer = CircuitScorer.of(model).given(given).requireAllVariables(false);
             if (outputName != null) {
                 scorer = scorer.output(outputName);
             }
             Dataset<Row> scored;
             try {
-                scored = scorer.score(rows);
+                scored = scorer.score(DataFiles.read(spark, data));
             } catch (IllegalArgumentException e) {
                 throw new FormatException(data, 0, 0, null, e.getMessage());
             }
-            Dataset<Row> result = scored;
             int added = scorer.scoreColumns().size();
-            Jobs.run(() -> {
+            return Jobs.run(() -> {
                 if (form == Form.parquet) {
-                    result.write().parquet(output);
+                    scored.write().parquet(output);
                 } else {
-                    result.mapPartitions(new CsvLines(result.columns(), added), Encoders.STRING()).write().text(output);
+                    scored.mapPartitions(new CsvLines(scored.columns(), added), Encoders.STRING()).write().text(output);
                 }
-                return null;
+                return output;
             });
-        } finally {
-            if (opened.created()) {
-                opened.spark().stop();
-            }
-        }
+        });
         return ExitStatus.OK;
     }
 }
