@@ -9,7 +9,6 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.Callable;
 import org.apache.spark.sql.Dataset;
-import org.apache.spark.sql.Encoders;
 import org.apache.spark.sql.Row;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -72,11 +71,7 @@ final class SparkScoreCommand implements Callable<Integer> {
             }
             int added = scorer.scoreColumns().size();
             return Jobs.run(() -> {
-                if (form == Form.parquet) {
-                    scored.write().parquet(output);
-                } else {
-                    scored.mapPartitions(new CsvLines(scored.columns(), added), Encoders.STRING()).write().text(output);
-                }
+                ScoredOutput.write(scored, added, output, form == Form.parquet);
                 return output;
             });
         });
