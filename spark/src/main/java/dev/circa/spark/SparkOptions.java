@@ -33,6 +33,8 @@ public final class SparkOptions {
         Sessions.Opened opened = Sessions.open(master, conf);
         try {
             return work.run(opened.spark(), model);
+        } catch (FormatException e) {
+            throw e;
         } catch (IOException e) {
             throw new FormatException(circuit.toString(), 0, 0, null, "cannot be processed: " + e.getMessage());
         } finally {
