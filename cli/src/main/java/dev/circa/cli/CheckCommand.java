@@ -26,17 +26,14 @@ final class CheckCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws FormatException {
-        LoadedCircuit model = LoadedCircuit.load(circuitFile, read.limits(), spec.commandLine().getErr());
+        LoadedCircuit model = read.load(circuitFile);
         RegressionCheck regression = new RegressionCheck(model.circuit(), check.tolerance(model.document().checks()));
         regression.checkEmbedded(model.document());
         for (Path ref : check.references()) {
             regression.checkReference(ref, read.limits());
         }
-        return check.finish(regression.report(), circuitFile, spec.commandLine().getOut());
+        return check.finish(regression.report(), circuitFile, read.out());
     }
 }

@@ -7,6 +7,7 @@ import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 
 /**
@@ -14,9 +15,6 @@ import picocli.CommandLine.Option;
  * {@code circa check} and the commands that run the same check elsewhere.
  */
 public final class CheckOptions {
-    /** Report forms. */
-    public enum Format { text, json }
-
     @Option(names = "--reference", paramLabel = "REF.csv", description = "A reference set (repeatable).")
     List<Path> references = new ArrayList<>();
 
@@ -26,8 +24,8 @@ public final class CheckOptions {
     @Option(names = "--rtol", paramLabel = "R", description = "Relative tolerance (default: the file's checks value, else 1e-9).")
     Double rtol;
 
-    @Option(names = "--format", paramLabel = "FORMAT", description = "text (default) or json.")
-    Format format = Format.text;
+    @Mixin
+    TextOrJson format;
 
     /** The reference sets in the order given. */
     public List<Path> references() {
@@ -53,7 +51,7 @@ public final class CheckOptions {
             throw new UsageException("nothing to check: " + circuitFile + " has no embedded checks"
                     + (references.isEmpty() ? " and no --reference was given" : " and the reference sets have no rows"));
         }
-        out.print(format == Format.json ? report.toJson() : report.toText());
+        out.print(format.json() ? report.toJson() : report.toText());
         out.flush();
         return report.passed() ? ExitStatus.OK : ExitStatus.FAILED;
     }
