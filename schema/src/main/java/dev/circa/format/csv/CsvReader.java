@@ -36,10 +36,19 @@ public final class CsvReader implements AutoCloseable {
 
     /** Reads from {@code reader}; {@code file} names it in messages. */
     public CsvReader(Reader reader, String file, ReadLimits limits) {
+        this(reader, file, limits, 1);
+    }
+
+    /**
+     * Reads from {@code reader}, a stretch of a larger file that starts on line {@code firstLine} of
+     * it, so that records and messages carry the lines of the whole file (distributed readers).
+     */
+    public CsvReader(Reader reader, String file, ReadLimits limits, int firstLine) {
         this.in = reader;
         this.file = file;
         this.maxField = limits.maxString();
         this.limits = limits;
+        this.line = firstLine;
     }
 
     /**
