@@ -68,6 +68,10 @@ public final class Main implements Runnable {
             }
             return ExitStatus.UNUSABLE;
         });
+        cl.setExecutionStrategy(parsed -> {
+            StandardInputOnce.check(parsed);
+            return new CommandLine.RunLast().execute(parsed);
+        });
         try {
             return cl.execute(args);
         } catch (StackOverflowError e) {

@@ -1,6 +1,8 @@
 package dev.circa.converter.npz;
 
 import dev.circa.format.io.AtomicOutput;
+import dev.circa.format.io.InputFiles;
+import dev.circa.format.io.IoMessages;
 import dev.circa.format.io.FormatException;
 import java.io.BufferedInputStream;
 import java.io.ByteArrayOutputStream;
@@ -66,8 +68,9 @@ public final class NpzArchive {
      */
     public static NpzArchive read(Path path, long maxBytes) throws FormatException {
         String file = path.toString();
-        if (file.equals("-")) {
-            return read(System.in, "-", maxBytes);
+        if (InputFiles.isReadOnce(path)) {
+            // standard input, a pipe or a FIFO: no central directory to seek to, read the entries in order
+            return read(InputFiles.open(path, Long.MAX_VALUE), file, maxBytes);
         }
         if (Files.isDirectory(path)) {
             throw new FormatException(file, 0, 0, null, "is a directory, expected an .npz file");
@@ -102,7 +105,7 @@ public final class NpzArchive {
             throw new FormatException(file, 0, 0, null, "not a readable .npz archive: an entry name is not valid UTF-8 ("
                     + e.getMessage() + ")");
         } catch (IOException e) {
-            throw new FormatException(file, 0, 0, null, "cannot be read: " + e.getMessage());
+            throw new FormatException(file, 0, 0, null, "cannot be read: " + IoMessages.of(e));
         }
         return new NpzArchive(file, out);
     }

@@ -1,16 +1,27 @@
 package dev.circa.format.io;
 
 import java.io.BufferedInputStream;
+import java.io.FileInputStream;
 import java.io.IOException;
 import java.io.InputStream;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
+import java.util.HashMap;
+import java.util.Map;
 import java.util.zip.GZIPInputStream;
 import java.util.zip.ZipException;
 
-/** Opens input files: {@code -} for standard input, {@code .gz} decompressed, {@code --max-bytes} enforced. */
+/**
+ * Opens input files: {@code -} for standard input, {@code .gz} decompressed, {@code --max-bytes}
+ * enforced. Standard input and other inputs that can be read only once (a pipe such as
+ * {@code <(cat f)}, a FIFO) are read like files: the bytes are kept as they are read, so that they
+ * can be opened again (a reader that first looks for the document's kind, a schema check after the
+ * read), and gzip is recognised from the content since there is no name to tell it.
+ */
 public final class InputFiles {
+    private static final Map<Object, InputCopy> COPIES = new HashMap<>();
+
     private InputFiles() {
     }
 
@@ -19,9 +30,20 @@ public final class InputFiles {
         return path == null ? "-" : path.toString();
     }
 
+    /** Whether {@code path} names standard input ({@code -}, or {@code null}). */
+    public static boolean isStandardInput(Path path) {
+        return path == null || path.toString().equals("-");
+    }
+
+    /** Whether {@code path} can be read only once (standard input, a pipe, a FIFO, a device). */
+    public static boolean isReadOnce(Path path) {
+        return isStandardInput(path) || (Files.exists(path) && !Files.isRegularFile(path) && !Files.isDirectory(path));
+    }
+
     /**
      * Opens {@code path} (or standard input when {@code path} is {@code null} or {@code -}) for reading,
-     * decompressing gzip when the name ends in {@code .gz}, and counting bytes against {@code maxBytes}.
+     * decompressing gzip when the name ends in {@code .gz} (or, for an input without a file, when the
+     * content starts as gzip does), and counting bytes against {@code maxBytes}.
      *
      * @throws FormatException when the file is missing, unreadable or not gzip although named so
      */
@@ -29,34 +51,80 @@ public final class InputFiles {
         String name = displayName(path);
         try {
             InputStream raw;
-            boolean gz;
-            if (path == null || path.toString().equals("-")) {
-                raw = System.in;
-                gz = false;
+            boolean named = false;
+            boolean sniff = false;
+            if (isStandardInput(path)) {
+                raw = copyOf(System.in, System.in).newReader();
+                sniff = true;
             } else {
                 if (Files.isDirectory(path)) {
-                    throw new FormatException(name, 0, 0, null, "is a directory, expected a file");
+                    throw new FormatException(name, 0, 0, null, "is a folder, expected a file");
                 }
-                raw = Files.newInputStream(path);
-                gz = path.getFileName().toString().endsWith(".gz");
+                named = path.getFileName() != null && path.getFileName().toString().endsWith(".gz");
+                if (Files.isRegularFile(path) || !Files.exists(path)) {
+                    raw = Files.newInputStream(path);
+                } else {
+                    Object key = Files.readAttributes(path, java.nio.file.attribute.BasicFileAttributes.class).fileKey();
+                    raw = copyOf(key == null ? path.toAbsolutePath().toString() : key, null, path).newReader();
+                    sniff = !named;
+                }
             }
-            InputStream in = new BufferedInputStream(raw, 1 << 16);
+            BufferedInputStream in = new BufferedInputStream(raw, 1 << 16);
+            boolean gz = named || (sniff && startsAsGzip(in));
+            InputStream result = in;
             if (gz) {
                 try {
-                    in = new GZIPInputStream(in, 1 << 16);
+                    result = new GZIPInputStream(in, 1 << 16);
                 } catch (ZipException | java.io.EOFException e) {
                     in.close();
-                    throw new FormatException(name, 0, 0, null,
-                            "the name ends in .gz but the file is not gzip-compressed");
+                    throw new FormatException(name, 0, 0, null, named
+                            ? "the name ends in .gz but the file is not gzip-compressed"
+                            : "the input starts as gzip-compressed data but is not valid gzip");
                 }
             }
-            return new LimitedInputStream(in, maxBytes, name);
+            return new LimitedInputStream(result, maxBytes, name);
         } catch (NoSuchFileException e) {
             throw new FormatException(name, 0, 0, null, "no such file");
         } catch (FormatException e) {
             throw e;
         } catch (IOException e) {
-            throw new FormatException(name, 0, 0, null, "cannot be read: " + e.getMessage());
+            throw new FormatException(name, 0, 0, null, "cannot be read: " + IoMessages.of(e));
         }
+    }
+
+    /**
+     * Forgets the kept copies of standard input and of pipes (removing their temporary files): the
+     * next open reads the source anew. For a program that runs several commands in one process.
+     */
+    public static synchronized void forgetCopies() {
+        for (InputCopy c : COPIES.values()) {
+            c.discard();
+        }
+        COPIES.clear();
+    }
+
+    private static InputCopy copyOf(Object key, InputStream stdin) throws IOException {
+        return copyOf(key, stdin, null);
+    }
+
+    /** The copy of standard input ({@code stdin} non-null, keyed by that stream) or of the pipe {@code path}. */
+    private static synchronized InputCopy copyOf(Object key, InputStream stdin, Path path) throws IOException {
+        InputCopy c = COPIES.get(key);
+        if (c == null) {
+            if (stdin == null && COPIES.size() > 64) {
+                forgetCopies();
+            }
+            c = InputCopy.of(stdin != null ? stdin : new FileInputStream(path.toFile()));
+            COPIES.put(key, c);
+        }
+        return c;
+    }
+
+    private static boolean startsAsGzip(BufferedInputStream in) throws IOException {
+        in.mark(2);
+        int a = in.read();
+        int b = in.read();
+        in.reset();
+        return a == 0x1f && b == 0x8b;
     }
 }
