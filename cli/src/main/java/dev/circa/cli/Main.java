@@ -48,7 +48,7 @@ public final class Main implements Runnable {
         boolean debug = java.util.Arrays.asList(args).contains("--debug");
         cl.setParameterExceptionHandler((ex, a) -> {
             CommandLine c = ex.getCommandLine();
-            c.getErr().println("circa: " + ex.getMessage());
+            c.getErr().println("circa: " + UsageMessages.of(ex));
             c.getErr().println("Try 'circa " + commandPath(c) + "--help' for the options.");
             return ExitStatus.UNUSABLE;
         });

@@ -65,7 +65,7 @@ class CircuitReaderHardeningTest {
         t.add(new Case("only white space", () -> utf8("  \n\t "), d, 1, 1, "", "the file is empty"));
         t.add(new Case("control bytes", () -> new byte[] {0, 1, 2, (byte) 0xff, 7}, d, 1, 1, null, "not valid JSON"));
         t.add(new Case("image header", () -> new byte[] {(byte) 0x89, 'P', 'N', 'G', 13, 10, 26, 10}, d, 1, 2, null,
-                "Invalid UTF-8 start byte 0x89"));
+                "the byte 0x89 cannot start a UTF-8 character"));
         t.add(new Case("top-level array", () -> utf8("[1, 2]"), d, 1, 1, "", "expected a circuit document (a JSON object)"));
         t.add(new Case("content after the document", () -> utf8(HEAD + NORMAL + TAIL + "{}"), d, 7, 1, "",
                 "unexpected content after the end of the document"));
