@@ -21,7 +21,7 @@ public final class ParserMessages {
     private static final Pattern CLOSE = Pattern.compile("Unexpected close marker '(.)': expected '(.)'");
     private static final Pattern ESCAPE = Pattern.compile("Unrecognized character escape '(.+?)'");
     private static final Pattern UTF8 = Pattern.compile("Invalid UTF-8 (start|middle) byte (0x[0-9a-fA-F]+)");
-    private static final Pattern YAML_FOUND = Pattern.compile("expected (.+?), but found '?(<[^>]+>|[^']*)'?$");
+    private static final Pattern YAML_FOUND = Pattern.compile("expected (.+?), but (?:found|got) '?(<[^>]+>|[^']*)'?$");
     private static final Pattern YAML_DUPLICATE = Pattern.compile("found duplicate key (.*)");
     private static final Pattern YAML_CHAR = Pattern.compile("found character '(.*)' that cannot start any token");
 
@@ -136,7 +136,7 @@ public final class ParserMessages {
         Matcher ch = YAML_CHAR.matcher(p);
         if (ch.find()) {
             String c = ch.group(1);
-            if (c.equals("\\t")) {
+            if (c.startsWith("\\t")) {
                 return "a tab where indentation or a value was expected; YAML indents with spaces";
             }
             return "the character '" + c + "' cannot start a value here; put the value in quotes";

@@ -111,7 +111,7 @@ class CircuitReaderHardeningTest {
             b[a.length] = (byte) 0xC3;
             b[a.length + 1] = (byte) 0x28;
             return b;
-        }, d, 4, 25, null, "Invalid UTF-8 middle byte 0x28"));
+        }, d, 4, 25, null, "the byte 0x28 cannot continue a UTF-8 character"));
         t.add(new Case("mvnormal cov a number", () -> node("{\"id\": 0, \"input\": \"mvnormal\", \"vars\": [0, 1], \"mean\": [1, 2], \"cov\": 5}"),
                 d, 4, 71, "/nodes/0/cov", "needs \"cov\""));
         t.add(new Case("unknown family", () -> node("{\"id\": 0, \"input\": \"gaussian\", \"var\": 0}"), d, 4, 20,
