@@ -99,11 +99,10 @@ public final class NpzArchive {
         } catch (FormatException e) {
             throw e;
         } catch (ZipException e) {
-            throw new FormatException(file, 0, 0, null, "not an .npz archive (a zip file): " + e.getMessage());
+            throw new FormatException(file, 0, 0, null, "not an .npz archive (a zip file): " + IoMessages.of(e));
         } catch (IllegalArgumentException e) {
             // java.util.zip reports an entry name that is not valid UTF-8 this way
-            throw new FormatException(file, 0, 0, null, "not a readable .npz archive: an entry name is not valid UTF-8 ("
-                    + e.getMessage() + ")");
+            throw new FormatException(file, 0, 0, null, "not a readable .npz archive: an entry name is not valid UTF-8");
         } catch (IOException e) {
             throw new FormatException(file, 0, 0, null, "cannot be read: " + IoMessages.of(e));
         }
@@ -135,13 +134,12 @@ public final class NpzArchive {
         } catch (FormatException e) {
             throw e;
         } catch (ZipException e) {
-            throw new FormatException(file, 0, 0, null, "not a readable .npz archive (a zip file): " + e.getMessage());
+            throw new FormatException(file, 0, 0, null, "not a readable .npz archive (a zip file): " + IoMessages.of(e));
         } catch (IllegalArgumentException e) {
             // java.util.zip reports an entry name that is not valid UTF-8 this way
-            throw new FormatException(file, 0, 0, null, "not a readable .npz archive: an entry name is not valid UTF-8 ("
-                    + e.getMessage() + ")");
+            throw new FormatException(file, 0, 0, null, "not a readable .npz archive: an entry name is not valid UTF-8");
         } catch (IOException e) {
-            throw new FormatException(file, 0, 0, null, "cannot be read: " + e.getMessage());
+            throw new FormatException(file, 0, 0, null, "cannot be read: " + IoMessages.of(e));
         }
         if (!any) {
             throw new FormatException(file, 0, 0, null, "not an .npz archive: no zip entries found");

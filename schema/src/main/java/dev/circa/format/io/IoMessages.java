@@ -40,7 +40,7 @@ public final class IoMessages {
             return "the input ends unexpectedly (is the file truncated?)";
         }
         if (e instanceof ZipException) {
-            return "the compressed data is damaged" + detail(e.getMessage());
+            return "the compressed data or the zip structure is damaged";
         }
         if (e instanceof FileSystemException fs) {
             return fs.getReason() != null ? lower(fs.getReason()) : "the file system refused the operation";
@@ -59,10 +59,6 @@ public final class IoMessages {
             return "the input was already read and closed";
         }
         return lower(m);
-    }
-
-    private static String detail(String m) {
-        return m == null || m.isBlank() ? "" : " (" + lower(m) + ")";
     }
 
     private static String lower(String m) {

@@ -364,11 +364,13 @@ public final class JsonInput implements AutoCloseable {
         if (e instanceof StreamConstraintsException) {
             return limitFrom(msg, file, line, col);
         }
-        if (e.getCause() instanceof IOException io && !(io instanceof java.io.CharConversionException)) {
-            return new FormatException(file, line, col, null, "cannot be read: " + IoMessages.of(io));
-        }
-        if (e.getCause() instanceof java.io.CharConversionException cc && cc.getMessage() != null) {
-            msg = cc.getMessage();
+        if (e.getCause() instanceof IOException io) {
+            String m = io.getMessage() == null ? "" : io.getMessage();
+            boolean encoding = io instanceof java.io.CharConversionException || m.contains("UCS-4") || m.contains("UTF-");
+            if (!encoding) {
+                return new FormatException(file, line, col, null, "cannot be read: " + IoMessages.of(io));
+            }
+            msg = m;
         }
         return new FormatException(file, line, col, null, ParserMessages.json(msg));
     }

@@ -49,11 +49,11 @@ public final class ParserMessages {
             return "not valid JSON: comments are not allowed in JSON";
         }
         if (m.contains("UCS-4") || m.contains("UTF-32") || m.contains("Invalid UTF-16") || m.contains("surrogate")) {
-            return "the bytes are not valid text in the encoding they start in; expected UTF-8, UTF-16 or UTF-32";
+            return "not valid JSON: the bytes are not valid text in the encoding they start in; expected UTF-8, UTF-16 or UTF-32";
         }
         Matcher u = UTF8.matcher(m);
         if (u.find()) {
-            return "the byte " + u.group(2).toLowerCase(Locale.ROOT) + " cannot " + (u.group(1).equals("start") ? "start" : "continue")
+            return "not valid JSON: the byte " + u.group(2).toLowerCase(Locale.ROOT) + " cannot " + (u.group(1).equals("start") ? "start" : "continue")
                     + " a UTF-8 character; expected UTF-8, UTF-16 or UTF-32 text";
         }
         if (m.startsWith("Illegal unquoted character")) {

@@ -21,7 +21,7 @@ public final class OwnErrors {
     public static final java.util.List<String> LIBRARY_WORDING = java.util.List.of(
             "Unexpected character", "CTRL-CHAR", "Duplicate Object", "Duplicate field", "symbol table", "SYMBOL_HASH",
             "<block", "<scalar>", "<flow", "<stream", "<document", "Exception", "was expecting", "JsonNode", "asLong",
-            "Feature", "Unrecognized", "end-of-input", ": null", "ZLIB", "Illegal", "(code ", "while parsing",
+            "Feature", "Unrecognized", "end-of-input", "ZLIB", "Illegal", "(code ", "while parsing",
             "while scanning", "Stream closed", "Invalid UTF", "Unmatched argument", "is not a long", "is not an int");
 
     private OwnErrors() {
@@ -29,6 +29,9 @@ public final class OwnErrors {
 
     /** The first piece of library wording in {@code message}, or {@code null} when it has none. */
     public static String libraryWording(String message) {
+        if (message.endsWith(": null") || message.contains(": null;") || message.contains(": null (")) {
+            return ": null";
+        }
         for (String w : LIBRARY_WORDING) {
             if (message.contains(w)) {
                 return w;
