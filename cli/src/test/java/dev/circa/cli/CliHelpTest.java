@@ -79,7 +79,8 @@ class CliHelpTest {
             args[c.length] = "--help";
             String help = run(args);
             String joined = String.join(" ", c);
-            assertFalse(help.contains(" ...\n") || help.matches("(?s).*\\w\\.\\.\\.\\s*\\n.*"), joined + ":\n" + help);
+            // " ..." at the end of a sentence was the mark of a cut description ("FILE..." is a repeatable argument)
+            assertFalse(help.contains(" ...\n") || help.contains(" ...)"), joined + ":\n" + help);
         }
     }
 }
