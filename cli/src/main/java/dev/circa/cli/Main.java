@@ -71,6 +71,7 @@ public final class Main implements Runnable {
         cl.setExecutionStrategy(parsed -> {
             StandardInputOnce.check(parsed);
             OptionValues.check(parsed);
+            OutputTargets.check(parsed);
             return new CommandLine.RunLast().execute(parsed);
         });
         try {

@@ -81,6 +81,24 @@ class CliHelpTest {
             String joined = String.join(" ", c);
             // " ..." at the end of a sentence was the mark of a cut description ("FILE..." is a repeatable argument)
             assertFalse(help.contains(" ...\n") || help.contains(" ...)"), joined + ":\n" + help);
+            // help points at the repository's docs/, never at design files a clone does not have
+            assertFalse(help.contains("FORMAT.md") || help.contains("CLI.md"), joined + ":\n" + help);
         }
+    }
+
+    @Test
+    void render_keepsNodeLabels() throws Exception {
+        java.nio.file.Path dir = java.nio.file.Files.createTempDirectory("render-labels");
+        java.nio.file.Path c = dir.resolve("labelled.json");
+        java.nio.file.Files.writeString(c, """
+            {"format": "circa.circuit", "version": "1.0", "variables": [{"name": "flow", "type": "real"}],
+             "nodes": [{"id": 0, "input": "normal", "var": 0, "mean": 1, "sd": 1, "label": "steady"},
+                       {"id": 1, "input": "normal", "var": 0, "mean": 4, "sd": 2, "label": "surging"},
+                       {"id": 2, "sum": [0, 1], "weights": [0.5, 0.5], "label": "regimes"}],
+             "outputs": [{"name": "joint", "node": 2}]}
+            """);
+        run("render", c.toString(), "-o", dir.resolve("labelled.dot").toString());
+        String dot = java.nio.file.Files.readString(dir.resolve("labelled.dot"));
+        assertTrue(dot.contains("#0 normal\\nsteady") && dot.contains("#1 normal\\nsurging") && dot.contains("#2 sum\\nregimes"), dot);
     }
 }

@@ -57,4 +57,27 @@ class CliOptionValuesTest {
             assertTrue(!err.toString().contains(MISSING), () -> "read the input before judging the option: " + args + ": " + err);
         }
     }
+
+    @Test
+    void outputInAMissingFolder_orEmpty_orAFolder_status2BeforeAnyWork() {
+        String mixture = "../fixtures/mixtures/pump-station-regimes.yaml";
+        for (String[] args : List.of(
+                new String[] {"convert", mixture, "-o", "nodir/out.json"},
+                new String[] {"convert", mixture, "-o", ""},
+                new String[] {"convert", mixture, "-o", ".."},
+                new String[] {"sample", MISSING, "-n", "3", "-o", "nodir/s.csv"},
+                new String[] {"regions", "grid", "--height", "2", "--width", "2", "-o", "nodir/rg.json"})) {
+            StringWriter out = new StringWriter();
+            StringWriter err = new StringWriter();
+            int status = Main.run(args, new PrintWriter(out, true), new PrintWriter(err, true));
+            String first = err.toString().lines().findFirst().orElse("");
+            assertEquals(ExitStatus.UNUSABLE, status, () -> List.of(args) + ": " + err);
+            assertTrue(first.startsWith("circa: " + args[args.length - 1] + ": ") || args[args.length - 1].isEmpty(),
+                    () -> List.of(args) + ": " + err);
+            assertTrue(first.contains("does not exist") || first.contains("the output name is empty") || first.contains("is a folder"),
+                    () -> List.of(args) + ": " + err);
+            // nothing was converted or read first
+            assertTrue(!err.toString().contains("converted") && !err.toString().contains(MISSING), () -> List.of(args) + ": " + err);
+        }
+    }
 }
