@@ -14,7 +14,7 @@ final class OptionValues {
     /** Smallest accepted value of each whole-number option. */
     private static final Map<String, Long> AT_LEAST = Map.ofEntries(
             Map.entry("--sums", 1L), Map.entry("--inputs", 1L), Map.entry("--outputs", 1L),
-            Map.entry("--verify", 1L), Map.entry("--samples", 1L), Map.entry("-n", 1L),
+            Map.entry("--verify", 1L), Map.entry("--samples", 1L), Map.entry("-n", 0L),
             Map.entry("--vars", 1L), Map.entry("--depth", 0L), Map.entry("--repeats", 1L),
             Map.entry("--height", 1L), Map.entry("--width", 1L), Map.entry("--max-enumeration", 1L),
             Map.entry("--max-render-nodes", 0L), Map.entry("--max-bytes", 1L), Map.entry("--max-nodes", 1L),

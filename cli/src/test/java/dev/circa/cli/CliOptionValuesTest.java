@@ -36,7 +36,7 @@ class CliOptionValuesTest {
             new Case("--max-enumeration", "0", List.of("validate", MISSING)),
             new Case("--max-nodes", "0", List.of("inspect", MISSING)),
             new Case("--max-bytes", "-5", List.of("eval", MISSING, "--data", "d.csv")),
-            new Case("-n", "0", List.of("sample", MISSING)),
+            new Case("-n", "-1", List.of("sample", MISSING)),
             new Case("--repeats", "0", List.of("regions", "random", "--vars", "4", "--depth", "1", "-o", "rg.json")),
             new Case("--height", "0", List.of("regions", "grid", "--width", "2", "-o", "rg.json")));
 
