@@ -234,7 +234,7 @@ public final class CsvReader implements AutoCloseable {
             if (e.getCause() instanceof FormatException fe) {
                 throw fe;
             }
-            throw new FormatException(file, line, col, null, "cannot be read: " + e.getMessage());
+            throw new FormatException(file, line, col, null, "cannot be read: " + dev.circa.format.io.IoMessages.of(e));
         }
     }
 
@@ -243,7 +243,7 @@ public final class CsvReader implements AutoCloseable {
         try {
             in.close();
         } catch (IOException e) {
-            throw new FormatException(file, 0, 0, null, "cannot be closed: " + e.getMessage());
+            throw new FormatException(file, 0, 0, null, "cannot be closed: " + dev.circa.format.io.IoMessages.of(e));
         }
     }
 }
