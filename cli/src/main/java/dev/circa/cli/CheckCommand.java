@@ -1,18 +1,12 @@
 package dev.circa.cli;
 
 import dev.circa.format.io.FormatException;
-import dev.circa.validator.regression.CheckReport;
 import dev.circa.validator.regression.RegressionCheck;
-import dev.circa.validator.regression.Tolerance;
-import java.io.PrintWriter;
 import dev.circa.model.Model;
 import java.nio.file.Path;
-import java.util.ArrayList;
-import java.util.List;
 import java.util.concurrent.Callable;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
-import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
 /** {@code circa check}: regression check against the embedded checks and reference CSV files. */
@@ -27,43 +21,20 @@ final class CheckCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "CIRCUIT", description = "The circuit file (.json or .json.gz).")
     Path circuitFile;
 
-    @Option(names = "--reference", paramLabel = "REF.csv", description = "A reference set (repeatable).")
-    List<Path> references = new ArrayList<>();
-
-    @Option(names = "--atol", paramLabel = "A", description = "Absolute tolerance (default: the file's checks value, else 1e-9).")
-    Double atol;
-
-    @Option(names = "--rtol", paramLabel = "R", description = "Relative tolerance (default: the file's checks value, else 1e-9).")
-    Double rtol;
-
     @Mixin
-    TextOrJson format;
+    CheckOptions check;
 
     @Mixin
     ReadOptions read;
 
     @Override
     public Integer call() throws FormatException {
-        PrintWriter out = read.out();
         Model model = read.load(circuitFile);
-        Tolerance tol;
-        try {
-            tol = Tolerance.resolve(model.document().checks(), atol, rtol);
-        } catch (IllegalArgumentException e) {
-            throw new UsageException("--atol and --rtol must be finite and >= 0");
+        RegressionCheck regression = new RegressionCheck(model.circuit(), check.tolerance(model.document().checks()));
+        regression.checkEmbedded(model.document());
+        for (Path ref : check.references()) {
+            regression.checkReference(ref, read.limits());
         }
-        RegressionCheck check = new RegressionCheck(model.circuit(), tol);
-        check.checkEmbedded(model.document());
-        for (Path ref : references) {
-            check.checkReference(ref, read.limits());
-        }
-        CheckReport report = check.report();
-        if (report.cases() == 0) {
-            throw new UsageException("nothing to check: " + circuitFile + " has no embedded checks"
-                    + (references.isEmpty() ? " and no --reference was given" : " and the reference sets have no rows"));
-        }
-        out.print(format.json() ? report.toJson() : report.toText());
-        out.flush();
-        return report.passed() ? ExitStatus.OK : ExitStatus.FAILED;
+        return check.finish(regression.report(), circuitFile, read.out());
     }
 }

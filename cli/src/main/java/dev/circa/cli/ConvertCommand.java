@@ -29,7 +29,7 @@ import picocli.CommandLine.Parameters;
             "compared with an independent evaluation of the source at --verify N points sampled from the",
             "source and at the same points with random variables missing. Exit 1 when they disagree beyond",
             "--atol/--rtol (the circuit is then not written). With --to-params, writes a compiled circuit's",
-            "parameters back in the layout of FORMAT.md section 3."})
+            "parameters back in the layout of docs/region-graph.md."})
 final class ConvertCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "SOURCE", description = "Region graph, mixture document, or (with --to-params) a compiled circuit.")
     Path source;

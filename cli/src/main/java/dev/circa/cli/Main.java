@@ -48,7 +48,7 @@ public final class Main implements Runnable {
         boolean debug = java.util.Arrays.asList(args).contains("--debug");
         cl.setParameterExceptionHandler((ex, a) -> {
             CommandLine c = ex.getCommandLine();
-            c.getErr().println("circa: " + ex.getMessage());
+            c.getErr().println("circa: " + UsageMessages.of(ex));
             c.getErr().println("Try 'circa " + commandPath(c) + "--help' for the options.");
             return ExitStatus.UNUSABLE;
         });
@@ -67,6 +67,12 @@ public final class Main implements Runnable {
                 }
             }
             return ExitStatus.UNUSABLE;
+        });
+        cl.setExecutionStrategy(parsed -> {
+            StandardInputOnce.check(parsed);
+            OptionValues.check(parsed);
+            OutputTargets.check(parsed);
+            return new CommandLine.RunLast().execute(parsed);
         });
         try {
             return cl.execute(args);
@@ -100,19 +106,25 @@ public final class Main implements Runnable {
         return q.startsWith("circa ") ? q.substring(6) + " " : "";
     }
 
-    /** The first sentence of a command's description, as its one-line entry in the list of subcommands. */
-    private static void summarise(CommandLine.Model.CommandSpec spec) {
+    /**
+     * Gives a command's help one flowing text: the first sentence of its description becomes the
+     * header (its whole entry in the list of subcommands, never cut), and the rest follows as one
+     * paragraph that the help wraps to the terminal, whatever line breaks its source has.
+     */
+    static void summarise(CommandLine.Model.CommandSpec spec) {
         String[] d = spec.usageMessage().description();
         if (d.length == 0 || spec.usageMessage().header().length > 0) {
             return;
         }
-        String text = String.join(" ", d);
+        String text = String.join(" ", d).replaceAll("\\s+", " ").trim();
         int end = text.indexOf(". ");
         String first = end < 0 ? text : text.substring(0, end + 1);
-        if (first.length() > 110) {
-            first = first.substring(0, first.lastIndexOf(' ', 107)) + " ...";
-        }
+        String rest = end < 0 ? "" : text.substring(end + 2).trim();
         spec.usageMessage().header(first);
+        spec.usageMessage().description(rest.isEmpty() ? new String[0] : new String[] {rest});
+        for (CommandLine sub : spec.subcommands().values()) {
+            summarise(sub.getCommandSpec());
+        }
     }
 
     /** Supplies {@code --version}. */

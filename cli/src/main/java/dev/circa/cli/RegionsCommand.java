@@ -13,7 +13,7 @@ import picocli.CommandLine.Option;
 
 /** {@code circa regions}: generate region graphs. */
 @Command(name = "regions", mixinStandardHelpOptions = true,
-        description = "Generates a region graph (FORMAT.md section 3).",
+        description = "Generates a region graph (see docs/region-graph.md).",
         subcommands = {RegionsCommand.Random.class, RegionsCommand.Grid.class})
 final class RegionsCommand implements Runnable {
     @picocli.CommandLine.Spec
@@ -32,7 +32,7 @@ final class RegionsCommand implements Runnable {
         @Option(names = "--vars", paramLabel = "N", description = "Number of real variables x0 ... x<N-1>.")
         Integer vars;
 
-        @Option(names = "--variables", paramLabel = "FILE.json", description = "A JSON array of variables (FORMAT.md section 1).")
+        @Option(names = "--variables", paramLabel = "FILE.json", description = "A JSON array of variables (see docs/documents.md).")
         Path variablesFile;
 
         @Option(names = "--depth", required = true, paramLabel = "D", description = "Depth of the splits.")

@@ -56,7 +56,7 @@ final class RenderCommand implements Callable<Integer> {
         }
         AtomicOutput.write(output, stream -> {
             BufferedWriter w = new BufferedWriter(new OutputStreamWriter(stream, StandardCharsets.UTF_8));
-            DotRenderer.render(model.circuit(), options, w);
+            DotRenderer.render(model.circuit(), options, w, DotRenderer.labelsOf(model.document()));
             w.flush();
         }, circuitFile);
         return ExitStatus.OK;

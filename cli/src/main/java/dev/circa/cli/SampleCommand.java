@@ -21,6 +21,8 @@ import picocli.CommandLine.Parameters;
             "stream per row: the same seed gives the same bytes on any machine and thread count."})
 final class SampleCommand implements Callable<Integer> {
     private static final int CHUNK = 4096;
+    /** Most cells held at once (8 MiB of doubles), unless one row alone has more. */
+    private static final int CELL_BUDGET = 1 << 20;
 
     @Parameters(index = "0", paramLabel = "CIRCUIT", description = "The circuit file.")
     Path circuitFile;
@@ -52,10 +54,11 @@ final class SampleCommand implements Callable<Integer> {
         int nv = vars.size();
         output.write(out -> {
             out.record(vars.stream().map(Variable::name).toArray(String[]::new));
-            double[] buf = new double[CHUNK * nv];
+            int chunk = chunkRows(count, nv);
+            double[] buf = new double[Math.multiplyExact(chunk, Math.max(1, nv))];
             String[] line = new String[nv];
-            for (long first = 0; first < count; first += CHUNK) {
-                int n = (int) Math.min(CHUNK, count - first);
+            for (long first = 0; first < count; first += chunk) {
+                int n = (int) Math.min(chunk, count - first);
                 try {
                     model.sample(outIndex, seed, first, n, buf);
                 } catch (DrawOverflowException e) {
@@ -71,5 +74,11 @@ final class SampleCommand implements Callable<Integer> {
             }
         }, circuitFile);
         return ExitStatus.OK;
+    }
+
+    /** Rows drawn per call: at most {@code count}, {@value #CHUNK}, and {@value #CELL_BUDGET} cells (at least 1). */
+    static int chunkRows(long count, int variables) {
+        long byBudget = CELL_BUDGET / Math.max(1, variables);
+        return (int) Math.max(1, Math.min(Math.min(count, CHUNK), byBudget));
     }
 }

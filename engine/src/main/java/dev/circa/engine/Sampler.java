@@ -22,6 +22,8 @@ public final class Sampler {
     private final CircuitData c;
     private final long seed;
     private final double[] logZ;
+    private final double[] cumulative;
+    private final int[] lastPositive;
     private final Xoshiro256 rng;
     private final double[] draw;
     private final int[] stack;
@@ -29,11 +31,17 @@ public final class Sampler {
     private int generation;
     private long nextRow;
 
-    /** A sampler for {@code circuit} with the given seed; computes every node's log Z once. */
+    /**
+     * A sampler for {@code circuit} with the given seed; computes every node's log Z and every sum's
+     * running child probabilities once (one double per edge), so a draw at a sum is a binary search.
+     */
     public Sampler(CompiledCircuit circuit, long seed) {
         this.c = circuit.data();
         this.seed = seed;
         this.logZ = partitions(c);
+        this.cumulative = new double[c.childIndex.length];
+        this.lastPositive = new int[c.nodeCount];
+        precompute(c, logZ, cumulative, lastPositive);
         this.rng = new Xoshiro256(seed);
         this.draw = new double[Math.max(1, c.maxInputDimension)];
         this.stack = new int[c.nodeCount];
@@ -114,23 +122,55 @@ public final class Sampler {
         }
     }
 
+    /**
+     * The first child e whose running sum of probabilities w_ie Z_e / Z_i, in child order, passes a uniform
+     * draw (the last child of positive probability when rounding leaves the total below it): a binary
+     * search in the running sums computed once ({@link #cumulative}).
+     */
     private int choose(int i, int s, int end) {
         double u = rng.nextDouble();
-        double zi = logZ[i];
-        double acc = 0;
-        int last = -1;
-        for (int e = s; e < end; e++) {
-            int child = c.childIndex[e];
-            double t = c.logWeight[e] + logZ[child];
-            if (t > Double.NEGATIVE_INFINITY) {
-                last = child;
-                acc += StrictMath.exp(t - zi);
-                if (u < acc) {
-                    return child;
-                }
+        int lo = s;
+        int hi = end;
+        while (lo < hi) {
+            int mid = (lo + hi) >>> 1;
+            if (u < cumulative[mid]) {
+                hi = mid;
+            } else {
+                lo = mid + 1;
             }
         }
-        return last;
+        return lo < end ? c.childIndex[lo] : lastPositive[i];
+    }
+
+    /**
+     * Per sum edge, the running sum of StrictMath.exp(log w + log Z_child - log Z_sum) over the sum's
+     * children up to and including it (children of probability 0 repeat the previous sum, so the first
+     * edge whose running sum passes a draw always has positive probability); per sum, its last child of
+     * positive probability (-1 if none). The same sums in the same order as a child-by-child scan, so the
+     * choices are the same.
+     */
+    private static int precompute(CircuitData c, double[] logZ, double[] cumulative, int[] lastPositive) {
+        int sums = 0;
+        for (int i = 0; i < c.nodeCount; i++) {
+            if (c.kind[i] != CircuitData.SUM) {
+                continue;
+            }
+            sums++;
+            double zi = logZ[i];
+            double acc = 0;
+            int last = -1;
+            for (int e = c.childStart[i]; e < c.childStart[i + 1]; e++) {
+                int child = c.childIndex[e];
+                double t = c.logWeight[e] + logZ[child];
+                if (t > Double.NEGATIVE_INFINITY) {
+                    last = child;
+                    acc += StrictMath.exp(t - zi);
+                }
+                cumulative[e] = acc;
+            }
+            lastPositive[i] = last;
+        }
+        return sums;
     }
 
     private void drawInput(int slot, double[] out, int rowBase) {

@@ -66,18 +66,6 @@ public final class Validator {
     public ValidationReport validate(Path file, ReadLimits limits) throws FormatException {
         CircuitReader reader = new CircuitReader(limits);
         String name = InputFiles.displayName(file);
-        if (file.toString().equals("-")) {
-            byte[] bytes;
-            try (InputStream in = InputFiles.open(file, limits.maxBytes())) {
-                bytes = in.readAllBytes();
-            } catch (FormatException e) {
-                throw e;
-            } catch (IOException e) {
-                throw new FormatException(name, 0, 0, null, "cannot read standard input: " + e.getMessage());
-            }
-            CircuitDocument doc = reader.read(new ByteArrayInputStream(bytes), name);
-            return validate(doc, schema.check(new ByteArrayInputStream(bytes), name, limits));
-        }
         CircuitDocument doc = reader.read(file);
         List<SchemaFinding> findings = List.of();
         if (schema != SchemaCheck.NONE) {
@@ -86,7 +74,7 @@ public final class Validator {
             } catch (FormatException e) {
                 throw e;
             } catch (IOException e) {
-                throw new FormatException(name, 0, 0, null, "cannot read the file: " + e.getMessage());
+                throw new FormatException(name, 0, 0, null, "cannot be read: " + dev.circa.format.io.IoMessages.of(e));
             }
         }
         return validate(doc, findings);

@@ -25,6 +25,9 @@ import java.util.function.Function;
  * <p>Stateless; safe to call from any thread.
  */
 public final class MixtureConverter {
+    /** The producer circa's converters write in the provenance of the circuits they make. */
+    public static final String PRODUCER = CircuitEmitter.PRODUCER;
+
     private MixtureConverter() {
     }
 

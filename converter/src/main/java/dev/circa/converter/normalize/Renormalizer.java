@@ -146,7 +146,7 @@ public final class Renormalizer {
             names.add(c.outputName(o));
         }
         CircuitDocument result = CircuitDocument.builder()
-                .version(doc.version()).name(doc.name()).description(doc.description()).provenance(doc.provenance())
+                .version(doc.version()).name(doc.name()).description(doc.description()).provenance(provenanceAfter(doc.provenance(), names, before))
                 .variables(doc.variables()).nodes(out).outputs(doc.outputs())
                 .checks(shiftedChecks(doc.checks(), c, before)).extensions(doc.extensions())
                 .build();
@@ -226,5 +226,25 @@ public final class Renormalizer {
         }
         throw new NotNormalizableException("the circuit is not proven smooth and decomposable; renormalisation needs "
                 + "a smooth, decomposable circuit (run circa validate for the diagnostics)");
+    }
+
+    /** The provenance of the renormalised document: circa wrote it, saying from what and by how much. */
+    private static dev.circa.format.Provenance provenanceAfter(dev.circa.format.Provenance was, List<String> outputs, double[] logZ) {
+        StringBuilder sb = new StringBuilder("renormalised by circa normalize (log Z before:");
+        for (int o = 0; o < outputs.size(); o++) {
+            sb.append(o == 0 ? " " : ", ").append(outputs.get(o)).append(' ').append(logZ[o]);
+        }
+        sb.append(')');
+        if (was != null && (was.producer() != null || was.source() != null)) {
+            sb.append("; before:");
+            if (was.producer() != null) {
+                sb.append(" written by ").append(was.producer());
+            }
+            if (was.source() != null) {
+                sb.append(was.producer() != null ? "," : "").append(" from ").append(was.source());
+            }
+        }
+        // no time: the same input gives the same bytes, as for convert
+        return new dev.circa.format.Provenance(dev.circa.converter.mixture.MixtureConverter.PRODUCER, null, sb.toString());
     }
 }

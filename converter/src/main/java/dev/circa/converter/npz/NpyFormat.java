@@ -51,7 +51,7 @@ public final class NpyFormat {
         } catch (FormatException e) {
             throw e;
         } catch (IOException e) {
-            throw problem(file, name, "cannot be read: " + e.getMessage());
+            throw problem(file, name, "cannot be read: " + dev.circa.format.io.IoMessages.of(e));
         }
     }
 

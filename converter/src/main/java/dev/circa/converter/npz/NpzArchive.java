@@ -1,6 +1,8 @@
 package dev.circa.converter.npz;
 
 import dev.circa.format.io.AtomicOutput;
+import dev.circa.format.io.InputFiles;
+import dev.circa.format.io.IoMessages;
 import dev.circa.format.io.FormatException;
 import java.io.BufferedInputStream;
 import java.io.ByteArrayOutputStream;
@@ -66,8 +68,9 @@ public final class NpzArchive {
      */
     public static NpzArchive read(Path path, long maxBytes) throws FormatException {
         String file = path.toString();
-        if (file.equals("-")) {
-            return read(System.in, "-", maxBytes);
+        if (InputFiles.isReadOnce(path)) {
+            // standard input, a pipe or a FIFO: no central directory to seek to, read the entries in order
+            return read(InputFiles.open(path, Long.MAX_VALUE), file, maxBytes);
         }
         if (Files.isDirectory(path)) {
             throw new FormatException(file, 0, 0, null, "is a directory, expected an .npz file");
@@ -97,13 +100,12 @@ public final class NpzArchive {
         } catch (FormatException e) {
             throw e;
         } catch (ZipException e) {
-            throw new FormatException(file, 0, 0, null, "not an .npz archive (a zip file): " + e.getMessage());
+            throw new FormatException(file, 0, 0, null, "not an .npz archive (a zip file): " + IoMessages.of(e));
         } catch (IllegalArgumentException e) {
             // java.util.zip reports an entry name that is not valid UTF-8 this way
-            throw new FormatException(file, 0, 0, null, "not a readable .npz archive: an entry name is not valid UTF-8 ("
-                    + e.getMessage() + ")");
+            throw new FormatException(file, 0, 0, null, "not a readable .npz archive: an entry name is not valid UTF-8");
         } catch (IOException e) {
-            throw new FormatException(file, 0, 0, null, "cannot be read: " + e.getMessage());
+            throw new FormatException(file, 0, 0, null, "cannot be read: " + IoMessages.of(e));
         }
         return new NpzArchive(file, out);
     }
@@ -137,13 +139,12 @@ public final class NpzArchive {
         } catch (FormatException e) {
             throw e;
         } catch (ZipException e) {
-            throw new FormatException(file, 0, 0, null, "not a readable .npz archive (a zip file): " + e.getMessage());
+            throw new FormatException(file, 0, 0, null, "not a readable .npz archive (a zip file): " + IoMessages.of(e));
         } catch (IllegalArgumentException e) {
             // java.util.zip reports an entry name that is not valid UTF-8 this way
-            throw new FormatException(file, 0, 0, null, "not a readable .npz archive: an entry name is not valid UTF-8 ("
-                    + e.getMessage() + ")");
+            throw new FormatException(file, 0, 0, null, "not a readable .npz archive: an entry name is not valid UTF-8");
         } catch (IOException e) {
-            throw new FormatException(file, 0, 0, null, "cannot be read: " + e.getMessage());
+            throw new FormatException(file, 0, 0, null, "cannot be read: " + IoMessages.of(e));
         }
         if (!any) {
             throw new FormatException(file, 0, 0, null, "not an .npz archive: no zip entries found");

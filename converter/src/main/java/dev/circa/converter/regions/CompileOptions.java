@@ -75,7 +75,9 @@ public record CompileOptions(int sums, int inputs, int outputs, Map<VariableType
         Family f = Family.fromJsonName(spec.substring(eq + 1).trim());
         if (f == null) {
             throw new IllegalArgumentException("unknown input family \"" + spec.substring(eq + 1).trim()
-                    + "\" in --family; expected one of the input table of FORMAT.md (normal, lognormal, ...)");
+                    + "\" in --family; expected one of the compile families (see docs/circuit.md, input families): "
+                    + java.util.Arrays.stream(Family.values()).filter(x -> x != Family.MVNORMAL).map(Family::jsonName)
+                            .collect(java.util.stream.Collectors.joining(", ")));
         }
         return withFamily(t, f);
     }

@@ -26,17 +26,39 @@ public final class DotRenderer {
     private final CompiledCircuit c;
     private final RenderOptions options;
     private final Appendable out;
+    private final Map<Integer, String> labels;
     private InternedScopes scopes;
 
-    private DotRenderer(CompiledCircuit c, RenderOptions options, Appendable out) {
+    private DotRenderer(CompiledCircuit c, RenderOptions options, Appendable out, Map<Integer, String> labels) {
         this.c = c;
         this.options = options;
         this.out = out;
+        this.labels = labels;
     }
 
-    /** Writes the DOT of {@code c} to {@code out}. */
+    /** The labels of a document's nodes, by node id (only the nodes that have one). */
+    public static Map<Integer, String> labelsOf(dev.circa.format.CircuitDocument doc) {
+        Map<Integer, String> out = new HashMap<>();
+        for (dev.circa.format.Node n : doc.nodes()) {
+            if (n.label() != null && !n.label().isEmpty()) {
+                out.put(n.id(), n.label());
+            }
+        }
+        return out;
+    }
+
+    /** Writes the DOT of {@code c} to {@code out}, without node labels. */
     public static void render(CompiledCircuit c, RenderOptions options, Appendable out) throws IOException {
-        DotRenderer r = new DotRenderer(c, options, out);
+        render(c, options, out, Map.of());
+    }
+
+    /**
+     * Writes the DOT of {@code c} to {@code out}; each node whose id has a label in {@code labels}
+     * (see {@link #labelsOf}) shows it under its id and kind.
+     */
+    public static void render(CompiledCircuit c, RenderOptions options, Appendable out, Map<Integer, String> labels)
+            throws IOException {
+        DotRenderer r = new DotRenderer(c, options, out, labels);
         if (c.nodeCount() > options.maxNodes()) {
             r.summary();
         } else {
@@ -83,6 +105,10 @@ public final class DotRenderer {
             } else {
                 shape = "ellipse";
                 label.append('#').append(c.nodeId(i)).append(" sum");
+            }
+            String own = labels.get(c.nodeId(i));
+            if (own != null) {
+                label.insert(label.indexOf("\n") < 0 ? label.length() : label.indexOf("\n"), "\n" + own);
             }
             if (options.scopes() && k != NodeKind.INPUT) {
                 label.append('\n').append(scopeText(scopes.variables(scopes.scopeOf(i))));
@@ -225,7 +251,11 @@ public final class DotRenderer {
         return sb.append('}').toString();
     }
 
+    /** Three significant digits; a whole number (a count of trials, a state index, a weight of 1) as an integer. */
     private static String round(double d) {
+        if (d == Math.rint(d) && Math.abs(d) < 1e15) {
+            return Long.toString((long) d);
+        }
         return String.format(Locale.ROOT, "%.3g", d);
     }
 

@@ -167,6 +167,21 @@ public class RenormalizerTest {
     }
 
     @Test
+    void normalize_recordsItselfInProvenance_keepingWhatCameBefore() throws Exception {
+        CircuitDocument input = new dev.circa.format.io.CircuitReader().read(EXAMPLE);
+        NormalizationResult r = Renormalizer.normalize(discrete(false, 3.7));
+        String source = r.document().provenance().source();
+        assertEquals("circa 0.1.0", r.document().provenance().producer());
+        assertTrue(source.startsWith("renormalised by circa normalize (log Z before: "), source);
+        // log Z before, as computed above by arithmetic: log 3.7
+        assertTrue(source.contains(Double.toString(r.logPartitionBefore()[0])), source);
+        NormalizationResult again = Renormalizer.normalize(input);
+        String kept = again.document().provenance().source();
+        assertTrue(input.provenance() == null || input.provenance().source() == null
+                || kept.contains("from " + input.provenance().source()), kept);
+    }
+
+    @Test
     void normalize_innerSumsScaled_weightsAreWZjOverZiByBruteForce() throws Exception {
         CircuitDocument input = discrete(true, 2.5);
         double[] z = bruteForceMass(input);

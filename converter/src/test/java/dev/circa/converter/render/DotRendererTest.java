@@ -143,4 +143,42 @@ class DotRendererTest {
     void quote_labelWithQuotesAndBackslashes_escaped() {
         assertEquals("\"a \\\"b\\\" \\\\ c\\nd\"", DotRenderer.quote("a \"b\" \\ c\nd"));
     }
+
+    @Test
+    void render_keepsNodeLabels_underIdAndKind() throws Exception {
+        String json = """
+            {"format": "circa.circuit", "version": "1.0", "variables": [{"name": "flow", "type": "real"}],
+             "nodes": [{"id": 0, "input": "normal", "var": 0, "mean": 1, "sd": 1, "label": "steady flow"},
+                       {"id": 1, "input": "normal", "var": 0, "mean": 4, "sd": 2},
+                       {"id": 2, "sum": [0, 1], "weights": [0.5, 0.5], "label": "pump \\"A\\" regimes"}],
+             "outputs": [{"name": "joint", "node": 2}]}
+            """;
+        CircuitDocument doc = new CircuitReader().readString(json, "labels.json");
+        String dot = DotRenderer.render(CompiledCircuit.compile(doc), RenderOptions.DEFAULT);
+        String labelled = sb(doc);
+        assertEquals(dot, DotRenderer.render(CompiledCircuit.compile(doc), RenderOptions.DEFAULT), "the label-free form is unchanged");
+        assertTrue(labelled.contains("label=\"#0 normal\\nsteady flow\\nflow"), labelled);
+        assertTrue(labelled.contains("label=\"#2 sum\\npump \\\"A\\\" regimes\""), labelled);
+        assertTrue(labelled.contains("label=\"#1 normal\\nflow"), labelled);
+    }
+
+    private static String sb(CircuitDocument doc) throws Exception {
+        StringBuilder out = new StringBuilder();
+        DotRenderer.render(CompiledCircuit.compile(doc), RenderOptions.DEFAULT, out, DotRenderer.labelsOf(doc));
+        return out.toString();
+    }
+
+    @Test
+    void render_wholeNumberParameters_printAsIntegers() throws Exception {
+        String json = """
+            {"format": "circa.circuit", "version": "1.0",
+             "variables": [{"name": "c", "type": "count"}, {"name": "v", "type": "categorical", "states": ["a", "b", "c"]}],
+             "nodes": [{"id": 0, "input": "binomial", "var": 0, "trials": 12, "p": 0.5},
+                       {"id": 1, "input": "indicator", "var": 1, "value": 2}, {"id": 2, "product": [0, 1]}],
+             "outputs": [{"name": "joint", "node": 2}]}
+            """;
+        String dot = DotRenderer.render(CompiledCircuit.compile(new CircuitReader().readString(json, "ints.json")), RenderOptions.DEFAULT);
+        assertTrue(dot.contains("trials=12 p=0.500"), dot);
+        assertTrue(dot.contains("value=2\""), dot);
+    }
 }

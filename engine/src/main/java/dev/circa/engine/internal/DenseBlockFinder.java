@@ -184,13 +184,42 @@ public final class DenseBlockFinder {
         int[] partStarts = partStart.toArray();
         int[] groupStarts = groupStart.toArray();
         int[] groupNodes = groupNode.toArray();
+        fuseInputProducts(c, action, refs);
         int[] nodeSlot = new int[n];
         int[] childSlot = new int[ci.length];
         int slotCount = assignSlots(c, action, blockAt, sumStarts, sums, segStarts, partStarts, groupStarts, groupNodes,
                 nodeSlot, childSlot);
         return new DenseBlocks(action, blockAt, sumStarts, sums, maxLogWeight, width.toArray(),
                 weights.toArray(new DMatrixRMaj[0]), segStarts, segOffset.toArray(), segLength.toArray(),
-                partStarts, groupStarts, groupNodes, blockEdges, nodeSlot, childSlot, slotCount);
+                partStarts, groupStarts, groupNodes, blockEdges, nodeSlot, childSlot, slotCount, c);
+    }
+
+    /**
+     * Marks {@link DenseBlocks#FUSED} every product still evaluated by itself whose children are all
+     * univariate inputs read by nothing else (not outputs, each once), and those inputs
+     * {@link DenseBlocks#SKIP}: the product is then the sum of its inputs' log-densities, never stored.
+     */
+    private static void fuseInputProducts(CircuitData c, byte[] action, int[] refs) {
+        final int[] cs = c.childStart;
+        final int[] ci = c.childIndex;
+        for (int i = 0; i < c.nodeCount; i++) {
+            if (c.kind[i] != CircuitData.PRODUCT || action[i] != DenseBlocks.GENERIC || cs[i + 1] == cs[i]) {
+                continue;
+            }
+            boolean ok = true;
+            for (int e = cs[i]; ok && e < cs[i + 1]; e++) {
+                int q = ci[e];
+                int slot = c.inputSlot[q];
+                ok = c.kind[q] == CircuitData.INPUT && refs[q] == 1 && action[q] == DenseBlocks.GENERIC
+                        && c.varStart[slot + 1] - c.varStart[slot] == 1;
+            }
+            if (ok) {
+                action[i] = DenseBlocks.FUSED;
+                for (int e = cs[i]; e < cs[i + 1]; e++) {
+                    action[ci[e]] = DenseBlocks.SKIP;
+                }
+            }
+        }
     }
 
     /**
@@ -227,7 +256,13 @@ public final class DenseBlockFinder {
         int slots = 0;
         for (int i = 0; i < n; i++) {
             byte a = action[i];
-            if (a == DenseBlocks.GENERIC) {
+            if (a == DenseBlocks.FUSED) {
+                nodeSlot[i] = freeCount > 0 ? free[--freeCount] : slots++;
+                if (lastUse[i] == -1) {
+                    free[freeCount++] = nodeSlot[i];
+                    lastUse[i] = -2;
+                }
+            } else if (a == DenseBlocks.GENERIC) {
                 nodeSlot[i] = freeCount > 0 ? free[--freeCount] : slots++;
                 for (int e = cs[i]; e < cs[i + 1]; e++) {
                     childSlot[e] = nodeSlot[ci[e]];

@@ -1,5 +1,6 @@
 package dev.circa.engine.internal;
 
+import dev.circa.engine.family.Families;
 import org.ejml.data.DMatrixRMaj;
 
 /**
@@ -18,7 +19,13 @@ import org.ejml.data.DMatrixRMaj;
  * <p>Per node, {@code action[i]} says how the dense kernel treats it: {@link #GENERIC} (evaluated as
  * usual), {@link #SKIP} (a product used only by its block's sums, never materialised), {@link #BLOCK}
  * (the first sum of block {@code blockAt[i]}: the whole block is evaluated there, after all its parts,
- * which precede its products) or {@link #BLOCK_SUM} (a later sum of a block, already done).
+ * which precede its products), {@link #BLOCK_SUM} (a later sum of a block, already done) or {@link #FUSED}
+ * (a product of univariate inputs that nothing else reads: it is evaluated as the sum of their
+ * log-densities, in child order, and the inputs, marked {@link #SKIP}, are never stored).
+ *
+ * <p>Per input slot, {@code inputLogSd} holds log(sd) of a normal input (NaN for other families), so the
+ * kernel does not take that logarithm per row, and {@code inputMissing} the input's value over a missing
+ * variable (its log total mass).
  *
  * <p>Value slots: the dense kernel keeps a node's values only while a later node still reads them. Node i
  * has slot {@code nodeSlot[i]} (-1 for skipped products), its values at {@code value[slot * rows + r]};
@@ -33,6 +40,7 @@ public final class DenseBlocks {
     public static final byte SKIP = 1;
     public static final byte BLOCK = 2;
     public static final byte BLOCK_SUM = 3;
+    public static final byte FUSED = 4;
 
     public final byte[] action;
     public final int[] blockAt;
@@ -41,6 +49,25 @@ public final class DenseBlocks {
     public final double[] maxLogWeight;
     public final int[] width;
     public final DMatrixRMaj[] weights;
+    /** {@code weights[b]} transposed (n x K, row-major), for one row at a time. */
+    public final double[][] weightsT;
+    public final double[] inputLogSd;
+    /**
+     * The children of the fused products, flat in node and child order: fused product i's child e is entry
+     * {@code fusedBase[i] + e - childStart[i]}, with its input slot, variable, and for a normal its mean,
+     * sd and log sd (NaN for other families), so that one row reads them in sequence.
+     */
+    public final int[] fusedBase;
+    public final int[] fusedSlot;
+    public final int[] fusedVar;
+    public final double[] fusedMean;
+    public final double[] fusedSd;
+    public final double[] fusedLogSd;
+    /** The nodes the kernel visits, in node order: those whose action is GENERIC, FUSED or BLOCK. */
+    public final int[] steps;
+    public final double[] inputMissing;
+    /** Per input slot, its largest log-density (its max-product value over a missing variable). */
+    public final double[] inputMaxMissing;
     public final int[] segStart;
     public final int[] segOffset;
     public final int[] segLength;
@@ -63,7 +90,8 @@ public final class DenseBlocks {
 
     DenseBlocks(byte[] action, int[] blockAt, int[] sumStart, int[] sumNode, double[] maxLogWeight, int[] width,
             DMatrixRMaj[] weights, int[] segStart, int[] segOffset, int[] segLength, int[] partStart,
-            int[] groupStart, int[] groupNode, long blockEdges, int[] nodeSlot, int[] childSlot, int slotCount) {
+            int[] groupStart, int[] groupNode, long blockEdges, int[] nodeSlot, int[] childSlot, int slotCount,
+            CircuitData c) {
         this.action = action;
         this.blockAt = blockAt;
         this.sumStart = sumStart;
@@ -81,6 +109,73 @@ public final class DenseBlocks {
         this.nodeSlot = nodeSlot;
         this.childSlot = childSlot;
         this.slotCount = slotCount;
+        this.weightsT = new double[weights.length][];
+        for (int b = 0; b < weights.length; b++) {
+            int kk = weights[b].numRows;
+            int nn = weights[b].numCols;
+            double[] t = new double[kk * nn];
+            for (int r = 0; r < kk; r++) {
+                for (int j = 0; j < nn; j++) {
+                    t[j * kk + r] = weights[b].data[r * nn + j];
+                }
+            }
+            weightsT[b] = t;
+        }
+        this.fusedBase = new int[action.length];
+        int fusedEdges = 0;
+        for (int i = 0; i < action.length; i++) {
+            fusedBase[i] = -1;
+            if (action[i] == FUSED) {
+                fusedBase[i] = fusedEdges;
+                fusedEdges += c.childStart[i + 1] - c.childStart[i];
+            }
+        }
+        this.fusedSlot = new int[fusedEdges];
+        this.fusedVar = new int[fusedEdges];
+        this.fusedMean = new double[fusedEdges];
+        this.fusedSd = new double[fusedEdges];
+        this.fusedLogSd = new double[fusedEdges];
+        for (int i = 0; i < action.length; i++) {
+            if (action[i] != FUSED) {
+                continue;
+            }
+            for (int e = c.childStart[i]; e < c.childStart[i + 1]; e++) {
+                int f = fusedBase[i] + e - c.childStart[i];
+                int slot = c.inputSlot[c.childIndex[e]];
+                int off = c.paramStart[slot];
+                boolean normal = c.family[slot] == Families.NORMAL;
+                fusedSlot[f] = slot;
+                fusedVar[f] = c.varIndex[c.varStart[slot]];
+                fusedMean[f] = normal ? c.params[off] : Double.NaN;
+                fusedSd[f] = normal ? c.params[off + 1] : Double.NaN;
+                fusedLogSd[f] = normal ? Math.log(c.params[off + 1]) : Double.NaN;
+            }
+        }
+        int stepCount = 0;
+        for (byte a : action) {
+            if (a == GENERIC || a == FUSED || a == BLOCK) {
+                stepCount++;
+            }
+        }
+        this.steps = new int[stepCount];
+        stepCount = 0;
+        for (int i = 0; i < action.length; i++) {
+            if (action[i] == GENERIC || action[i] == FUSED || action[i] == BLOCK) {
+                steps[stepCount++] = i;
+            }
+        }
+        int inputs = c.inputNode.length;
+        this.inputLogSd = new double[inputs];
+        this.inputMissing = new double[inputs];
+        this.inputMaxMissing = new double[inputs];
+        for (int slot = 0; slot < inputs; slot++) {
+            int code = c.family[slot];
+            int off = c.paramStart[slot];
+            int len = c.paramStart[slot + 1] - off;
+            inputLogSd[slot] = code == Families.NORMAL ? Math.log(c.params[off + 1]) : Double.NaN;
+            inputMissing[slot] = code == Families.MVNORMAL ? Double.NaN : Families.logTotalMass(code, c.params, off, len);
+            inputMaxMissing[slot] = code == Families.MVNORMAL ? Double.NaN : Families.maxLogDensity(code, c.params, off, len);
+        }
         this.groupSlot = new int[groupNode.length];
         for (int g = 0; g < groupNode.length; g++) {
             groupSlot[g] = nodeSlot[groupNode[g]];

@@ -1,8 +1,9 @@
 package dev.circa.engine.internal;
 
+import dev.circa.engine.family.Families;
 import dev.circa.engine.family.MvNormalWorkspace;
+import dev.circa.engine.family.SpecialFunctions;
 import org.ejml.data.DMatrixRMaj;
-import org.ejml.dense.row.CommonOps_DDRM;
 
 /**
  * One upward sum-product pass like {@link ForwardKernel#run} (same layout, same results to rounding), with
@@ -13,7 +14,11 @@ import org.ejml.dense.row.CommonOps_DDRM;
  * materialised), times exp(segment maximum - block maximum) when there are several segments; then one
  * matrix product, sums (K x rows) = weights (K x n) times products (n x rows); then
  * value = log(sum) + largest log-weight of the sum + block maximum. So a row costs one exp per part node
- * and K x n multiply-adds instead of one exp per edge.
+ * and K x n multiply-adds instead of one exp per edge. The matrix product sums every entry over j in
+ * order from 0 whatever the number of rows (one row: accumulators in registers, five sums at a time; several: rows in the
+ * innermost loop), so results do not depend on the batch. A {@link DenseBlocks#FUSED} product adds its
+ * inputs' log-densities directly (a normal's log sd taken once per circuit, the same formula as
+ * {@link Families#logDensity}).
  *
  * <p>Exactness: every linear factor is in [0, 1] and the argmax product of a row is exactly 1, so a sum
  * below {@value #TINY} can only come from weights that are tiny where the products are large; such an
@@ -25,6 +30,7 @@ import org.ejml.dense.row.CommonOps_DDRM;
 public final class DenseKernel {
     /** Smallest linear sum taken as exact; below it an entry goes the generic way. */
     static final double TINY = 1e-200;
+    private static final double HALF_LOG_2PI = SpecialFunctions.HALF_LOG_2PI;
 
     private DenseKernel() {
     }
@@ -37,12 +43,63 @@ public final class DenseKernel {
     public static void run(CircuitData c, DenseBlocks blocks, double[] data, int row0, int rows, boolean[] hide,
             double[] value, double[] scratch, MvNormalWorkspace mvn, DenseWorkspace ws) {
         final byte[] action = blocks.action;
-        for (int i = 0; i < c.nodeCount; i++) {
+        final boolean sweep = rows == 1 && hide == null;
+        if (sweep) {
+            inputSweep(c, blocks, data, row0 * c.variableCount, ws.fused);
+        }
+        for (int i : blocks.steps) {
             byte a = action[i];
             if (a == DenseBlocks.GENERIC) {
                 node(c, blocks, i, data, row0, rows, hide, value, scratch, mvn);
+            } else if (a == DenseBlocks.FUSED) {
+                if (sweep) {
+                    value[blocks.nodeSlot[i]] = fusedSum(ws.fused, blocks.fusedBase[i], c.childStart[i + 1] - c.childStart[i]);
+                } else {
+                    fused(c, blocks, i, data, row0, rows, hide, value);
+                }
             } else if (a == DenseBlocks.BLOCK) {
                 block(c, blocks, blocks.blockAt[i], rows, value, ws);
+            }
+        }
+    }
+
+    /**
+     * Max-product pass for the most probable explanation, node-major like {@link ForwardKernel#run} with
+     * {@code max = true} and the same values at every node a backtrack reads: fused products add their
+     * inputs' log-densities (a missing variable: the input's largest) without storing the inputs, whose
+     * entries are left unset; every other node as {@link ForwardKernel#node}.
+     */
+    public static void runMax(CircuitData c, DenseBlocks d, double[] data, int row0, int rows, double[] value,
+            double[] scratch, MvNormalWorkspace mvn) {
+        final byte[] action = d.action;
+        final int nv = c.variableCount;
+        for (int i = 0; i < c.nodeCount; i++) {
+            byte a = action[i];
+            if (a == DenseBlocks.FUSED) {
+                final int base = i * rows;
+                final int f0 = d.fusedBase[i];
+                final int count = c.childStart[i + 1] - c.childStart[i];
+                for (int r = 0; r < rows; r++) {
+                    final int rowBase = (row0 + r) * nv;
+                    double acc = 0;
+                    for (int f = f0; f < f0 + count; f++) {
+                        int slot = d.fusedSlot[f];
+                        double x = data[rowBase + d.fusedVar[f]];
+                        double g;
+                        if (x != x) {
+                            g = d.inputMaxMissing[slot];
+                        } else if (d.fusedSd[f] == d.fusedSd[f]) {
+                            double z = (x - d.fusedMean[f]) / d.fusedSd[f];
+                            g = -0.5 * z * z - d.fusedLogSd[f] - HALF_LOG_2PI;
+                        } else {
+                            g = density(c, slot, x);
+                        }
+                        acc = f == f0 ? g : acc + g;
+                    }
+                    value[base + r] = acc;
+                }
+            } else if (a != DenseBlocks.SKIP || c.kind[i] != CircuitData.INPUT) {
+                ForwardKernel.node(c, i, data, row0, rows, null, true, value, scratch, mvn);
             }
         }
     }
@@ -78,8 +135,128 @@ public final class DenseKernel {
                 }
             }
             ForwardKernel.logSumExp(value, base, rows, s, end, childSlot, logWeight, scratch);
-        } else {
+        } else if (c.family[c.inputSlot[i]] == Families.MVNORMAL) {
             ForwardKernel.input(c, data, row0, rows, hide, false, value, base, c.inputSlot[i], c.variableCount, mvn);
+        } else {
+            input(c, d, c.inputSlot[i], data, row0, rows, hide, value, base, false);
+        }
+    }
+
+    /** A {@link DenseBlocks#FUSED} product: the sum of its inputs' log-densities, in child order. */
+    private static void fused(CircuitData c, DenseBlocks d, int i, double[] data, int row0, int rows, boolean[] hide,
+            double[] value) {
+        final int base = d.nodeSlot[i] * rows;
+        final int s = c.childStart[i];
+        final int end = c.childStart[i + 1];
+        if (rows == 1 && hide == null) {
+            value[base] = fusedRow(c, d, s, end, d.fusedBase[i], data, row0 * c.variableCount);
+            return;
+        }
+        for (int e = s; e < end; e++) {
+            input(c, d, c.inputSlot[c.childIndex[e]], data, row0, rows, hide, value, base, e > s);
+        }
+    }
+
+    /**
+     * One row: every fused product's input log-densities, {@code g[f]} for fused child f, in three loops
+     * (gather the cells; the normal formula over all, which the JIT vectorises; then every entry that is
+     * NaN, i.e. a missing cell or another family, again by itself). The same values as {@link #fusedRow}.
+     */
+    private static void inputSweep(CircuitData c, DenseBlocks d, double[] data, int rowBase, double[] g) {
+        final int[] fVar = d.fusedVar;
+        final double[] fMean = d.fusedMean;
+        final double[] fSd = d.fusedSd;
+        final double[] fLogSd = d.fusedLogSd;
+        final int m = fVar.length;
+        for (int f = 0; f < m; f++) {
+            g[f] = data[rowBase + fVar[f]];
+        }
+        for (int f = 0; f < m; f++) {
+            double z = (g[f] - fMean[f]) / fSd[f];
+            g[f] = -0.5 * z * z - fLogSd[f] - HALF_LOG_2PI;
+        }
+        for (int f = 0; f < m; f++) {
+            if (g[f] != g[f]) {
+                double x = data[rowBase + fVar[f]];
+                int slot = d.fusedSlot[f];
+                g[f] = x != x ? d.inputMissing[slot] : density(c, slot, x);
+            }
+        }
+    }
+
+    /** {@link Families#logDensity} of univariate input {@code slot} at the observed value {@code x}. */
+    private static double density(CircuitData c, int slot, double x) {
+        int off = c.paramStart[slot];
+        return Families.logDensity(c.family[slot], c.params, off, c.paramStart[slot + 1] - off, x);
+    }
+
+    /** The sum of {@code g[f0 .. f0+count-1]} in order, as {@link #fusedRow} adds them. */
+    private static double fusedSum(double[] g, int f0, int count) {
+        double acc = g[f0];
+        for (int f = f0 + 1; f < f0 + count; f++) {
+            acc += g[f];
+        }
+        return acc;
+    }
+
+    /** {@link #fused} at one row: the same sum in the same order. */
+    private static double fusedRow(CircuitData c, DenseBlocks d, int s, int end, int f0, double[] data, int rowBase) {
+        final int[] fVar = d.fusedVar;
+        final double[] fMean = d.fusedMean;
+        final double[] fSd = d.fusedSd;
+        final double[] fLogSd = d.fusedLogSd;
+        double acc = 0;
+        for (int f = f0, last = f0 + end - s; f < last; f++) {
+            double x = data[rowBase + fVar[f]];
+            double sd = fSd[f];
+            double g;
+            if (sd == sd && x == x) {
+                double z = (x - fMean[f]) / sd;
+                g = -0.5 * z * z - fLogSd[f] - HALF_LOG_2PI;
+            } else {
+                int slot = d.fusedSlot[f];
+                g = x != x ? d.inputMissing[slot] : density(c, slot, x);
+            }
+            acc = f == f0 ? g : acc + g;
+        }
+        return acc;
+    }
+
+    /**
+     * The log-density of univariate input {@code slot} at each row, stored at {@code value[base + r]}, or
+     * added to it when {@code add}. Equal to {@link Families#logDensity} (a normal's log(sd) taken once).
+     */
+    private static void input(CircuitData c, DenseBlocks d, int slot, double[] data, int row0, int rows,
+            boolean[] hide, double[] value, int base, boolean add) {
+        final int code = c.family[slot];
+        final int off = c.paramStart[slot];
+        final int len = c.paramStart[slot + 1] - off;
+        final double[] p = c.params;
+        final int nv = c.variableCount;
+        final int v = c.varIndex[c.varStart[slot]];
+        final double missing = d.inputMissing[slot];
+        if (hide != null && hide[v]) {
+            for (int r = 0; r < rows; r++) {
+                value[base + r] = add ? value[base + r] + missing : missing;
+            }
+            return;
+        }
+        if (code == Families.NORMAL) {
+            final double mean = p[off];
+            final double sd = p[off + 1];
+            final double logSd = d.inputLogSd[slot];
+            for (int r = 0; r < rows; r++) {
+                double x = data[(row0 + r) * nv + v];
+                double z = (x - mean) / sd;
+                double f = x != x ? missing : -0.5 * z * z - logSd - HALF_LOG_2PI;
+                value[base + r] = add ? value[base + r] + f : f;
+            }
+            return;
+        }
+        for (int r = 0; r < rows; r++) {
+            double x = data[(row0 + r) * nv + v];
+            double f = x != x ? missing : Families.logDensity(code, p, off, len, x);
+            value[base + r] = add ? value[base + r] + f : f;
         }
     }
 
@@ -169,11 +346,8 @@ public final class DenseKernel {
                 cur *= size;
             }
         }
-        final DMatrixRMaj sums = ws.sums;
-        final DMatrixRMaj weights = d.weights[b];
-        sums.reshape(weights.numRows, rows, false);
-        CommonOps_DDRM.mult(weights, products, sums);
-        final double[] ct = sums.data;
+        final double[] ct = ws.sums.data;
+        multiply(d, b, pt, n, rows, ct);
         final int k0 = d.sumStart[b];
         final int k1 = d.sumStart[b + 1];
         for (int k = k0; k < k1; k++) {
@@ -198,11 +372,113 @@ public final class DenseKernel {
     }
 
     /**
+     * sums (K x rows) = weights (K x n) times products (n x rows). Every entry is the sum over j = 0..n-1,
+     * in that order from 0, of weight(k, j) x product(j, r), whatever the number of rows, so a row's
+     * result does not depend on the rows evaluated with it (bit for bit).
+     */
+    static void multiply(DenseBlocks d, int b, double[] pt, int n, int rows, double[] ct) {
+        final int kk = d.sumStart[b + 1] - d.sumStart[b];
+        final double[] w = d.weights[b].data;
+        if (rows == 1) {
+            int k = 0;
+            for (; k + 5 <= kk; k += 5) {
+                final int w0 = k * n;
+                double a0 = 0;
+                double a1 = 0;
+                double a2 = 0;
+                double a3 = 0;
+                double a4 = 0;
+                for (int j = 0; j < n; j++) {
+                    double pj = pt[j];
+                    a0 += w[w0 + j] * pj;
+                    a1 += w[w0 + n + j] * pj;
+                    a2 += w[w0 + 2 * n + j] * pj;
+                    a3 += w[w0 + 3 * n + j] * pj;
+                    a4 += w[w0 + 4 * n + j] * pj;
+                }
+                ct[k] = a0;
+                ct[k + 1] = a1;
+                ct[k + 2] = a2;
+                ct[k + 3] = a3;
+                ct[k + 4] = a4;
+            }
+            for (; k + 2 <= kk; k += 2) {
+                final int w0 = k * n;
+                double a0 = 0;
+                double a1 = 0;
+                for (int j = 0; j < n; j++) {
+                    double pj = pt[j];
+                    a0 += w[w0 + j] * pj;
+                    a1 += w[w0 + n + j] * pj;
+                }
+                ct[k] = a0;
+                ct[k + 1] = a1;
+            }
+            for (; k < kk; k++) {
+                final int w0 = k * n;
+                double a0 = 0;
+                for (int j = 0; j < n; j++) {
+                    a0 += w[w0 + j] * pt[j];
+                }
+                ct[k] = a0;
+            }
+            return;
+        }
+        int k = 0;
+        for (; k + 4 <= kk; k += 4) {
+            final int c0 = k * rows;
+            final int c1 = c0 + rows;
+            final int c2 = c1 + rows;
+            final int c3 = c2 + rows;
+            for (int r = 0; r < 4 * rows; r++) {
+                ct[c0 + r] = 0;
+            }
+            for (int j = 0; j < n; j++) {
+                double w0 = w[k * n + j];
+                double w1 = w[(k + 1) * n + j];
+                double w2 = w[(k + 2) * n + j];
+                double w3 = w[(k + 3) * n + j];
+                int pb = j * rows;
+                for (int r = 0; r < rows; r++) {
+                    double pv = pt[pb + r];
+                    ct[c0 + r] += w0 * pv;
+                    ct[c1 + r] += w1 * pv;
+                    ct[c2 + r] += w2 * pv;
+                    ct[c3 + r] += w3 * pv;
+                }
+            }
+        }
+        for (; k < kk; k++) {
+            final int c0 = k * rows;
+            for (int r = 0; r < rows; r++) {
+                ct[c0 + r] = 0;
+            }
+            for (int j = 0; j < n; j++) {
+                double w0 = w[k * n + j];
+                int pb = j * rows;
+                for (int r = 0; r < rows; r++) {
+                    ct[c0 + r] += w0 * pt[pb + r];
+                }
+            }
+        }
+    }
+
+    /**
      * Replaces the first {@code cur} product rows at {@code out} by their products with each of the
      * {@code size} rows of {@code e}: row i * size + j = row i times e_j (the new part varies fastest).
      * Works backwards so no row is overwritten before it is read.
      */
     private static void expand(double[] pt, int out, int cur, int size, double[] e, int rows, double[] tmp) {
+        if (rows == 1) {
+            for (int i = cur - 1; i >= 0; i--) {
+                double t = pt[out + i];
+                int dst = out + i * size;
+                for (int j = 0; j < size; j++) {
+                    pt[dst + j] = t * e[j];
+                }
+            }
+            return;
+        }
         for (int i = cur - 1; i >= 0; i--) {
             System.arraycopy(pt, out + i * rows, tmp, 0, rows);
             int dst = out + i * size * rows;

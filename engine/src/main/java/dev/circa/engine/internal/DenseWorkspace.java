@@ -24,6 +24,8 @@ public final class DenseWorkspace {
     final double[] partExp;
     /** One row of products, while a segment is expanded. */
     final double[] row;
+    /** One row's input log-densities of every fused product's children. */
+    final double[] fused;
 
     /** Buffers for {@code blocks} and chunks of up to {@code rows} rows. */
     public DenseWorkspace(DenseBlocks blocks, int rows) {
@@ -36,5 +38,6 @@ public final class DenseWorkspace {
         this.check = new double[rows];
         this.partExp = new double[Math.max(1, blocks.maxPartSize) * rows];
         this.row = new double[rows];
+        this.fused = new double[blocks.fusedVar.length];
     }
 }

@@ -36,10 +36,19 @@ public final class CsvReader implements AutoCloseable {
 
     /** Reads from {@code reader}; {@code file} names it in messages. */
     public CsvReader(Reader reader, String file, ReadLimits limits) {
+        this(reader, file, limits, 1);
+    }
+
+    /**
+     * Reads from {@code reader}, a stretch of a larger file that starts on line {@code firstLine} of
+     * it, so that records and messages carry the lines of the whole file (distributed readers).
+     */
+    public CsvReader(Reader reader, String file, ReadLimits limits, int firstLine) {
         this.in = reader;
         this.file = file;
         this.maxField = limits.maxString();
         this.limits = limits;
+        this.line = firstLine;
     }
 
     /**
@@ -225,7 +234,7 @@ public final class CsvReader implements AutoCloseable {
             if (e.getCause() instanceof FormatException fe) {
                 throw fe;
             }
-            throw new FormatException(file, line, col, null, "cannot be read: " + e.getMessage());
+            throw new FormatException(file, line, col, null, "cannot be read: " + dev.circa.format.io.IoMessages.of(e));
         }
     }
 
@@ -234,7 +243,7 @@ public final class CsvReader implements AutoCloseable {
         try {
             in.close();
         } catch (IOException e) {
-            throw new FormatException(file, 0, 0, null, "cannot be closed: " + e.getMessage());
+            throw new FormatException(file, 0, 0, null, "cannot be closed: " + dev.circa.format.io.IoMessages.of(e));
         }
     }
 }

@@ -5,7 +5,9 @@ import tools.jackson.core.JsonToken;
 
 /**
  * The kinds of circa document, told apart by their {@code format} member (FORMAT.md): a circuit, a
- * region graph or a mixture. YAML files ({@code .yaml}, {@code .yml}) can only be mixtures.
+ * region graph or a mixture. YAML can only be a mixture: a file named {@code .yaml} or {@code .yml},
+ * or any input (standard input, a pipe, a file of another name) whose content does not start as a
+ * JSON object does.
  */
 public enum DocumentKind {
     CIRCUIT("circa.circuit"),
@@ -23,6 +25,26 @@ public enum DocumentKind {
         return format;
     }
 
+    /** Whether the first character of the content, after a byte-order mark and white space, is <code>{</code>. */
+    private static boolean startsAsJson(Path path, ReadLimits limits) throws FormatException {
+        try (java.io.InputStream in = InputFiles.open(path, limits.maxBytes())) {
+            for (int i = 0; i < 4096; i++) {
+                int b = in.read();
+                // white space, NUL (the other half of a UTF-16 or UTF-32 character) and byte-order marks
+                if (b == ' ' || b == '\t' || b == '\r' || b == '\n' || b == 0 || b == 0xEF || b == 0xBB || b == 0xBF
+                        || b == 0xFE || b == 0xFF) {
+                    continue;
+                }
+                return b == '{' || b == '[' || b < 0;
+            }
+            return true;
+        } catch (FormatException e) {
+            throw e;
+        } catch (java.io.IOException e) {
+            throw new FormatException(InputFiles.displayName(path), 0, 0, null, "cannot be read: " + IoMessages.of(e));
+        }
+    }
+
     /**
      * The kind of {@code path}, found by reading its top-level members up to {@code format}.
      *
@@ -33,7 +55,7 @@ public enum DocumentKind {
         if (name.endsWith(".gz")) {
             name = name.substring(0, name.length() - 3);
         }
-        if (name.endsWith(".yaml") || name.endsWith(".yml")) {
+        if (name.endsWith(".yaml") || name.endsWith(".yml") || !startsAsJson(path, limits)) {
             return MIXTURE;
         }
         try (JsonInput in = JsonInput.openJson(path, limits)) {

@@ -386,27 +386,15 @@ public final class JsonInput implements AutoCloseable {
         if (e instanceof StreamConstraintsException) {
             return limitFrom(msg, file, line, col);
         }
-        if (msg.startsWith("Duplicate Object property") || msg.startsWith("Duplicate field")
-                || msg.contains("Duplicate Object property")) {
-            return new FormatException(file, line, col, null,
-                    "duplicate key: " + firstLine(msg) + "; every key may appear once in an object");
+        if (e.getCause() instanceof IOException io) {
+            String m = io.getMessage() == null ? "" : io.getMessage();
+            boolean encoding = io instanceof java.io.CharConversionException || m.contains("UCS-4") || m.contains("UTF-");
+            if (!encoding) {
+                return new FormatException(file, line, col, null, "cannot be read: " + IoMessages.of(io));
+            }
+            msg = m;
         }
-        if (msg.contains("'NaN'") || msg.contains("Infinity'") || msg.contains("ALLOW_NON_NUMERIC_NUMBERS")) {
-            return new FormatException(file, line, col, null,
-                    "NaN and Infinity are not JSON numbers; expected a finite number");
-        }
-        if (msg.startsWith("Unexpected end-of-input")) {
-            return new FormatException(file, line, col, null,
-                    "the input ends before the document is complete (is the file truncated?): " + firstLine(msg));
-        }
-        if (msg.contains("UCS-4")) {
-            return new FormatException(file, line, col, null,
-                    "the text encoding cannot be detected (" + firstLine(msg) + "); expected UTF-8, UTF-16 or UTF-32");
-        }
-        if (e.getCause() instanceof IOException io && !(e.getCause() instanceof java.io.CharConversionException)) {
-            return new FormatException(file, line, col, null, "cannot be read: " + io.getMessage());
-        }
-        return new FormatException(file, line, col, null, "not valid JSON: " + firstLine(msg));
+        return new FormatException(file, line, col, null, ParserMessages.json(msg));
     }
 
     private static FormatException limitFrom(String msg, String file, int line, int col) {
@@ -421,7 +409,10 @@ public final class JsonInput implements AutoCloseable {
         if (lower.contains("string value length") || lower.contains("name length")) {
             return limit(file, line, col, "a string is longer than the limit of " + limit + " characters", ReadLimits.MAX_STRING);
         }
-        return new FormatException(file, line, col, null, "a read limit was hit: " + firstLine(msg));
+        if (lower.contains("document length")) {
+            return limit(file, line, col, "the file is longer than the limit of " + limit + " bytes", ReadLimits.MAX_BYTES);
+        }
+        return new FormatException(file, line, col, null, ParserMessages.json(msg));
     }
 
     private static LimitExceededException limit(String file, int line, int col, String what, String option) {
@@ -433,10 +424,5 @@ public final class JsonInput implements AutoCloseable {
     private static String allowed(String msg) {
         Matcher m = ALLOWED.matcher(msg);
         return m.find() ? m.group(1) : "the configured number of";
-    }
-
-    private static String firstLine(String s) {
-        int i = s.indexOf('\n');
-        return i < 0 ? s : s.substring(0, i);
     }
 }

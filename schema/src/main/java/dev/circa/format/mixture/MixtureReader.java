@@ -10,6 +10,7 @@ import dev.circa.format.VariableType;
 import dev.circa.format.io.DocumentHeader;
 import dev.circa.format.io.FormatException;
 import dev.circa.format.io.InputFiles;
+import dev.circa.format.io.IoMessages;
 import dev.circa.format.io.JsonInput;
 import dev.circa.format.io.LimitExceededException;
 import dev.circa.format.io.ReadLimits;
@@ -158,7 +159,7 @@ public final class MixtureReader {
             if (e instanceof FormatException fe) {
                 throw fe;
             }
-            throw new FormatException(file, 0, 0, null, "cannot be read: " + e.getMessage());
+            throw new FormatException(file, 0, 0, null, "cannot be read: " + IoMessages.of(e));
         }
     }
 

@@ -1,6 +1,7 @@
 package dev.circa.format.mixture;
 
 import dev.circa.format.io.FormatException;
+import dev.circa.format.io.ParserMessages;
 import tools.jackson.core.JacksonException;
 import tools.jackson.core.JsonParser;
 import tools.jackson.core.JsonToken;
@@ -85,7 +86,7 @@ final class YamlGuard extends JsonParserDelegate {
             Mark mark = m.getProblemMark().orElse(m.getContextMark().orElse(null));
             String problem = m.getProblem() == null ? "" : m.getProblem();
             String context = m.getContext();
-            String text = "not valid YAML: " + problem + (context == null ? "" : " (" + context + ")");
+            String text = "not valid YAML: " + ParserMessages.yaml(problem, context);
             if (mark != null) {
                 return new FormatException(file, mark.getLine() + 1, mark.getColumn() + 1, null, text);
             }
@@ -96,7 +97,7 @@ final class YamlGuard extends JsonParserDelegate {
         int nl = msg.indexOf('\n');
         return new FormatException(file, l == null ? 0 : Math.max(0, l.getLineNr()),
                 l == null ? 0 : Math.max(0, l.getColumnNr()), null,
-                "not valid YAML: " + (nl < 0 ? msg : msg.substring(0, nl)));
+                "not valid YAML: " + ParserMessages.yaml(nl < 0 ? msg : msg.substring(0, nl), null));
     }
 
     private StreamReadException fail(FormatException problem) {

@@ -181,7 +181,7 @@ public final class SchemaCatalog {
      * @return the violations, empty when the document conforms; in document order of the schema checks
      */
     public List<SchemaViolation> validate(Kind kind, JsonNode document) {
-        return convert(schemas.get(kind).validate(document), "");
+        return checked(schemas.get(kind), document, "");
     }
 
     /**
@@ -214,11 +214,11 @@ public final class SchemaCatalog {
             return huge;
         }
         Schema kind = kindSchema(node);
-        if (kind != null && kind.validate(node).isEmpty()) {
+        if (kind != null && checked(kind, node, prefix).isEmpty()) {
             return List.of();
         }
         // not valid for its kind (or of no single kind): the whole node schema gives the full account
-        return convert(nodeSchema.validate(node), prefix);
+        return checked(nodeSchema, node, prefix);
     }
 
     /** The sub-schema of the one kind {@code node} names, or {@code null} when it names none or several. */
@@ -312,6 +312,46 @@ public final class SchemaCatalog {
         List<SchemaViolation> out = new ArrayList<>(validate(Kind.CIRCUIT, skeleton));
         out.addAll(nodeViolations);
         return out;
+    }
+
+    /**
+     * Runs {@code schema} on {@code node}; a number the schema library cannot judge (an integral
+     * value beyond the 64-bit range, such as 1e19 where an integer is expected) becomes a violation
+     * at that number instead of an error of the library.
+     */
+    private static List<SchemaViolation> checked(Schema schema, JsonNode node, String prefix) {
+        try {
+            return convert(schema.validate(node), prefix);
+        } catch (RuntimeException e) {
+            List<SchemaViolation> out = new ArrayList<>();
+            java.util.ArrayDeque<Map.Entry<String, JsonNode>> todo = new java.util.ArrayDeque<>();
+            todo.push(Map.entry("", node));
+            while (!todo.isEmpty()) {
+                Map.Entry<String, JsonNode> at = todo.pop();
+                JsonNode n = at.getValue();
+                if (n.isNumber() && !n.canConvertToLong() && (n.isIntegralNumber() || isWhole(n.doubleValue()))) {
+                    out.add(new SchemaViolation(prefix + at.getKey(), "type", "the number " + n.toString()
+                            + " is beyond the range of 64-bit integers; expected a value from -9223372036854775808 to"
+                            + " 9223372036854775807 where an integer is expected"));
+                } else if (n.isObject()) {
+                    for (Map.Entry<String, JsonNode> m : n.properties()) {
+                        todo.push(Map.entry(at.getKey() + "/" + escape(m.getKey()), m.getValue()));
+                    }
+                } else if (n.isArray()) {
+                    for (int i = n.size() - 1; i >= 0; i--) {
+                        todo.push(Map.entry(at.getKey() + "/" + i, n.get(i)));
+                    }
+                }
+            }
+            if (out.isEmpty()) {
+                out.add(new SchemaViolation(prefix, "type", "a value here cannot be checked against the schema"));
+            }
+            return out;
+        }
+    }
+
+    private static boolean isWhole(double d) {
+        return Double.isFinite(d) && d == Math.rint(d);
     }
 
     private static List<SchemaViolation> convert(List<com.networknt.schema.Error> errors, String prefix) {

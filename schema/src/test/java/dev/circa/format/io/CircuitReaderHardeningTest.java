@@ -65,7 +65,7 @@ class CircuitReaderHardeningTest {
         t.add(new Case("only white space", () -> utf8("  \n\t "), d, 1, 1, "", "the file is empty"));
         t.add(new Case("control bytes", () -> new byte[] {0, 1, 2, (byte) 0xff, 7}, d, 1, 1, null, "not valid JSON"));
         t.add(new Case("image header", () -> new byte[] {(byte) 0x89, 'P', 'N', 'G', 13, 10, 26, 10}, d, 1, 2, null,
-                "Invalid UTF-8 start byte 0x89"));
+                "the byte 0x89 cannot start a UTF-8 character"));
         t.add(new Case("top-level array", () -> utf8("[1, 2]"), d, 1, 1, "", "expected a circuit document (a JSON object)"));
         t.add(new Case("content after the document", () -> utf8(HEAD + NORMAL + TAIL + "{}"), d, 7, 1, "",
                 "unexpected content after the end of the document"));
@@ -111,7 +111,7 @@ class CircuitReaderHardeningTest {
             b[a.length] = (byte) 0xC3;
             b[a.length + 1] = (byte) 0x28;
             return b;
-        }, d, 4, 25, null, "Invalid UTF-8 middle byte 0x28"));
+        }, d, 4, 25, null, "the byte 0x28 cannot continue a UTF-8 character"));
         t.add(new Case("mvnormal cov a number", () -> node("{\"id\": 0, \"input\": \"mvnormal\", \"vars\": [0, 1], \"mean\": [1, 2], \"cov\": 5}"),
                 d, 4, 71, "/nodes/0/cov", "needs \"cov\""));
         t.add(new Case("unknown family", () -> node("{\"id\": 0, \"input\": \"gaussian\", \"var\": 0}"), d, 4, 20,

@@ -10,8 +10,8 @@ import java.nio.charset.StandardCharsets;
 
 /**
  * The property every reader test of issue 8 checks: an input yields a model or our own located
- * {@link FormatException}, never another exception or error (StackOverflowError and
- * OutOfMemoryError included).
+ * {@link FormatException} in our own words, never another exception or error (StackOverflowError and
+ * OutOfMemoryError included), nor a library's wording in the message.
  */
 public final class OwnErrors {
     /** A reader under test. */
@@ -19,6 +19,16 @@ public final class OwnErrors {
     public interface Read<T> {
         T read(byte[] input) throws Exception;
     }
+
+    /**
+     * Words and token names of the parsing libraries, the JDK and their exceptions that must never reach
+     * the user (issue 15): each reader translates its libraries' problems into circa's own words.
+     */
+    public static final java.util.List<String> LIBRARY_WORDING = java.util.List.of(
+            "Unexpected character", "CTRL-CHAR", "Duplicate Object", "Duplicate field", "symbol table", "SYMBOL_HASH",
+            "<block", "<scalar>", "<flow", "<stream", "<document", "Exception", "was expecting", "JsonNode", "asLong",
+            "Feature", "Unrecognized", "end-of-input", "ZLIB", "Illegal", "(code ", "while parsing",
+            "while scanning", "Stream closed", "Invalid UTF", "Unmatched argument", "is not a long", "is not an int");
 
     /** A reader of a document kind from a stream, under given limits. */
     @FunctionalInterface
@@ -33,6 +43,19 @@ public final class OwnErrors {
     }
 
     private OwnErrors() {
+    }
+
+    /** The first piece of library wording in {@code message}, or {@code null} when it has none. */
+    public static String libraryWording(String message) {
+        if (message.endsWith(": null") || message.contains(": null;") || message.contains(": null (")) {
+            return ": null";
+        }
+        for (String w : LIBRARY_WORDING) {
+            if (message.contains(w)) {
+                return w;
+            }
+        }
+        return null;
     }
 
     /**
@@ -99,6 +122,11 @@ public final class OwnErrors {
         }
         if (!e.getMessage().startsWith(file + ":")) {
             throw new AssertionError("message does not start with the file: " + e.getMessage(), e);
+        }
+        String words = libraryWording(e.getMessage());
+        if (words != null) {
+            throw new AssertionError("a library's wording (\"" + words + "\") reaches the user: " + e.getMessage()
+                    + " for input " + show(input), e);
         }
         if (e instanceof LimitExceededException le && !e.getMessage().contains(le.option())) {
             throw new AssertionError("a limit message must name its option " + le.option() + ": " + e.getMessage(), e);

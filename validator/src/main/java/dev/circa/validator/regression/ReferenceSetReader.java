@@ -45,6 +45,17 @@ public final class ReferenceSetReader implements AutoCloseable {
      *     {@code log_density}, or a variable whose name is reserved
      */
     public ReferenceSetReader(CsvReader csv, List<Variable> variables, List<String> outputNames) throws FormatException {
+        this(csv, variables, outputNames, 0);
+    }
+
+    /**
+     * Reads the header of {@code csv}, whose data rows follow {@code rowsBefore} rows of the same
+     * reference set read elsewhere (a distributed reader's stretch of the file): rows are numbered from
+     * {@code rowsBefore + 1}.
+     */
+    public ReferenceSetReader(CsvReader csv, List<Variable> variables, List<String> outputNames, long rowsBefore)
+            throws FormatException {
+        this.rows = rowsBefore;
         this.csv = csv;
         this.variables = List.copyOf(variables);
         this.outputNames = List.copyOf(outputNames);

@@ -41,6 +41,7 @@ public final class RegressionCheck {
     private final int[] output;
     private final double[] expected;
     private final long[] lines;
+    private final long[] rowNumbers;
 
     /** A check of {@code circuit} with {@code tolerance} (see {@link Tolerance#resolve}). */
     public RegressionCheck(CompiledCircuit circuit, Tolerance tolerance) {
@@ -59,6 +60,7 @@ public final class RegressionCheck {
         this.output = new int[chunk];
         this.expected = new double[chunk];
         this.lines = new long[chunk];
+        this.rowNumbers = new long[chunk];
     }
 
     /**
@@ -146,15 +148,59 @@ public final class RegressionCheck {
 
     /** Checks every remaining row of {@code reader} (opened over this circuit's variables and outputs). */
     public void checkReference(ReferenceSetReader reader) throws FormatException {
-        int no = circuit.outputCount();
         long first = reader.rowsRead() + 1;
         int rows;
         while ((rows = reader.read(data, output, expected, lines, chunk)) > 0) {
-            evaluator.logDensity(data, rows, out);
             for (int r = 0; r < rows; r++) {
-                report.add(reader.file(), first + r, lines[r], null, output[r], expected[r], out[r * no + output[r]]);
+                rowNumbers[r] = first + r;
             }
+            checkRows(reader.file(), rowNumbers, data, output, expected, lines, rows);
             first += rows;
+        }
+    }
+
+    /** The most rows {@link #checkRows} takes at once. */
+    public int chunkRows() {
+        return chunk;
+    }
+
+    /**
+     * Checks rows already in the engine's layout (for readers of other file forms).
+     *
+     * @param source the file the rows come from, as reports name it
+     * @param rowNumbers input: the 1-based row number of each row in {@code source}
+     * @param rowData input: row-major, {@code rows} x variable count, NaN for missing
+     * @param rowOutput input: the output index of each row
+     * @param rowExpected input: the reference log-density of each row
+     * @param rowLines input: the line of each row in {@code source}, or 0 when the form has no lines
+     * @param rows the number of rows, at most {@link #chunkRows()}
+     */
+    public void checkRows(String source, long[] rowNumbers, double[] rowData, int[] rowOutput, double[] rowExpected,
+                          long[] rowLines, int rows) {
+        if (rows > chunk) {
+            throw new IllegalArgumentException(rows + " rows at once; at most " + chunk);
+        }
+        int no = circuit.outputCount();
+        evaluator.logDensity(rowData, rows, out);
+        for (int r = 0; r < rows; r++) {
+            report.add(source, rowNumbers[r], rowLines[r], null, rowOutput[r], rowExpected[r], out[r * no + rowOutput[r]]);
+        }
+    }
+
+    /**
+     * Adds the reports of checks of disjoint stretches of one source, run elsewhere with this check's
+     * circuit and tolerance (a distributed check): counts and largest errors add up, and the worst
+     * cases are taken in row order, so the result equals one check of the whole source.
+     */
+    public void include(List<CheckReport> parts) {
+        List<CaseResult> candidates = new ArrayList<>();
+        for (CheckReport part : parts) {
+            report.merge(part);
+            candidates.addAll(part.worst());
+        }
+        candidates.sort(java.util.Comparator.comparingLong(CaseResult::row));
+        for (CaseResult c : candidates) {
+            report.offer(c);
         }
     }
 

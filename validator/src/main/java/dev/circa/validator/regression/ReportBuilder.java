@@ -44,13 +44,34 @@ final class ReportBuilder {
         if (worstCount == worst.length && !worse(excess, passed, worst[worstCount - 1])) {
             return;
         }
-        CaseResult c = new CaseResult(source, row, line, pointer, outputNames[output], expected, computed, passed, excess);
+        offer(new CaseResult(source, row, line, pointer, outputNames[output], expected, computed, passed, excess));
+    }
+
+    /** Puts {@code c} among the worst cases when it is worse than the last of a full list (counts untouched). */
+    void offer(CaseResult c) {
+        if (worstCount == worst.length && !worse(c.excess(), c.passed(), worst[worstCount - 1])) {
+            return;
+        }
         int i = worstCount < worst.length ? worstCount++ : worst.length - 1;
-        while (i > 0 && worse(excess, passed, worst[i - 1])) {
+        while (i > 0 && worse(c.excess(), c.passed(), worst[i - 1])) {
             worst[i] = worst[i - 1];
             i--;
         }
         worst[i] = c;
+    }
+
+    /** Adds the counts and largest errors of {@code part}, a report over the same outputs (its worst cases untouched). */
+    void merge(CheckReport part) {
+        for (OutputSummary s : part.outputs()) {
+            int o = java.util.Arrays.asList(outputNames).indexOf(s.output());
+            if (o < 0) {
+                throw new IllegalArgumentException("a partial report names output \"" + s.output() + "\", which this check does not have");
+            }
+            cases[o] += s.cases();
+            failures[o] += s.failures();
+            maxAbs[o] = maxNaN(maxAbs[o], s.maxAbsError());
+            maxRel[o] = maxNaN(maxRel[o], s.maxRelError());
+        }
     }
 
     private static boolean worse(double excess, boolean passed, CaseResult than) {

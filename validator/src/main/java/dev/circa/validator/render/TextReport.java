@@ -1,5 +1,6 @@
 package dev.circa.validator.render;
 
+import dev.circa.format.Counts;
 import dev.circa.validator.CircuitStats;
 import dev.circa.validator.Diagnostic;
 import dev.circa.validator.ExactQueries;
@@ -23,9 +24,9 @@ public final class TextReport {
                 sb.append('\n');
             }
             String file = r.file() == null ? "<input>" : r.file();
-            sb.append(String.format(Locale.ROOT, "%s: %s (%d errors, %d warnings, %d info)%n", file,
-                    r.valid() ? "valid" : "INVALID", r.count(Severity.ERROR), r.count(Severity.WARNING),
-                    r.count(Severity.INFO)));
+            sb.append(String.format(Locale.ROOT, "%s: %s (%s, %s, %d info)%n", file,
+                    r.valid() ? "valid" : "INVALID", Counts.of(r.count(Severity.ERROR), "error"),
+                    Counts.of(r.count(Severity.WARNING), "warning"), r.count(Severity.INFO)));
             for (Diagnostic d : r.diagnostics()) {
                 sb.append("  ").append(d.severity().jsonName()).append(' ').append(d.render()).append('\n');
             }

@@ -15,7 +15,7 @@ public final class UnknownProperty extends Rule {
         for (ReadFinding f : ctx.document().findings()) {
             boolean newer = f.kind() == ReadFinding.Kind.UNKNOWN_PROPERTY_NEWER_MINOR;
             ctx.at(this, newer ? Severity.WARNING : severity(), f.location(),
-                    f.message() + (newer ? "" : "; expected only the members FORMAT.md defines (free-form data goes under \"extensions\")"));
+                    f.message() + (newer ? "" : "; expected only the members the format defines (docs/circuit.md; free-form data goes under \"extensions\")"));
         }
     }
 }

@@ -77,6 +77,38 @@ class RegressionCheckTest {
     }
 
     @Test
+    void include_stretchesCheckedApart_reportEqualsOneCheckOfTheWholeFile() throws Exception {
+        // the reference set split at line boundaries, each stretch read with the lines and rows before it
+        // (as a distributed reader does), the partial reports included in reverse order
+        Path ref = mixtureReference("ref.csv");
+        CircuitDocument rounded = GaussianMixtureFixture.circuit(true);
+        CompiledCircuit c = CompiledCircuit.compile(rounded);
+        List<String> lines = Files.readAllLines(ref);
+        for (Tolerance tol : List.of(new Tolerance(1e-9, 1e-9), new Tolerance(1e-5, 1e-5), new Tolerance(1, 1))) {
+            CheckReport whole = check(rounded, tol, ref);
+            int[] cuts = {0, 2, 57, 58, 190, lines.size()};
+            List<CheckReport> parts = new java.util.ArrayList<>();
+            long rowsBefore = 0;
+            for (int k = 0; k + 1 < cuts.length; k++) {
+                String text = (k == 0 ? "" : lines.get(1) + "\n")
+                        + String.join("\n", lines.subList(Math.max(cuts[k], k == 0 ? 0 : 2), cuts[k + 1])) + "\n";
+                int firstLine = k == 0 ? 1 : Math.max(cuts[k], 2);
+                dev.circa.format.csv.CsvReader csv = new dev.circa.format.csv.CsvReader(new java.io.StringReader(text),
+                        ref.toString(), ReadLimits.DEFAULT, firstLine);
+                RegressionCheck part = new RegressionCheck(c, tol);
+                ReferenceSetReader reader = new ReferenceSetReader(csv, c.variables(), List.of(c.outputName(0)), rowsBefore);
+                part.checkReference(reader);
+                rowsBefore = reader.rowsRead();
+                parts.add(0, part.report());
+            }
+            RegressionCheck merged = new RegressionCheck(c, tol);
+            merged.checkEmbedded(rounded);
+            merged.include(parts);
+            assertEquals(whole.toJson(), merged.report().toJson(), "atol = rtol = " + tol.atol());
+        }
+    }
+
+    @Test
     void checkReference_float32RoundedExport_failsAt1e9PassesAt1e5() throws Exception {
         // common practice: single-precision training code rounds every weight and parameter to float
         Path ref = mixtureReference("ref.csv");

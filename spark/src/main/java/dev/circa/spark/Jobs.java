@@ -1,0 +1,30 @@
+package dev.circa.spark;
+
+import dev.circa.format.io.FormatException;
+import java.util.function.Supplier;
+
+/**
+ * Runs a Spark job and turns a failure caused by the input (a located {@link FormatException} or a
+ * {@link DataValueException} thrown in a task) back into that exception, so that the user sees one
+ * message in circa's words rather than Spark's task report.
+ */
+final class Jobs {
+    private Jobs() {
+    }
+
+    static <T> T run(Supplier<T> job) throws FormatException {
+        try {
+            return job.get();
+        } catch (RuntimeException e) {
+            for (Throwable t = e; t != null; t = t.getCause()) {
+                if (t instanceof FormatException f) {
+                    throw f;
+                }
+                if (t instanceof DataValueException d) {
+                    throw d;
+                }
+            }
+            throw e;
+        }
+    }
+}

@@ -1,0 +1,94 @@
+package dev.circa.spark;
+
+import java.io.Reader;
+import java.util.Iterator;
+import org.apache.spark.sql.Row;
+
+/**
+ * The lines of a partition of a text file (rows of {@code value} and {@code start}, the offset of the
+ * file split they come from) cut into stretches of one split each, each read as one text through a
+ * {@link Reader}, lines joined by a newline. Streams: a stretch holds one line at a time.
+ */
+final class LineStretches {
+    private final Iterator<Row> rows;
+    private Row peeked;
+
+    LineStretches(Iterator<Row> rows) {
+        this.rows = rows;
+        this.peeked = rows.hasNext() ? rows.next() : null;
+    }
+
+    /** Whether another stretch follows. */
+    boolean hasNext() {
+        return peeked != null;
+    }
+
+    /** The split offset of the next stretch. */
+    long start() {
+        return peeked.getLong(1);
+    }
+
+    /**
+     * The next stretch, preceded by {@code prefix} (a header line, or empty); the reader counts the
+     * stretch's lines in {@link Stretch#lines()}.
+     */
+    Stretch next(String prefix) {
+        return new Stretch(start(), prefix);
+    }
+
+    /** One split's lines as text. */
+    final class Stretch extends Reader {
+        private final long start;
+        private String current;
+        private int pos;
+        private long lines;
+        private boolean done;
+
+        private Stretch(long start, String prefix) {
+            this.start = start;
+            this.current = prefix;
+        }
+
+        /** Lines of the file read so far (not counting the prefix). */
+        long lines() {
+            return lines;
+        }
+
+        /** Reads to the end of the stretch. */
+        void drain() {
+            while (advance()) {
+                current = "";
+            }
+        }
+
+        private boolean advance() {
+            if (done || peeked == null || peeked.getLong(1) != start) {
+                done = true;
+                return false;
+            }
+            current = (peeked.isNullAt(0) ? "" : peeked.getString(0)) + "\n";
+            pos = 0;
+            lines++;
+            peeked = rows.hasNext() ? rows.next() : null;
+            return true;
+        }
+
+        @Override
+        public int read(char[] buf, int off, int len) {
+            while (pos >= current.length()) {
+                if (!advance()) {
+                    return -1;
+                }
+            }
+            int n = Math.min(len, current.length() - pos);
+            current.getChars(pos, pos + n, buf, off);
+            pos += n;
+            return n;
+        }
+
+        @Override
+        public void close() {
+            drain();
+        }
+    }
+}
