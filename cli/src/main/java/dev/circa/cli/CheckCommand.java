@@ -44,13 +44,16 @@ final class CheckCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
+    @Mixin
+    CertificateOption certificate;
+
     @picocli.CommandLine.Spec
     picocli.CommandLine.Model.CommandSpec spec;
 
     @Override
     public Integer call() throws FormatException {
         PrintWriter out = spec.commandLine().getOut();
-        LoadedCircuit model = LoadedCircuit.load(circuitFile, read.limits(), spec.commandLine().getErr());
+        LoadedCircuit model = certificate.load(circuitFile, read.limits(), spec.commandLine().getErr());
         Tolerance tol;
         try {
             tol = Tolerance.resolve(model.document().checks(), atol, rtol);

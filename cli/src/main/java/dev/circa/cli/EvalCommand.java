@@ -42,12 +42,15 @@ final class EvalCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
+    @Mixin
+    CertificateOption certificate;
+
     @picocli.CommandLine.Spec
     picocli.CommandLine.Model.CommandSpec spec;
 
     @Override
     public Integer call() throws Exception {
-        LoadedCircuit model = LoadedCircuit.load(circuitFile, read.limits(), spec.commandLine().getErr());
+        LoadedCircuit model = certificate.load(circuitFile, read.limits(), spec.commandLine().getErr());
         CompiledCircuit c = model.circuit();
         int nv = c.variableCount();
         int no = c.outputCount();

@@ -13,6 +13,7 @@ import dev.circa.validator.ExactQueries;
 import dev.circa.validator.Property;
 import dev.circa.validator.ValidationOptions;
 import dev.circa.validator.ValidationReport;
+import dev.circa.validator.Verdict;
 import dev.circa.validator.Validator;
 import java.io.PrintWriter;
 import java.nio.file.Path;
@@ -34,14 +35,25 @@ final class InspectCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
+    @Mixin
+    CertificateOption certificate;
+
     @picocli.CommandLine.Spec
     picocli.CommandLine.Model.CommandSpec spec;
 
     @Override
     public Integer call() throws Exception {
-        CircuitDocument doc = new CircuitReader(read.limits()).read(circuitFile);
-        ValidationReport report = new Validator(ValidationOptions.defaults().withRequire("")
-                .withRule("CheckCaseFailed:off")).validate(doc);
+        CircuitDocument doc;
+        ValidationReport report;
+        if (certificate.given()) {
+            LoadedCircuit l = certificate.load(circuitFile, read.limits(),
+                    dev.circa.model.Requirement.DEFAULT.withProperties(java.util.Set.of()), spec.commandLine().getErr());
+            doc = l.document();
+            report = l.report();
+        } else {
+            doc = new CircuitReader(read.limits()).read(circuitFile);
+            report = new Validator(ValidationOptions.defaults().withRequire("").withRule("CheckCaseFailed:off")).validate(doc);
+        }
         PrintWriter out = spec.commandLine().getOut();
         CircuitStats s = report.stats();
         int inputs = 0;
@@ -78,12 +90,14 @@ final class InspectCommand implements Callable<Integer> {
         for (Property p : Property.values()) {
             out.printf(Locale.ROOT, "    %-24s %s%n", p.optionName(), report.property(p).toString().toLowerCase(Locale.ROOT));
         }
-        out.printf(Locale.ROOT, "  variable tree: %s%n", report.variableTree() == null ? "none (not structured-decomposable)"
-                : report.variableTree().toString());
+        out.printf(Locale.ROOT, "  variable tree: %s%n", report.variableTree() != null ? report.variableTree().toString()
+                : report.property(Property.STRUCTURED_DECOMPOSABLE) == Verdict.TRUE ? "not kept in the certificate"
+                : "none (not structured-decomposable)");
         ExactQueries q = report.exactQueries();
         out.printf(Locale.ROOT, "  exact queries: density %s, marginal %s, conditional %s, mpe %s, sampling %s%n",
                 yes(q.density()), yes(q.marginal()), yes(q.conditional()), yes(q.mpe()), yes(q.sampling()));
-        out.printf(Locale.ROOT, "  diagnostics: %d (run circa validate for them)%n", report.diagnostics().size());
+        out.printf(Locale.ROOT, "  diagnostics: %s%n", certificate.given() ? "not looked for again (certified)"
+                : report.diagnostics().size() + " (run circa validate for them)");
         out.flush();
         return ExitStatus.OK;
     }

@@ -33,6 +33,9 @@ final class NormalizeCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
+    @Mixin
+    CertificateOption certificate;
+
     @picocli.CommandLine.Spec
     picocli.CommandLine.Model.CommandSpec spec;
 
@@ -40,7 +43,7 @@ final class NormalizeCommand implements Callable<Integer> {
     public Integer call() throws IOException {
         AtomicOutput.refuseInputs(output, circuitFile);
         PrintWriter err = spec.commandLine().getErr();
-        LoadedCircuit model = LoadedCircuit.load(circuitFile, read.limits(), err);
+        LoadedCircuit model = certificate.load(circuitFile, read.limits(), err);
         NormalizationResult r;
         try {
             r = Renormalizer.normalize(model.document(), model.circuit());

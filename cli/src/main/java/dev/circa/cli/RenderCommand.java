@@ -40,6 +40,9 @@ final class RenderCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
+    @Mixin
+    CertificateOption certificate;
+
     @picocli.CommandLine.Spec
     picocli.CommandLine.Model.CommandSpec spec;
 
@@ -50,7 +53,7 @@ final class RenderCommand implements Callable<Integer> {
         }
         AtomicOutput.refuseInputs(output, circuitFile);
         PrintWriter err = spec.commandLine().getErr();
-        LoadedCircuit model = LoadedCircuit.load(circuitFile, read.limits(), err);
+        LoadedCircuit model = certificate.load(circuitFile, read.limits(), err);
         RenderOptions options = new RenderOptions(scopes, maxNodes);
         if (DotRenderer.isSummary(model.circuit(), options)) {
             err.println(String.format(Locale.ROOT, "%d nodes is more than --max-render-nodes %d: drawing a summary by scope",

@@ -43,6 +43,9 @@ final class SampleCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
+    @Mixin
+    CertificateOption certificate;
+
     @picocli.CommandLine.Spec
     picocli.CommandLine.Model.CommandSpec spec;
 
@@ -51,7 +54,7 @@ final class SampleCommand implements Callable<Integer> {
         if (count < 0) {
             throw new UsageException("-n must be >= 0, got " + count);
         }
-        LoadedCircuit model = LoadedCircuit.load(circuitFile, read.limits(), spec.commandLine().getErr());
+        LoadedCircuit model = certificate.load(circuitFile, read.limits(), spec.commandLine().getErr());
         CompiledCircuit c = model.circuit();
         int outIndex = OutputChoice.index(c, outputName);
         List<Variable> vars = c.variables();

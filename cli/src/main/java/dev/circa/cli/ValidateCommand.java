@@ -57,6 +57,9 @@ final class ValidateCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
+    @Mixin
+    CertificateOption certificate;
+
     @picocli.CommandLine.Spec
     picocli.CommandLine.Model.CommandSpec spec;
 
@@ -79,6 +82,11 @@ final class ValidateCommand implements Callable<Integer> {
         }
         PrintWriter out = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
+        if (certificate.given()) {
+            boolean asked = spec.commandLine().getParseResult().hasMatchedOption("--require");
+            return certificate.verify(files, read.limits(), asked ? dev.circa.model.Requirement.parse(require)
+                    .withTolerance(tolerance) : null, out);
+        }
         List<ValidationReport> reports = new ArrayList<>();
         int status = 0;
         for (Path f : files) {

@@ -37,13 +37,18 @@ public final class CertificateCheck {
      * @param file the circuit file
      * @param certificate its certificate
      * @param limits read limits for the certificate
+     * @param required what the certificate must prove, or {@code null} to leave that unchecked
      * @return the certificate, intact and matching the file
      * @throws ModelException when either cannot be read, or a {@link CertificateMismatchException}
      */
-    public static Certificate verify(Path file, Path certificate, ReadLimits limits) throws ModelException {
+    public static Certificate verify(Path file, Path certificate, ReadLimits limits, Requirement required)
+            throws ModelException {
         Certificate cert = read(certificate, limits);
         String certName = InputFiles.displayName(certificate);
         checkSeal(cert, certName);
+        if (required != null) {
+            checkCovers(cert, required, certName);
+        }
         String name = InputFiles.displayName(file);
         DigestingInputStream d;
         try {

@@ -155,7 +155,7 @@ class CertificateTest {
                 () -> Model.loader().load(model, cert));
         assertEquals(Reason.CONTENT_CHANGED, e.reason());
         assertTrue(e.getMessage().contains("changed after certification"), e.getMessage());
-        assertThrows(CertificateMismatchException.class, () -> CertificateCheck.verify(model, cert, ReadLimits.DEFAULT));
+        assertThrows(CertificateMismatchException.class, () -> CertificateCheck.verify(model, cert, ReadLimits.DEFAULT, null));
     }
 
     @Test
@@ -214,6 +214,6 @@ class CertificateTest {
         MessageDigest seen = MessageDigest.getInstance("SHA-256");
         Model.loader().withReadHook((stored, source) -> new java.security.DigestInputStream(stored, seen)).load(model, cert);
         assertEquals(sha256(model), new CertificateReader().read(cert).model().sha256());
-        assertEquals(CertificateCheck.verify(model, cert, ReadLimits.DEFAULT).model().sha256(), sha256(model));
+        assertEquals(CertificateCheck.verify(model, cert, ReadLimits.DEFAULT, null).model().sha256(), sha256(model));
     }
 }
