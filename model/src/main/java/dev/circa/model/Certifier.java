@@ -69,7 +69,7 @@ public final class Certifier {
         DigestingInputStream d = ModelLoader.openDigested(model);
         CircuitDocument doc;
         try {
-            doc = loader.parse(d, name, ModelLoader.isGzip(model));
+            doc = loader.read(d, name, ModelLoader.isGzip(model));
         } catch (ModelException e) {
             d.abort();
             throw e;

@@ -13,7 +13,13 @@ import java.util.Map;
  *     deterministic; otherwise a lower bound that need not be the most probable
  */
 public record Imputation(Map<String, Object> values, double logValue, boolean exact) {
-    /** Copies the values, which keep their order. */
+    /**
+     * Copies the values, which keep their order.
+     *
+     * @param values every variable by name
+     * @param logValue the max-product value of the output
+     * @param exact whether this is the exact MPE
+     */
     public Imputation {
         values = java.util.Collections.unmodifiableMap(new java.util.LinkedHashMap<>(values));
     }

@@ -7,7 +7,6 @@ import dev.circa.format.io.CircuitReader;
 import dev.circa.format.io.FormatException;
 import dev.circa.format.io.InputFiles;
 import dev.circa.format.io.ReadLimits;
-import dev.circa.validator.ValidationReport;
 import dev.circa.validator.Validator;
 import java.io.IOException;
 import java.io.InputStream;
@@ -112,15 +111,7 @@ public final class ModelLoader {
      * @throws ModelException when the file cannot be read, or the circuit is not proven fit to serve
      */
     public Model load(Path file) throws ModelException {
-        String name = InputFiles.displayName(file);
-        InputStream stored;
-        try {
-            stored = InputFiles.openStored(file);
-        } catch (FormatException e) {
-            throw ModelException.unreadable(e);
-        }
-        Path fileName = file.getFileName();
-        return read(stored, name, fileName != null && InputFiles.isGzipName(fileName.toString()));
+        return accept(check(file));
     }
 
     /**
@@ -133,7 +124,40 @@ public final class ModelLoader {
      * @throws ModelException when the input cannot be read, or the circuit is not proven fit to serve
      */
     public Model load(InputStream in, String source) throws ModelException {
-        return read(in, source, InputFiles.isGzipName(source));
+        return accept(check(in, source));
+    }
+
+    /**
+     * Reads and validates the circuit file {@code file} as {@link #load(Path)} does, without refusing it
+     * when the validator finds errors and without compiling it: for tools that describe a circuit.
+     *
+     * @param file the circuit file
+     * @return the document and the validator's report
+     * @throws ModelException when the file cannot be read
+     */
+    public CheckedCircuit check(Path file) throws ModelException {
+        String name = InputFiles.displayName(file);
+        InputStream stored;
+        try {
+            stored = InputFiles.openStored(file);
+        } catch (FormatException e) {
+            throw ModelException.unreadable(e);
+        }
+        Path fileName = file.getFileName();
+        return validate(name, read(stored, name, fileName != null && InputFiles.isGzipName(fileName.toString())));
+    }
+
+    /**
+     * Reads and validates a circuit from {@code in} as {@link #load(InputStream, String)} does, without
+     * refusing it when the validator finds errors and without compiling it.
+     *
+     * @param in input: the circuit's bytes as stored
+     * @param source the name of the input in messages
+     * @return the document and the validator's report
+     * @throws ModelException when the input cannot be read
+     */
+    public CheckedCircuit check(InputStream in, String source) throws ModelException {
+        return validate(source, read(in, source, InputFiles.isGzipName(source)));
     }
 
     /**
@@ -145,7 +169,7 @@ public final class ModelLoader {
      * @throws ModelException when the circuit is not proven fit to serve
      */
     public Model load(CircuitDocument doc) throws ModelException {
-        return accept(doc.source() == null ? "<document>" : doc.source(), doc);
+        return accept(validate(doc.source() == null ? "<document>" : doc.source(), doc));
     }
 
     /**
@@ -168,7 +192,7 @@ public final class ModelLoader {
         DigestingInputStream d = openDigested(file);
         CircuitDocument doc;
         try {
-            doc = parse(d, name, isGzip(file));
+            doc = read(d, name, isGzip(file));
         } catch (ModelException e) {
             try {
                 d.finish(cert.model().bytes());
@@ -203,12 +227,8 @@ public final class ModelLoader {
         return fileName != null && InputFiles.isGzipName(fileName.toString());
     }
 
-    private Model read(InputStream stored, String name, boolean gzip) throws ModelException {
-        return accept(name, parse(stored, name, gzip));
-    }
-
     /** Reads a circuit from its stored bytes under the limits and the hook; closes {@code stored}. */
-    CircuitDocument parse(InputStream stored, String name, boolean gzip) throws ModelException {
+    CircuitDocument read(InputStream stored, String name, boolean gzip) throws ModelException {
         CircuitDocument doc;
         InputStream observed = stored;
         try {
@@ -226,12 +246,16 @@ public final class ModelLoader {
         return doc;
     }
 
-    private Model accept(String name, CircuitDocument doc) throws ModelException {
-        ValidationReport report = new Validator(requirement.validationOptions()).validate(doc);
-        if (!report.valid()) {
-            throw ModelException.invalid(name, report, requirement);
+    private CheckedCircuit validate(String name, CircuitDocument doc) {
+        return new CheckedCircuit(name, doc, new Validator(requirement.validationOptions()).validate(doc));
+    }
+
+    private Model accept(CheckedCircuit checked) throws ModelException {
+        if (!checked.fit()) {
+            throw ModelException.invalid(checked.source(), checked.report(), requirement);
         }
-        return new Model(name, doc, report, compile(name, doc), requirement);
+        return new Model(checked.source(), checked.document(), checked.report(),
+                compile(checked.source(), checked.document()), requirement);
     }
 
     static CompiledCircuit compile(String name, CircuitDocument doc) throws ModelException {

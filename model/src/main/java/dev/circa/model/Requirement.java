@@ -37,6 +37,10 @@ public record Requirement(Set<Property> properties, double tolerance, int maxEnu
     /**
      * Checks and copies the fields.
      *
+     * @param properties the properties that must be proven true
+     * @param tolerance the bound on normalisation errors
+     * @param maxEnumeration the largest number of assignments enumerated per sum
+     * @param embeddedChecks whether the embedded check cases must pass
      * @throws IllegalArgumentException when the tolerance is negative or not finite, or the bound below 1
      */
     public Requirement {

@@ -3,6 +3,7 @@ package dev.circa.model;
 import java.io.ByteArrayInputStream;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
+import org.apache.commons.math3.distribution.NormalDistribution;
 
 /** Paths of the repository's fixtures and small circuits written inline for the tests. */
 final class Fixtures {
@@ -14,6 +15,18 @@ final class Fixtures {
     static final double SCIPY_MARGINAL = -2.1428574782131147;
 
     private Fixtures() {
+    }
+
+    /**
+     * p(x, valve = state), or p(x) for state -1, of the example circuit by hand from commons-math3 3.6.1
+     * normal densities and the example's weights and probabilities.
+     */
+    static double exampleDensity(double x, int state) {
+        double a = new NormalDistribution(3.1, 0.2).density(x);
+        double b = new NormalDistribution(2.2, 0.5).density(x);
+        double[] pa = {0.05, 0.15, 0.80};
+        double[] pb = {0.6, 0.3, 0.1};
+        return state < 0 ? 0.85 * a + 0.15 * b : 0.85 * a * pa[state] + 0.15 * b * pb[state];
     }
 
     /** Loads a circuit given as JSON text through the stream entry point. */

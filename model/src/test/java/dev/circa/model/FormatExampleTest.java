@@ -23,15 +23,6 @@ class FormatExampleTest {
         model = Model.load(Fixtures.PUMP_STATION);
     }
 
-    /** p(x) and p(x, valve = state) of the example by hand from commons-math3 normal densities. */
-    private static double density(double x, int state) {
-        double a = new NormalDistribution(3.1, 0.2).density(x);
-        double b = new NormalDistribution(2.2, 0.5).density(x);
-        double[] pa = {0.05, 0.15, 0.80};
-        double[] pb = {0.6, 0.3, 0.1};
-        return state < 0 ? 0.85 * a + 0.15 * b : 0.85 * a * pa[state] + 0.15 * b * pb[state];
-    }
-
     @Test
     void logDensity_mapByLabel_equalsScipyValue() {
         // source: FORMAT.md, SciPy 1.10
@@ -86,7 +77,7 @@ class FormatExampleTest {
     void conditional_valveGivenPressure_equalsRatioOfCommonsMathDensities() {
         // source: commons-math3 3.6.1 NormalDistribution densities, weighted as in the example circuit
         for (int state = 0; state < 3; state++) {
-            double expected = Math.log(density(3.0, state) / density(3.0, -1));
+            double expected = Math.log(Fixtures.exampleDensity(3.0, state) / Fixtures.exampleDensity(3.0, -1));
             assertEquals(expected, model.conditional(Map.of("valve", state), Map.of("inlet_pressure", 3.0)), TOL);
             Row query = model.newRow().set("valve", (double) state);
             Row evidence = model.newRow().set("inlet_pressure", 3.0);
@@ -96,13 +87,13 @@ class FormatExampleTest {
         model.encode(Map.of("inlet_pressure", 3.0, "valve", "half"), data, 0);
         double[] out = new double[1];
         model.conditional(data, 1, model.evidenceMask("inlet_pressure"), out);
-        assertEquals(Math.log(density(3.0, 1) / density(3.0, -1)), out[0], TOL);
+        assertEquals(Math.log(Fixtures.exampleDensity(3.0, 1) / Fixtures.exampleDensity(3.0, -1)), out[0], TOL);
     }
 
     @Test
     void conditional_pressureGivenValve_equalsCommonsMathMixture() {
         // source: commons-math3 3.6.1; p(x | open) = p(x, open) / p(open), p(open) = 0.85 * 0.8 + 0.15 * 0.1
-        double expected = Math.log(density(2.7, 2) / (0.85 * 0.8 + 0.15 * 0.1));
+        double expected = Math.log(Fixtures.exampleDensity(2.7, 2) / (0.85 * 0.8 + 0.15 * 0.1));
         assertEquals(expected, model.conditional(Map.of("inlet_pressure", 2.7), Map.of("valve", "open")), TOL);
     }
 

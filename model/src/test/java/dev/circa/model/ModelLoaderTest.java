@@ -130,6 +130,17 @@ class ModelLoaderTest {
     }
 
     @Test
+    void check_notDecomposable_reportWithoutRefusal() throws Exception {
+        CheckedCircuit c = Model.loader().check(new ByteArrayInputStream(NOT_DECOMPOSABLE.getBytes(StandardCharsets.UTF_8)),
+                "inline.json");
+        assertFalse(c.fit());
+        assertEquals("inline.json", c.source());
+        assertEquals(3, c.document().nodes().size());
+        assertTrue(c.report().diagnostics().stream().map(Diagnostic::code).anyMatch("ProductScopesOverlap"::equals));
+        assertTrue(Model.loader().check(Fixtures.PUMP_STATION).fit());
+    }
+
+    @Test
     void load_noPropertyRequired_acceptsNotDecomposable() throws Exception {
         Model m = Fixtures.load(Model.loader().withRequirement(Requirement.parse("")), NOT_DECOMPOSABLE);
         assertTrue(m.requirement().properties().isEmpty());

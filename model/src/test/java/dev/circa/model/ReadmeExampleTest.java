@@ -18,7 +18,6 @@ import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import javax.tools.JavaCompiler;
 import javax.tools.ToolProvider;
-import org.apache.commons.math3.distribution.NormalDistribution;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -40,15 +39,6 @@ class ReadmeExampleTest {
         Matcher m = Pattern.compile("```java\n(.*?)```", Pattern.DOTALL).matcher(body);
         assertTrue(m.find(), "the section has a ```java block");
         return m.group(1);
-    }
-
-    /** p(x, state) or p(x) of the example circuit from commons-math3 normal densities. */
-    private static double density(double x, int state) {
-        double a = new NormalDistribution(3.1, 0.2).density(x);
-        double b = new NormalDistribution(2.2, 0.5).density(x);
-        double[] pa = {0.05, 0.15, 0.80};
-        double[] pb = {0.6, 0.3, 0.1};
-        return state < 0 ? 0.85 * a + 0.15 * b : 0.85 * a * pa[state] + 0.15 * b * pb[state];
     }
 
     @Test
@@ -86,10 +76,10 @@ class ReadmeExampleTest {
         assertEquals(Fixtures.SCIPY_FULL, numbers.get(0), 1e-12);
         assertEquals(Fixtures.SCIPY_MARGINAL, numbers.get(1), 1e-12);
         // source: commons-math3 3.6.1 NormalDistribution, weighted as in the example circuit
-        assertEquals(Math.log(density(3.0, 2) / density(3.0, -1)), numbers.get(2), 1e-12);
+        assertEquals(Math.log(Fixtures.exampleDensity(3.0, 2) / Fixtures.exampleDensity(3.0, -1)), numbers.get(2), 1e-12);
         double[] pressures = {2.0, 2.5, 3.0, 3.5};
         for (int r = 0; r < 4; r++) {
-            assertEquals(Math.log(density(pressures[r], 1)), numbers.get(3 + r), 1e-12, lines.get(3 + r));
+            assertEquals(Math.log(Fixtures.exampleDensity(pressures[r], 1)), numbers.get(3 + r), 1e-12, lines.get(3 + r));
         }
     }
 }
