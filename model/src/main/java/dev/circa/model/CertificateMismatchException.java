@@ -22,6 +22,7 @@ public final class CertificateMismatchException extends ModelException {
         CONTENT_CHANGED
     }
 
+    /** Why the certificate was refused. */
     private final Reason reason;
 
     CertificateMismatchException(String file, Reason reason, String problem, Throwable cause) {

@@ -18,6 +18,12 @@ public record Certification(Certificate certificate, ValidationReport report, Ch
         List<CheckReport> references, List<String> failures) {
     /**
      * Copies the lists.
+     *
+     * @param certificate the sealed certificate, or {@code null} when something failed
+     * @param report the validator's report of the model
+     * @param checks the embedded check cases' report, or {@code null} when validation already failed
+     * @param references one report per reference set run, in the order given
+     * @param failures what failed, one sentence each; empty when the certificate was made
      */
     public Certification {
         references = List.copyOf(references);
