@@ -5,6 +5,7 @@ import dev.circa.validator.regression.CheckReport;
 import dev.circa.validator.regression.RegressionCheck;
 import dev.circa.validator.regression.Tolerance;
 import java.io.PrintWriter;
+import dev.circa.model.Model;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -23,9 +24,6 @@ import picocli.CommandLine.Parameters;
             "when the circuit computes -inf. Prints the cases, failures, largest errors",
             "and the worst 10 cases with their rows. Exit status 1 when any case fails."})
 final class CheckCommand implements Callable<Integer> {
-    /** Report forms. */
-    enum Format { text, json }
-
     @Parameters(index = "0", paramLabel = "CIRCUIT", description = "The circuit file (.json or .json.gz).")
     Path circuitFile;
 
@@ -38,8 +36,8 @@ final class CheckCommand implements Callable<Integer> {
     @Option(names = "--rtol", paramLabel = "R", description = "Relative tolerance (default: the file's checks value, else 1e-9).")
     Double rtol;
 
-    @Option(names = "--format", paramLabel = "FORMAT", description = "text (default) or json.")
-    Format format = Format.text;
+    @Mixin
+    TextOrJson format;
 
     @Mixin
     ReadOptions read;
@@ -47,13 +45,10 @@ final class CheckCommand implements Callable<Integer> {
     @Mixin
     CertificateOption certificate;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws FormatException {
-        PrintWriter out = spec.commandLine().getOut();
-        LoadedCircuit model = certificate.load(circuitFile, read.limits(), spec.commandLine().getErr());
+        PrintWriter out = read.out();
+        Model model = certificate.load(read, circuitFile);
         Tolerance tol;
         try {
             tol = Tolerance.resolve(model.document().checks(), atol, rtol);
@@ -70,7 +65,7 @@ final class CheckCommand implements Callable<Integer> {
             throw new UsageException("nothing to check: " + circuitFile + " has no embedded checks"
                     + (references.isEmpty() ? " and no --reference was given" : " and the reference sets have no rows"));
         }
-        out.print(format == Format.json ? report.toJson() : report.toText());
+        out.print(format.json() ? report.toJson() : report.toText());
         out.flush();
         return report.passed() ? ExitStatus.OK : ExitStatus.FAILED;
     }

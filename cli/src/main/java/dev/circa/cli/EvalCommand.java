@@ -1,13 +1,9 @@
 package dev.circa.cli;
 
 import dev.circa.engine.CompiledCircuit;
-import dev.circa.engine.Evaluator;
 import dev.circa.format.csv.CellValues;
 import dev.circa.format.csv.CsvReader;
-import dev.circa.format.io.AtomicOutput;
-import java.io.BufferedWriter;
-import java.io.OutputStreamWriter;
-import java.nio.charset.StandardCharsets;
+import dev.circa.model.Model;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
@@ -30,14 +26,14 @@ final class EvalCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "CIRCUIT", description = "The circuit file (.json or .json.gz).")
     Path circuitFile;
 
-    @Option(names = "--data", required = true, paramLabel = "DATA.csv", description = "The data rows.")
-    Path dataFile;
+    @Mixin
+    DataOption data;
 
     @Option(names = "--given", split = ",", paramLabel = "COLS", description = "Columns to condition on (comma-separated).")
     List<String> given = new ArrayList<>();
 
-    @Option(names = {"-o", "--output"}, paramLabel = "OUT.csv", description = "Output file (default: standard output).")
-    Path output = Path.of("-");
+    @Mixin
+    CsvOutput output;
 
     @Mixin
     ReadOptions read;
@@ -45,35 +41,29 @@ final class EvalCommand implements Callable<Integer> {
     @Mixin
     CertificateOption certificate;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws Exception {
-        LoadedCircuit model = certificate.load(circuitFile, read.limits(), spec.commandLine().getErr());
+        Model model = certificate.load(read, circuitFile);
         CompiledCircuit c = model.circuit();
         int nv = c.variableCount();
         int no = c.outputCount();
-        try (CsvReader csv = CsvReader.open(dataFile, read.limits())) {
+        try (CsvReader csv = CsvReader.open(data.file, read.limits())) {
             DataColumns cols = DataColumns.readHeader(csv, c.variables());
             boolean[] givenMask = new boolean[nv];
             for (String g : given) {
                 int col = cols.columnOf(g.strip());
                 if (col < 0) {
-                    throw new UsageException("--given names \"" + g + "\", which is not a column of " + dataFile);
+                    throw new UsageException("--given names \"" + g + "\", which is not a column of " + data.file);
                 }
                 givenMask[cols.variableOf(col)] = true;
             }
             String[] header = cols.header();
-            AtomicOutput.write(output, stream -> {
-                BufferedWriter w = new BufferedWriter(new OutputStreamWriter(stream, StandardCharsets.UTF_8));
-                CsvOut out = new CsvOut(w);
+            output.write(out -> {
                 String[] names = Arrays.copyOf(header, header.length + no);
                 for (int o = 0; o < no; o++) {
                     names[header.length + o] = no == 1 ? "log_density" : "log_density:" + c.outputName(o);
                 }
                 out.record(names);
-                Evaluator ev = new Evaluator(c);
                 double[] data = new double[CHUNK * nv];
                 double[] result = new double[CHUNK * no];
                 String[][] cells = new String[CHUNK][header.length];
@@ -81,9 +71,9 @@ final class EvalCommand implements Callable<Integer> {
                 int rows;
                 while ((rows = cols.readRows(data, cells, CHUNK)) > 0) {
                     if (given.isEmpty()) {
-                        ev.logDensity(data, rows, result);
+                        model.logDensity(data, rows, result);
                     } else {
-                        ev.conditional(data, rows, givenMask, result);
+                        model.conditional(data, rows, givenMask, result);
                     }
                     for (int r = 0; r < rows; r++) {
                         System.arraycopy(cells[r], 0, line, 0, header.length);
@@ -93,8 +83,7 @@ final class EvalCommand implements Callable<Integer> {
                         out.record(line);
                     }
                 }
-                out.flush();
-            }, circuitFile, dataFile);
+            }, circuitFile, data.file);
         }
         return ExitStatus.OK;
     }

@@ -1,13 +1,9 @@
 package dev.circa.cli;
 
 import dev.circa.engine.CompiledCircuit;
-import dev.circa.engine.Evaluator;
 import dev.circa.format.csv.CellValues;
 import dev.circa.format.csv.CsvReader;
-import dev.circa.format.io.AtomicOutput;
-import java.io.BufferedWriter;
-import java.io.OutputStreamWriter;
-import java.nio.charset.StandardCharsets;
+import dev.circa.model.Model;
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import picocli.CommandLine.Command;
@@ -26,14 +22,14 @@ final class ImputeCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "CIRCUIT", description = "The circuit file.")
     Path circuitFile;
 
-    @Option(names = "--data", required = true, paramLabel = "DATA.csv", description = "The data rows.")
-    Path dataFile;
+    @Mixin
+    DataOption data;
 
     @Option(names = "--output-name", paramLabel = "NAME", description = "The circuit output to use (default: the first).")
     String outputName;
 
-    @Option(names = {"-o", "--output"}, paramLabel = "OUT.csv", description = "Output file (default: standard output).")
-    Path output = Path.of("-");
+    @Mixin
+    CsvOutput output;
 
     @Mixin
     ReadOptions read;
@@ -41,23 +37,17 @@ final class ImputeCommand implements Callable<Integer> {
     @Mixin
     CertificateOption certificate;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws Exception {
-        LoadedCircuit model = certificate.load(circuitFile, read.limits(), spec.commandLine().getErr());
+        Model model = certificate.load(read, circuitFile);
         CompiledCircuit c = model.circuit();
         int outIndex = OutputChoice.index(c, outputName);
         int nv = c.variableCount();
-        try (CsvReader csv = CsvReader.open(dataFile, read.limits())) {
+        try (CsvReader csv = CsvReader.open(data.file, read.limits())) {
             DataColumns cols = DataColumns.readHeader(csv, c.variables());
             String[] header = cols.header();
-            AtomicOutput.write(output, stream -> {
-                BufferedWriter w = new BufferedWriter(new OutputStreamWriter(stream, StandardCharsets.UTF_8));
-                CsvOut out = new CsvOut(w);
+            output.write(out -> {
                 out.record(header);
-                Evaluator ev = new Evaluator(c);
                 double[] data = new double[CHUNK * nv];
                 double[] filled = new double[CHUNK * nv];
                 double[] logValue = new double[CHUNK];
@@ -65,7 +55,7 @@ final class ImputeCommand implements Callable<Integer> {
                 String[] line = new String[header.length];
                 int rows;
                 while ((rows = cols.readRows(data, cells, CHUNK)) > 0) {
-                    ev.mpe(data, rows, outIndex, filled, logValue);
+                    model.impute(data, rows, outIndex, filled, logValue);
                     for (int r = 0; r < rows; r++) {
                         for (int col = 0; col < header.length; col++) {
                             int v = cols.variableOf(col);
@@ -75,10 +65,9 @@ final class ImputeCommand implements Callable<Integer> {
                         out.record(line);
                     }
                 }
-                out.flush();
-            }, circuitFile, dataFile);
+            }, circuitFile, data.file);
         }
-        spec.commandLine().getErr().println(model.deterministic()
+        read.err().println(model.mpeExact()
                 ? "circa impute: exact (the circuit is deterministic, so max-product gives the most probable explanation)"
                 : "circa impute: approximate (the circuit is not proven deterministic; max-product gives a lower bound "
                         + "of the most probable explanation, not necessarily the exact one)");

@@ -7,14 +7,14 @@ import dev.circa.format.Node;
 import dev.circa.format.Output;
 import dev.circa.format.ProductNode;
 import dev.circa.format.SumNode;
-import dev.circa.format.io.CircuitReader;
 import dev.circa.validator.CircuitStats;
 import dev.circa.validator.ExactQueries;
 import dev.circa.validator.Property;
-import dev.circa.validator.ValidationOptions;
+import dev.circa.model.CheckedCircuit;
+import dev.circa.model.Requirement;
 import dev.circa.validator.ValidationReport;
+import dev.circa.model.Model;
 import dev.circa.validator.Verdict;
-import dev.circa.validator.Validator;
 import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.EnumMap;
@@ -38,23 +38,21 @@ final class InspectCommand implements Callable<Integer> {
     @Mixin
     CertificateOption certificate;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws Exception {
+        // described whatever its verdict: read and validated by the model API's loader, nothing required
         CircuitDocument doc;
         ValidationReport report;
         if (certificate.given()) {
-            LoadedCircuit l = certificate.load(circuitFile, read.limits(),
-                    dev.circa.model.Requirement.DEFAULT.withProperties(java.util.Set.of()), spec.commandLine().getErr());
-            doc = l.document();
-            report = l.report();
+            Model m = certificate.certified(read, circuitFile, Requirement.parse(""));
+            doc = m.document();
+            report = CertificateOption.reportWithLogZ(m);
         } else {
-            doc = new CircuitReader(read.limits()).read(circuitFile);
-            report = new Validator(ValidationOptions.defaults().withRequire("").withRule("CheckCaseFailed:off")).validate(doc);
+            CheckedCircuit checked = read.loader().withRequirement(Requirement.parse("")).check(circuitFile);
+            doc = checked.document();
+            report = checked.report();
         }
-        PrintWriter out = spec.commandLine().getOut();
+        PrintWriter out = read.out();
         CircuitStats s = report.stats();
         int inputs = 0;
         int products = 0;

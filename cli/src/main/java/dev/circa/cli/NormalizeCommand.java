@@ -8,6 +8,7 @@ import dev.circa.format.io.CircuitWriter;
 import dev.circa.format.io.FormatException;
 import java.io.IOException;
 import java.io.PrintWriter;
+import dev.circa.model.Model;
 import java.nio.file.Path;
 import java.util.Locale;
 import java.util.concurrent.Callable;
@@ -36,14 +37,11 @@ final class NormalizeCommand implements Callable<Integer> {
     @Mixin
     CertificateOption certificate;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws IOException {
         AtomicOutput.refuseInputs(output, circuitFile);
-        PrintWriter err = spec.commandLine().getErr();
-        LoadedCircuit model = certificate.load(circuitFile, read.limits(), err);
+        PrintWriter err = read.err();
+        Model model = certificate.load(read, circuitFile);
         NormalizationResult r;
         try {
             r = Renormalizer.normalize(model.document(), model.circuit());

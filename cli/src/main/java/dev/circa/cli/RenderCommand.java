@@ -8,6 +8,7 @@ import java.io.IOException;
 import java.io.OutputStreamWriter;
 import java.io.PrintWriter;
 import java.nio.charset.StandardCharsets;
+import dev.circa.model.Model;
 import java.nio.file.Path;
 import java.util.Locale;
 import java.util.concurrent.Callable;
@@ -43,17 +44,14 @@ final class RenderCommand implements Callable<Integer> {
     @Mixin
     CertificateOption certificate;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws IOException {
         if (maxNodes < 0) {
             throw new UsageException("--max-render-nodes must be >= 0, got " + maxNodes);
         }
         AtomicOutput.refuseInputs(output, circuitFile);
-        PrintWriter err = spec.commandLine().getErr();
-        LoadedCircuit model = certificate.load(circuitFile, read.limits(), err);
+        PrintWriter err = read.err();
+        Model model = certificate.load(read, circuitFile);
         RenderOptions options = new RenderOptions(scopes, maxNodes);
         if (DotRenderer.isSummary(model.circuit(), options)) {
             err.println(String.format(Locale.ROOT, "%d nodes is more than --max-render-nodes %d: drawing a summary by scope",

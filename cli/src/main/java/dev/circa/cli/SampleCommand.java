@@ -1,13 +1,9 @@
 package dev.circa.cli;
 
 import dev.circa.engine.CompiledCircuit;
-import dev.circa.engine.Sampler;
 import dev.circa.format.Variable;
 import dev.circa.format.csv.CellValues;
-import dev.circa.format.io.AtomicOutput;
-import java.io.BufferedWriter;
-import java.io.OutputStreamWriter;
-import java.nio.charset.StandardCharsets;
+import dev.circa.model.Model;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.concurrent.Callable;
@@ -37,8 +33,8 @@ final class SampleCommand implements Callable<Integer> {
     @Option(names = "--output-name", paramLabel = "NAME", description = "The circuit output to sample (default: the first).")
     String outputName;
 
-    @Option(names = {"-o", "--output"}, paramLabel = "OUT.csv", description = "Output file (default: standard output).")
-    Path output = Path.of("-");
+    @Mixin
+    CsvOutput output;
 
     @Mixin
     ReadOptions read;
@@ -46,39 +42,30 @@ final class SampleCommand implements Callable<Integer> {
     @Mixin
     CertificateOption certificate;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws Exception {
         if (count < 0) {
             throw new UsageException("-n must be >= 0, got " + count);
         }
-        LoadedCircuit model = certificate.load(circuitFile, read.limits(), spec.commandLine().getErr());
+        Model model = certificate.load(read, circuitFile);
         CompiledCircuit c = model.circuit();
         int outIndex = OutputChoice.index(c, outputName);
         List<Variable> vars = c.variables();
         int nv = vars.size();
-        AtomicOutput.write(output, stream -> {
-            BufferedWriter w = new BufferedWriter(new OutputStreamWriter(stream, StandardCharsets.UTF_8));
-            CsvOut out = new CsvOut(w);
+        output.write(out -> {
             out.record(vars.stream().map(Variable::name).toArray(String[]::new));
-            Sampler sampler = new Sampler(c, seed);
             double[] buf = new double[CHUNK * nv];
             String[] line = new String[nv];
-            long left = count;
-            while (left > 0) {
-                int n = (int) Math.min(CHUNK, left);
-                sampler.sample(outIndex, n, buf);
+            for (long first = 0; first < count; first += CHUNK) {
+                int n = (int) Math.min(CHUNK, count - first);
+                model.sample(outIndex, seed, first, n, buf);
                 for (int r = 0; r < n; r++) {
                     for (int v = 0; v < nv; v++) {
                         line[v] = CellValues.format(vars.get(v), buf[r * nv + v]);
                     }
                     out.record(line);
                 }
-                left -= n;
             }
-            out.flush();
         }, circuitFile);
         return ExitStatus.OK;
     }

@@ -1,6 +1,7 @@
 package dev.circa.cli;
 
 import dev.circa.format.io.FormatException;
+import dev.circa.model.Requirement;
 import dev.circa.validator.ReportFormat;
 import dev.circa.validator.SchemaCheck;
 import dev.circa.validator.ValidationOptions;
@@ -60,9 +61,6 @@ final class ValidateCommand implements Callable<Integer> {
     @Mixin
     CertificateOption certificate;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws Exception {
         ReportFormat fmt;
@@ -80,13 +78,12 @@ final class ValidateCommand implements Callable<Integer> {
         if (!List.of("auto", "always", "never").contains(schemaCheck)) {
             throw new UsageException("--schema-check must be auto, always or never, got \"" + schemaCheck + "\"");
         }
-        PrintWriter out = spec.commandLine().getOut();
-        PrintWriter err = spec.commandLine().getErr();
         if (certificate.given()) {
-            boolean asked = spec.commandLine().getParseResult().hasMatchedOption("--require");
-            return certificate.verify(files, read.limits(), asked ? dev.circa.model.Requirement.parse(require)
-                    .withTolerance(tolerance) : null, out);
+            boolean asked = read.command.commandLine().getParseResult().hasMatchedOption("--require");
+            return certificate.verify(files, read, asked ? Requirement.parse(require).withTolerance(tolerance) : null);
         }
+        PrintWriter out = read.out();
+        PrintWriter err = read.err();
         List<ValidationReport> reports = new ArrayList<>();
         int status = 0;
         for (Path f : files) {

@@ -9,6 +9,8 @@ import org.apache.commons.math3.distribution.NormalDistribution;
 final class Fixtures {
     /** The FORMAT.md section 2 example circuit (pump station). */
     static final Path PUMP_STATION = Path.of("..", "fixtures", "circuits", "pump-station.json");
+    /** A product of two inputs of the same variable: not decomposable. */
+    static final Path NOT_DECOMPOSABLE = Path.of("..", "fixtures", "circuits", "not-decomposable.json");
     /** FORMAT.md section 5: SciPy 1.10, log p(inlet_pressure = 3.0, valve = open) of the example circuit. */
     static final double SCIPY_FULL = 0.18261296103078395;
     /** FORMAT.md section 5: SciPy 1.10, log p(inlet_pressure = 2.1) of the example circuit, valve missing. */

@@ -25,18 +25,6 @@ import org.junit.jupiter.api.io.TempDir;
 
 /** Loading: sources, read limits, the requirement, the one exception and the read hook. */
 class ModelLoaderTest {
-    /** The example with a product over two inputs of the same variable: not decomposable. */
-    private static final String NOT_DECOMPOSABLE = """
-            {"format": "circa.circuit", "version": "1.0",
-             "variables": [{"name": "inlet_pressure", "type": "real"}],
-             "nodes": [
-               {"id": 0, "input": "normal", "var": 0, "mean": 3.1, "sd": 0.2},
-               {"id": 1, "input": "normal", "var": 0, "mean": 2.2, "sd": 0.5},
-               {"id": 2, "product": [0, 1]}
-             ],
-             "outputs": [{"name": "joint", "node": 2}]}
-            """;
-
     /** Two normal components whose weights add to 2: smooth, decomposable, log Z = log 2. */
     private static final String WEIGHTS_ADD_TO_TWO = """
             {"format": "circa.circuit", "version": "1.0",
@@ -121,7 +109,7 @@ class ModelLoaderTest {
 
     @Test
     void load_notDecomposable_oneExceptionWithTheValidatorsDiagnostics() {
-        ModelException e = assertThrows(ModelException.class, () -> Fixtures.load(Model.loader(), NOT_DECOMPOSABLE));
+        ModelException e = assertThrows(ModelException.class, () -> Model.load(Fixtures.NOT_DECOMPOSABLE));
         assertFalse(e.unreadable());
         assertFalse(e.report().valid());
         assertTrue(e.diagnostics().stream().map(Diagnostic::code).anyMatch("ProductScopesOverlap"::equals),
@@ -131,10 +119,9 @@ class ModelLoaderTest {
 
     @Test
     void check_notDecomposable_reportWithoutRefusal() throws Exception {
-        CheckedCircuit c = Model.loader().check(new ByteArrayInputStream(NOT_DECOMPOSABLE.getBytes(StandardCharsets.UTF_8)),
-                "inline.json");
+        CheckedCircuit c = Model.loader().check(Fixtures.NOT_DECOMPOSABLE);
         assertFalse(c.fit());
-        assertEquals("inline.json", c.source());
+        assertEquals(Fixtures.NOT_DECOMPOSABLE.toString(), c.source());
         assertEquals(3, c.document().nodes().size());
         assertTrue(c.report().diagnostics().stream().map(Diagnostic::code).anyMatch("ProductScopesOverlap"::equals));
         assertTrue(Model.loader().check(Fixtures.PUMP_STATION).fit());
@@ -142,7 +129,7 @@ class ModelLoaderTest {
 
     @Test
     void load_noPropertyRequired_acceptsNotDecomposable() throws Exception {
-        Model m = Fixtures.load(Model.loader().withRequirement(Requirement.parse("")), NOT_DECOMPOSABLE);
+        Model m = Model.loader().withRequirement(Requirement.parse("")).load(Fixtures.NOT_DECOMPOSABLE);
         assertTrue(m.requirement().properties().isEmpty());
     }
 
