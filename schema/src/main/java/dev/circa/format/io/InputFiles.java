@@ -6,10 +6,12 @@ import java.io.InputStream;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
-import java.util.zip.GZIPInputStream;
 import java.util.zip.ZipException;
 
-/** Opens input files: {@code -} for standard input, {@code .gz} decompressed, {@code --max-bytes} enforced. */
+/**
+ * Opens input files: {@code -} for standard input, {@code .gz} decompressed (nothing but gzip members
+ * up to the end of the file), {@code --max-bytes} enforced.
+ */
 public final class InputFiles {
     private InputFiles() {
     }
@@ -69,7 +71,10 @@ public final class InputFiles {
         InputStream in = new BufferedInputStream(stored, 1 << 16);
         if (gzip) {
             try {
-                in = new GZIPInputStream(in, 1 << 16);
+                in = GzipMembersInputStream.open(in, name);
+            } catch (FormatException e) {
+                closeQuietly(in);
+                throw e;
             } catch (ZipException | java.io.EOFException e) {
                 closeQuietly(in);
                 throw new FormatException(name, 0, 0, null, "the name ends in .gz but the file is not gzip-compressed");
