@@ -103,12 +103,19 @@ public final class ModelLatency {
                 }
             }
         }
+        Scorer[] scorers = {engine, named, map, batch1};
+        // compiled before the rows per run are chosen, so that the choice is not made on interpreted code
+        for (Scorer warm : scorers) {
+            long end = System.nanoTime() + RUN_NANOS * 3;
+            for (int i = 0; System.nanoTime() < end; i++) {
+                warm.score(i & (DISTINCT - 1));
+            }
+        }
         long t = System.nanoTime();
         for (int i = 0; i < 2000; i++) {
             engine.score(i & (DISTINCT - 1));
         }
         int rows = (int) Math.max(1000, Math.min(1_000_000, RUN_NANOS * 2000 / Math.max(1, System.nanoTime() - t)));
-        Scorer[] scorers = {engine, named, map, batch1};
         double[][] ns = new double[scorers.length][RUNS];
         double sink = 0;
         for (int run = 0; run < WARMUP + RUNS; run++) {

@@ -110,7 +110,7 @@ public final class Families {
         }
     }
 
-    /** log(high - low) for low < high, also when the difference exceeds the largest double. */
+    /** log(high - low) for low {@literal <} high, also when the difference exceeds the largest double. */
     private static double logWidth(double low, double high) {
         double w = high - low;
         return w < Double.POSITIVE_INFINITY ? Math.log(w) : Math.log(0.5 * high - 0.5 * low) + LN_2;

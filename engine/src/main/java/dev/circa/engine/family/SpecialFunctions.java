@@ -71,7 +71,7 @@ public final class SpecialFunctions {
         return logGamma(small) + logGammaRatio(big, small);
     }
 
-    /** log Gamma(a) - log Gamma(a + b) for a >= 15 and 0 < b <= a, without forming either term. */
+    /** log Gamma(a) - log Gamma(a + b) for a {@literal >=} 15 and 0 {@literal <} b {@literal <=} a, without forming either term. */
     private static double logGammaRatio(double a, double b) {
         double t = b / a;
         double log1pT = StrictMath.log1p(t);
