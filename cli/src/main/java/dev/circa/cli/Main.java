@@ -18,6 +18,7 @@ import picocli.CommandLine.Command;
             InspectCommand.class,
             CheckCommand.class, CompareCommand.class, NormalizeCommand.class, RenderCommand.class,
             DemoCommand.class,
+            CertifyCommand.class,
             CommandLine.HelpCommand.class
         })
 public final class Main implements Runnable {
