@@ -33,10 +33,13 @@ public final class ExactMarginals {
     private final int[] paramStart;
     private final double[] params;
     private final double[] logWeight;
+    /** Every node's log-value with every variable missing (the forward pass). */
+    private final double[] missing;
 
     private ExactMarginals(CompiledCircuit circuit, double[] logPartition, int[] componentStart, int[] componentNode,
-            int[] code, int[] paramStart, double[] params, double[] logWeight) {
+            int[] code, int[] paramStart, double[] params, double[] logWeight, double[] missing) {
         this.circuit = circuit;
+        this.missing = missing;
         this.logPartition = logPartition;
         this.componentStart = componentStart;
         this.componentNode = componentNode;
@@ -135,7 +138,7 @@ public final class ExactMarginals {
             }
         }
         return new ExactMarginals(circuit, logPartition, componentStart, componentNode, code, paramStart, params,
-                logWeight);
+                logWeight, value);
     }
 
     /**
@@ -182,6 +185,112 @@ public final class ExactMarginals {
                     d[child[e]] = logAdd(d[child[e]], di + others);
                 }
             }
+        }
+    }
+
+    /** The forward pass over the inner nodes, the inputs' log-values already in {@code value}. */
+    private static void forwardInner(CompiledCircuit circuit, double[] value) {
+        int[] start = circuit.childStart();
+        int[] child = circuit.childIndex();
+        double[] w = circuit.logWeight();
+        for (int i = 0; i < value.length; i++) {
+            NodeKind kind = circuit.kind(i);
+            if (kind == NodeKind.PRODUCT) {
+                double s = 0;
+                for (int e = start[i]; e < start[i + 1]; e++) {
+                    s += value[child[e]];
+                }
+                value[i] = s;
+            } else if (kind == NodeKind.SUM) {
+                double s = Double.NEGATIVE_INFINITY;
+                for (int e = start[i]; e < start[i + 1]; e++) {
+                    s = logAdd(s, w[e] + value[child[e]]);
+                }
+                value[i] = s;
+            }
+        }
+    }
+
+    /**
+     * log p(x_a = xa[i], x_b = xb[j], every other variable missing) under every output, unnormalised (as the
+     * evaluator gives it), for a != b. One forward and one backward pass per value of a: with a observed, the
+     * output is linear in the inputs over b, so each row of the grid is a mixture of b's inputs; an input over
+     * both (an {@code mvnormal}) contributes its two-coordinate normal at (xa[i], xb[j]).
+     *
+     * @param a input: the first variable
+     * @param xa input: {@code na} values of a
+     * @param na input: number of values of a
+     * @param b input: the second variable
+     * @param xb input: {@code nb} values of b
+     * @param nb input: number of values of b
+     * @param out output: {@code out[(i * nb + j) * outputCount + o]}
+     */
+    public void pairLogDensity(int a, double[] xa, int na, int b, double[] xb, int nb, double[] out) {
+        int outputs = circuit.outputCount();
+        if (a == b || xa.length < na || xb.length < nb || out.length < (long) na * nb * outputs) {
+            throw new IllegalArgumentException("two different variables, na values of a, nb of b and na x nb x outputs"
+                    + " entries of out are needed");
+        }
+        int n = circuit.nodeCount();
+        double[] value = new double[n];
+        double[] d = new double[n];
+        double[] f = new double[nb];
+        boolean[] overA = new boolean[n];
+        for (int e = componentStart[a]; e < componentStart[a + 1]; e++) {
+            overA[componentNode[e]] = true;
+        }
+        Arrays.fill(out, 0, na * nb * outputs, Double.NEGATIVE_INFINITY);
+        for (int i = 0; i < na; i++) {
+            System.arraycopy(missing, 0, value, 0, n);
+            for (int e = componentStart[a]; e < componentStart[a + 1]; e++) {
+                int off = paramStart[e];
+                value[componentNode[e]] = Families.logDensity(code[e], params, off, paramStart[e + 1] - off, xa[i]);
+            }
+            forwardInner(circuit, value);
+            for (int o = 0; o < outputs; o++) {
+                backward(circuit, value, circuit.outputNode(o), d);
+                for (int e = componentStart[b]; e < componentStart[b + 1]; e++) {
+                    int node = componentNode[e];
+                    if (d[node] == Double.NEGATIVE_INFINITY) {
+                        continue;
+                    }
+                    if (overA[node]) {
+                        bivariate(node, a, xa[i], b, xb, nb, f);
+                    } else {
+                        int off = paramStart[e];
+                        for (int j = 0; j < nb; j++) {
+                            f[j] = Families.logDensity(code[e], params, off, paramStart[e + 1] - off, xb[j]);
+                        }
+                    }
+                    for (int j = 0; j < nb; j++) {
+                        int k = (i * nb + j) * outputs + o;
+                        out[k] = logAdd(out[k], d[node] + f[j]);
+                    }
+                }
+            }
+        }
+    }
+
+    /** The log-density of the normal of an mvnormal input's coordinates (a, b) at (x, y[j]) for every j. */
+    private void bivariate(int node, int a, double x, int b, double[] y, int nb, double[] out) {
+        int[] vars = circuit.inputVars(node);
+        double[] p = circuit.inputParams(node);
+        int dim = vars.length;
+        int ia = -1;
+        int ib = -1;
+        for (int k = 0; k < dim; k++) {
+            ia = vars[k] == a ? k : ia;
+            ib = vars[k] == b ? k : ib;
+        }
+        double sa = p[dim + ia * dim + ia];
+        double sb = p[dim + ib * dim + ib];
+        double sab = p[dim + ia * dim + ib];
+        double det = sa * sb - sab * sab;
+        for (int j = 0; j < nb; j++) {
+            double u = x - p[ia];
+            double v = y[j] - p[ib];
+            double q = (sb * u * u - 2 * sab * u * v + sa * v * v) / det;
+            out[j] = -0.5 * q - 0.5 * Math.log(det) - Math.log(2 * Math.PI);
         }
     }
 

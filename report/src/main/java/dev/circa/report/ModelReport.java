@@ -62,7 +62,7 @@ public final class ModelReport {
             VerdictSection.write(html, src.validation(), options.certificateState());
             RegressionSection.write(html, checks, tol);
             MarginalSection.write(html, marginals);
-            PairSection.write(html, marginals, options.pairs(), options.threads());
+            PairSection.write(html, marginals, options.pairs());
             StructureSection.write(html, src.circuit());
             html.raw("</main>\n<footer><p>").text("Written by " + options.producer() + " from " + src.fileName()
                     + " (SHA-256 " + src.sha256() + "). The plots are inline SVG; the page fetches nothing.")
