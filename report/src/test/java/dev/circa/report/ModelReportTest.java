@@ -170,7 +170,7 @@ class ModelReportTest {
             double v = Double.parseDouble(tr.child(2).text());
             double expected = 0.80 * (0.7 * n1.density(new double[] {a, b}) + 0.3 * n2a.density(a) * n2b.density(b))
                     + 0.15 * cav.density(new double[] {a, b}) + 0.05 * blockedIn.density(a) * blockedOut.density(b);
-            assertEquals(expected, v, 1e-9 * Math.max(1, expected), "joint density at " + a + ", " + b);
+            assertEquals(expected, v, TOLERANCE * Math.max(1, expected), "joint density at " + a + ", " + b);
             rows++;
         }
         assertEquals(PairSection.REAL_CELLS * PairSection.REAL_CELLS, rows);
