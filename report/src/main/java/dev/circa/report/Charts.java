@@ -242,6 +242,16 @@ final class Charts {
     private static String svg(JFreeChart chart, int width, int height) {
         chart.setBackgroundPaint(Color.WHITE);
         chart.setAntiAlias(true);
+        // white plot area with light grid lines: readable on screen and on paper
+        Color grid = new Color(0xd0d0d0);
+        if (chart.getPlot() instanceof XYPlot xy) {
+            xy.setBackgroundPaint(Color.WHITE);
+            xy.setDomainGridlinePaint(grid);
+            xy.setRangeGridlinePaint(grid);
+        } else if (chart.getPlot() instanceof CategoryPlot cat) {
+            cat.setBackgroundPaint(Color.WHITE);
+            cat.setRangeGridlinePaint(grid);
+        }
         SVGGraphics2D g = new SVGGraphics2D(width, height);
         String prefix;
         synchronized (Charts.class) {

@@ -192,6 +192,22 @@ class ModelReportTest {
     }
 
     @Test
+    void structure_regimes_layersCountEveryNodeAndEdgeDownToTheValidatorsDepth() {
+        List<Element> rows = regimes.select("#structure figure details table tbody tr");
+        long nodes = 0;
+        long edges = 0;
+        for (Element tr : rows) {
+            nodes += Long.parseLong(tr.child(1).text());
+            edges += Long.parseLong(tr.child(5).text());
+        }
+        // the summary's counts, from the validator
+        assertEquals(24, nodes, "every node in one layer");
+        assertEquals(24, edges, "every edge leaves one layer");
+        assertEquals(4 + 1, rows.size(), "depths 0 to the validator's depth 4");
+        assertTrue(regimes.selectFirst("#structure details.dot pre").text().startsWith("digraph"), "the DOT text");
+    }
+
+    @Test
     void pairs_badSpecifications_areRefusedWithTheReason() {
         List<Variable> vars = List.of(Variable.of("a", VariableType.REAL), Variable.of("b", VariableType.REAL));
         assertEquals(1, VariablePairs.parse("a:b", vars).size());
