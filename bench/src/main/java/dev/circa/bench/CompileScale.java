@@ -2,11 +2,9 @@ package dev.circa.bench;
 
 import dev.circa.converter.regions.CompileOptions;
 import dev.circa.converter.regions.RandomRegions;
-import dev.circa.converter.regions.RegionCompiler;
-import dev.circa.converter.regions.RegionParameters;
-import dev.circa.converter.regions.RegionStructure;
+import dev.circa.converter.regions.ParameterSource;
+import dev.circa.converter.regions.RegionConverter;
 import dev.circa.converter.regions.RegionVerifier;
-import dev.circa.engine.CompiledCircuit;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.InputNode;
 import dev.circa.format.Node;
@@ -29,7 +27,8 @@ import tools.jackson.core.JsonGenerator;
 /**
  * Compiles a random region graph into a circuit of about 10^7 edges and writes it, reporting time
  * and peak heap, beside a bare streaming Jackson write of as many numbers in the same run; also
- * times the engine's compile and a short verification against the region-by-region evaluation. Not a
+ * times the engine's compile, a short verification against the region-by-region evaluation and the
+ * validation, all done by one {@link RegionConverter} call as {@code circa convert} does. Not a
  * test; one run, one line per phase on standard output.
  *
  * <p>Run from the repository root (Java 17), one command:
@@ -56,13 +55,21 @@ public final class CompileScale {
 
         RegionGraph g = RandomRegions.generate(RandomRegions.realVariables(vars), depth, repeats, 1);
         resetPeaks();
-        long t0 = System.nanoTime();
-        RegionParameters params = RegionParameters.seeded(RegionStructure.of(g), new CompileOptions(sums, inputs, 1, Map.of()), 7);
-        CircuitDocument doc = RegionCompiler.compile(params);
+        RegionConverter.Result converted = RegionConverter.convert(g, new CompileOptions(sums, inputs, 1, Map.of()),
+                ParameterSource.seed(7), new RegionConverter.Verification(verifyPoints, 3, 1e-9, 1e-9), ReadLimits.DEFAULT);
+        long peakConvert = peakHeap();
+        CircuitDocument doc = converted.circuit();
+        RegionVerifier.Result verified = converted.verification();
+        long compileNanos = converted.nanos()[0];
+        long verifyNanos = converted.nanos()[1];
+        long validateNanos = converted.nanos()[2];
+        boolean valid = converted.validation().valid();
+        converted = null;
+        resetPeaks();
         long t1 = System.nanoTime();
         new CircuitWriter().write(doc, circuitFile);
         long t2 = System.nanoTime();
-        long peakCompile = peakHeap();
+        long peakWrite = peakHeap();
         long edges = doc.edgeCount();
         long numbers = 0;
         for (Node n : doc.nodes()) {
@@ -75,16 +82,7 @@ public final class CompileScale {
         }
         int nodes = doc.nodes().size();
         long circuitBytes = Files.size(circuitFile);
-
-        resetPeaks();
-        long t5 = System.nanoTime();
-        CompiledCircuit compiled = CompiledCircuit.compile(doc);
         doc = null;
-        RegionVerifier.Result verified = RegionVerifier.verify(params, compiled, verifyPoints, 3, 1e-9, 1e-9);
-        long t6 = System.nanoTime();
-        long peakVerify = peakHeap();
-        compiled = null;
-        params = null;
         System.gc();
 
         resetPeaks();
@@ -94,17 +92,20 @@ public final class CompileScale {
         long peakBare = peakHeap();
         long bareBytes = Files.size(bareFile);
 
-        double compileS = (t1 - t0) / 1e9;
+        double compileS = compileNanos / 1e9;
         double writeS = (t2 - t1) / 1e9;
         double bareS = (t4 - t3) / 1e9;
         System.out.printf(Locale.ROOT, "graph: %d variables, depth %d, repeats %d, %d regions, %d partitions; K=%d I=%d C=1%n",
                 vars, depth, repeats, g.regions().size(), g.partitions().size(), sums, inputs);
         System.out.printf(Locale.ROOT, "circuit: %d nodes, %d edges, %d numbers, %d bytes%n", nodes, edges, numbers,
                 circuitBytes);
-        System.out.printf(Locale.ROOT, "compile %.2f s + write %.2f s = %.2f s, peak heap %d MiB%n", compileS, writeS,
-                compileS + writeS, peakCompile >> 20);
-        System.out.printf(Locale.ROOT, "engine compile + verify on %d rows: %.2f s, peak heap %d MiB; %s%n",
-                verified.points(), (t6 - t5) / 1e9, peakVerify >> 20, verified.summary());
+        System.out.printf(Locale.ROOT, "compile %.2f s + write %.2f s = %.2f s, peak heap %d MiB converting"
+                + " (compile, verify, validate), %d MiB writing%n", compileS, writeS, compileS + writeS,
+                peakConvert >> 20, peakWrite >> 20);
+        System.out.printf(Locale.ROOT, "engine compile + verify on %d rows: %.2f s; %s%n",
+                verified.points(), verifyNanos / 1e9, verified.summary());
+        System.out.printf(Locale.ROOT, "validate the compiled circuit: %.2f s, %s%n", validateNanos / 1e9,
+                valid ? "valid" : "INVALID");
         System.out.printf(Locale.ROOT, "bare Jackson write of %d doubles: %.2f s (%d bytes), peak heap %d MiB%n", numbers,
                 bareS, bareBytes, peakBare >> 20);
         System.out.printf(Locale.ROOT, "compile+write time / bare write time = %.2f (target <= 2)%n",

@@ -3,7 +3,6 @@ package dev.circa.cli;
 import dev.circa.format.io.FormatException;
 import dev.circa.validator.regression.CheckReport;
 import dev.circa.validator.regression.RegressionCheck;
-import dev.circa.validator.regression.Tolerance;
 import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.ArrayList;
@@ -23,41 +22,26 @@ import picocli.CommandLine.Parameters;
             "when the circuit computes -inf. Prints the cases, failures, largest errors",
             "and the worst 10 cases with their rows. Exit status 1 when any case fails."})
 final class CheckCommand implements Callable<Integer> {
-    /** Report forms. */
-    enum Format { text, json }
-
     @Parameters(index = "0", paramLabel = "CIRCUIT", description = "The circuit file (.json or .json.gz).")
     Path circuitFile;
 
     @Option(names = "--reference", paramLabel = "REF.csv", description = "A reference set (repeatable).")
     List<Path> references = new ArrayList<>();
 
-    @Option(names = "--atol", paramLabel = "A", description = "Absolute tolerance (default: the file's checks value, else 1e-9).")
-    Double atol;
+    @Mixin
+    CheckTolerance tolerance;
 
-    @Option(names = "--rtol", paramLabel = "R", description = "Relative tolerance (default: the file's checks value, else 1e-9).")
-    Double rtol;
-
-    @Option(names = "--format", paramLabel = "FORMAT", description = "text (default) or json.")
-    Format format = Format.text;
+    @Mixin
+    TextOrJson format;
 
     @Mixin
     ReadOptions read;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws FormatException {
-        PrintWriter out = spec.commandLine().getOut();
-        LoadedCircuit model = LoadedCircuit.load(circuitFile, read.limits(), spec.commandLine().getErr());
-        Tolerance tol;
-        try {
-            tol = Tolerance.resolve(model.document().checks(), atol, rtol);
-        } catch (IllegalArgumentException e) {
-            throw new UsageException("--atol and --rtol must be finite and >= 0");
-        }
-        RegressionCheck check = new RegressionCheck(model.circuit(), tol);
+        PrintWriter out = read.out();
+        LoadedCircuit model = read.load(circuitFile);
+        RegressionCheck check = new RegressionCheck(model.circuit(), tolerance.resolve(model.document().checks()));
         check.checkEmbedded(model.document());
         for (Path ref : references) {
             check.checkReference(ref, read.limits());
@@ -67,7 +51,7 @@ final class CheckCommand implements Callable<Integer> {
             throw new UsageException("nothing to check: " + circuitFile + " has no embedded checks"
                     + (references.isEmpty() ? " and no --reference was given" : " and the reference sets have no rows"));
         }
-        out.print(format == Format.json ? report.toJson() : report.toText());
+        out.print(format.json() ? report.toJson() : report.toText());
         out.flush();
         return report.passed() ? ExitStatus.OK : ExitStatus.FAILED;
     }

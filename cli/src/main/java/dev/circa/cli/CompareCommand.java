@@ -21,9 +21,6 @@ import picocli.CommandLine.Parameters;
             "|a - b| <= atol + rtol * max(|a|, |b|). Says when the circuits are",
             "structurally identical up to node order. Exit status 1 beyond tolerance."})
 final class CompareCommand implements Callable<Integer> {
-    /** Report forms. */
-    enum Format { text, json }
-
     @Parameters(index = "0", paramLabel = "A", description = "The first circuit.")
     Path first;
 
@@ -42,14 +39,11 @@ final class CompareCommand implements Callable<Integer> {
     @Option(names = "--rtol", paramLabel = "R", description = "Relative tolerance (default: ${DEFAULT-VALUE}).")
     double rtol = CompareOptions.DEFAULT.rtol();
 
-    @Option(names = "--format", paramLabel = "FORMAT", description = "text (default) or json.")
-    Format format = Format.text;
+    @Mixin
+    TextOrJson format;
 
     @Mixin
     ReadOptions read;
-
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
 
     @Override
     public Integer call() throws FormatException {
@@ -62,17 +56,16 @@ final class CompareCommand implements Callable<Integer> {
         } catch (IllegalArgumentException e) {
             throw new UsageException("--atol and --rtol must be finite and >= 0");
         }
-        PrintWriter err = spec.commandLine().getErr();
-        LoadedCircuit a = LoadedCircuit.load(first, read.limits(), err);
-        LoadedCircuit b = LoadedCircuit.load(second, read.limits(), err);
+        LoadedCircuit a = read.load(first);
+        LoadedCircuit b = read.load(second);
         ComparisonReport report;
         try {
             report = CircuitComparison.compare(a.circuit(), b.circuit(), options);
         } catch (IncompatibleCircuitsException e) {
             throw new UsageException("cannot compare " + first + " with " + second + ": " + e.getMessage());
         }
-        PrintWriter out = spec.commandLine().getOut();
-        out.print(format == Format.json ? report.toJson() : report.toText());
+        PrintWriter out = read.out();
+        out.print(format.json() ? report.toJson() : report.toText());
         out.flush();
         return report.passed() ? ExitStatus.OK : ExitStatus.FAILED;
     }

@@ -2,28 +2,15 @@ package dev.circa.cli;
 
 import dev.circa.converter.mixture.MixtureConverter;
 import dev.circa.converter.mixture.MixtureOptions;
-import dev.circa.converter.npz.NpzArchive;
 import dev.circa.converter.regions.CompileOptions;
-import dev.circa.converter.regions.RegionCompiler;
-import dev.circa.converter.regions.RegionParameters;
-import dev.circa.converter.regions.RegionStructure;
-import dev.circa.converter.regions.RegionVerifier;
-import dev.circa.engine.CompileException;
-import dev.circa.engine.CompiledCircuit;
-import dev.circa.format.CircuitDocument;
-import dev.circa.format.io.CircuitReader;
-import dev.circa.format.io.CircuitWriter;
+import dev.circa.converter.regions.ParameterSource;
+import dev.circa.converter.regions.RegionConverter;
 import dev.circa.format.io.DocumentKind;
-import dev.circa.format.io.FormatException;
-import dev.circa.format.io.LimitExceededException;
 import dev.circa.format.io.ReadLimits;
 import dev.circa.format.mixture.MixtureReader;
 import dev.circa.format.regions.RegionGraph;
 import dev.circa.format.regions.RegionGraphReader;
-import dev.circa.validator.Diagnostic;
-import dev.circa.validator.Severity;
 import dev.circa.validator.ValidationOptions;
-import dev.circa.validator.ValidationReport;
 import dev.circa.validator.Validator;
 import java.io.PrintWriter;
 import java.nio.file.Path;
@@ -44,9 +31,6 @@ import picocli.CommandLine.Parameters;
             "--atol/--rtol (the circuit is then not written). With --to-params, writes a compiled circuit's",
             "parameters back in the layout of FORMAT.md section 3."})
 final class ConvertCommand implements Callable<Integer> {
-    /** Heap per node while converting (document, compiled arrays, verification): 376 MiB peak was measured for 514,057 nodes. */
-    private static final double BYTES_PER_NODE = 700;
-
     @Parameters(index = "0", paramLabel = "SOURCE", description = "Region graph, mixture document, or (with --to-params) a compiled circuit.")
     Path source;
 
@@ -105,21 +89,22 @@ final class ConvertCommand implements Callable<Integer> {
             throw new UsageException("--verify must be >= 0, got " + verify);
         }
         if (toParams != null) {
-            return exportParams(limits, err);
+            return ParameterExport.run(source, regions, toParams, limits, err);
         }
         if (output == null) {
             throw new UsageException("missing -o OUT: the circuit to write");
         }
         DocumentKind kind = DocumentKind.detect(source, limits);
+        ConvertedOutput out = new ConvertedOutput(output, err, source, params, regions);
         return switch (kind) {
-            case MIXTURE -> convertMixture(limits, err);
-            case REGIONS -> convertRegions(limits, err);
+            case MIXTURE -> convertMixture(limits, out, err);
+            case REGIONS -> convertRegions(limits, out, err);
             case CIRCUIT -> throw new UsageException(source + " is already a circuit; convert takes a region graph or a "
                     + "mixture document (or use --to-params with --regions to export a compiled circuit's parameters)");
         };
     }
 
-    private int convertMixture(ReadLimits limits, PrintWriter err) throws Exception {
+    private int convertMixture(ReadLimits limits, ConvertedOutput out, PrintWriter err) throws Exception {
         if (params != null) {
             throw new UsageException("--params applies to region graphs; " + source + " is a mixture document");
         }
@@ -128,10 +113,11 @@ final class ConvertCommand implements Callable<Integer> {
         MixtureConverter.Result result = MixtureConverter.convert(MixtureReader.read(source, limits), options);
         err.print(result.summary());
         err.println();
-        return finish(result.circuit(), result.verification().passed(), err);
+        return out.finish(result.circuit(), result.verification().passed(),
+                new Validator(ValidationOptions.defaults()).validate(result.circuit()));
     }
 
-    private int convertRegions(ReadLimits limits, PrintWriter err) throws Exception {
+    private int convertRegions(ReadLimits limits, ConvertedOutput out, PrintWriter err) throws Exception {
         RegionGraph graph = new RegionGraphReader(limits).read(source);
         CompileOptions options;
         try {
@@ -142,90 +128,10 @@ final class ConvertCommand implements Callable<Integer> {
         } catch (IllegalArgumentException e) {
             throw new UsageException(e.getMessage());
         }
-        RegionStructure structure = RegionStructure.of(graph);
-        long nodes = RegionCompiler.nodeCount(structure, options);
-        if (nodes > limits.maxNodes()) {
-            throw LimitExceededException.of(source.toString(), 0, 0, null, "the compiled circuit would have "
-                    + (nodes == Long.MAX_VALUE ? "more than 9.2e18" : Long.toString(nodes)) + " nodes, which",
-                    ReadLimits.MAX_NODES, limits.maxNodes());
-        }
-        refuseOversized(nodes, RegionCompiler.productEdgeCount(structure, options));
-        RegionParameters p = params == null ? RegionParameters.seeded(structure, options, seed)
-                : RegionParameters.fromArchive(structure, options, NpzArchive.read(params, limits.maxBytes()));
-        CircuitDocument circuit = RegionCompiler.compile(p);
-        CompiledCircuit compiled = compile(circuit);
-        RegionVerifier.Result v = RegionVerifier.verify(p, compiled, verify, seed, atol, rtol);
-        err.printf("converted %s: %d variables, %d nodes, %d edges, %d output%s%n", source, circuit.variables().size(),
-                circuit.nodes().size(), circuit.edgeCount(), outputs, outputs == 1 ? "" : "s");
-        err.println(v.summary() + String.format(java.util.Locale.ROOT,
-                " (the engine against a direct region-by-region tensor evaluation, atol %.3g, rtol %.3g)", atol, rtol));
-        return finish(circuit, v.passed(), err);
-    }
-
-    /**
-     * Refuses, before allocating anything, a circuit that cannot fit in this JVM's heap (a small region
-     * graph can describe a huge circuit), so that the user gets a message instead of running out of memory.
-     */
-    private void refuseOversized(long nodes, long productEdges) throws FormatException {
-        double needed = BYTES_PER_NODE * (double) nodes + 4.0 * productEdges;
-        long heap = Runtime.getRuntime().maxMemory();
-        if (needed > 0.8 * heap) {
-            throw new FormatException(source.toString(), 0, 0, null, String.format(java.util.Locale.ROOT,
-                    "the compiled circuit would have %d nodes and %d product edges, about %.1f GB in memory, more than"
-                            + " the %.1f GB Java heap allows; use fewer sums, inputs or parts, or raise the heap with"
-                            + " CIRCA_JAVA_OPTS=-Xmx...", nodes, productEdges, needed / 1e9, heap / 1e9));
-        }
-    }
-
-    private int finish(CircuitDocument circuit, boolean verified, PrintWriter err) throws Exception {
-        ValidationReport report = new Validator(ValidationOptions.defaults()).validate(circuit);
-        for (Diagnostic d : report.diagnostics()) {
-            if (d.severity() == Severity.ERROR || d.severity() == Severity.WARNING) {
-                err.println("circa convert: " + d.render());
-            }
-        }
-        if (!verified) {
-            err.println("circa convert: " + output + " not written: the circuit and the source disagree beyond tolerance");
-            return ExitStatus.FAILED;
-        }
-        if (!report.valid()) {
-            err.println("circa convert: " + output + " not written: the converted circuit does not validate");
-            return ExitStatus.FAILED;
-        }
-        new CircuitWriter().write(circuit, output, inputsOf());
-        err.println("wrote " + output);
-        return ExitStatus.OK;
-    }
-
-    private Path[] inputsOf() {
-        List<Path> in = new ArrayList<>();
-        in.add(source);
-        if (params != null) {
-            in.add(params);
-        }
-        if (regions != null) {
-            in.add(regions);
-        }
-        return in.toArray(new Path[0]);
-    }
-
-    private int exportParams(ReadLimits limits, PrintWriter err) throws Exception {
-        if (regions == null) {
-            throw new UsageException("--to-params needs --regions RG.json, the region graph the circuit was compiled from");
-        }
-        CircuitDocument circuit = new CircuitReader(limits).read(source);
-        RegionGraph graph = new RegionGraphReader(limits).read(regions);
-        NpzArchive archive = RegionCompiler.exportParameters(circuit, graph);
-        archive.write(toParams, false, source, regions);
-        err.println("wrote " + archive.size() + " arrays to " + toParams);
-        return ExitStatus.OK;
-    }
-
-    private CompiledCircuit compile(CircuitDocument circuit) throws FormatException {
-        try {
-            return CompiledCircuit.compile(circuit);
-        } catch (CompileException e) {
-            throw new FormatException(source.toString(), 0, 0, null, "the compiled circuit is broken: " + e.getMessage());
-        }
+        RegionConverter.Result r = RegionConverter.convert(graph, options,
+                params == null ? ParameterSource.seed(seed) : ParameterSource.file(params),
+                new RegionConverter.Verification(verify, seed, atol, rtol), limits);
+        err.println(r.summary());
+        return out.finish(r.circuit(), r.verification().passed(), r.validation());
     }
 }

@@ -2,25 +2,18 @@ package dev.circa.cli;
 
 import dev.circa.converter.mixture.MixtureConverter;
 import dev.circa.converter.mixture.MixtureOptions;
-import dev.circa.converter.npz.NpzArchive;
 import dev.circa.converter.regions.CompileOptions;
-import dev.circa.converter.regions.RegionCompiler;
-import dev.circa.converter.regions.RegionParameters;
-import dev.circa.converter.regions.RegionStructure;
-import dev.circa.converter.regions.RegionVerifier;
+import dev.circa.converter.regions.ParameterSource;
+import dev.circa.converter.regions.RegionConverter;
 import dev.circa.converter.render.DotRenderer;
 import dev.circa.converter.render.RenderOptions;
 import dev.circa.engine.CompiledCircuit;
 import dev.circa.format.CircuitDocument;
-import dev.circa.format.Node;
-import dev.circa.format.ProductNode;
-import dev.circa.format.SumNode;
-import dev.circa.format.io.AtomicOutput;
-import dev.circa.format.io.CircuitWriter;
 import dev.circa.format.io.ReadLimits;
 import dev.circa.format.mixture.MixtureReader;
 import dev.circa.format.regions.RegionGraphReader;
 import dev.circa.validator.Diagnostic;
+import dev.circa.validator.Property;
 import dev.circa.validator.SchemaCheck;
 import dev.circa.validator.Severity;
 import dev.circa.validator.ValidationOptions;
@@ -29,13 +22,9 @@ import dev.circa.validator.Validator;
 import dev.circa.validator.regression.CheckReport;
 import dev.circa.validator.regression.RegressionCheck;
 import dev.circa.validator.regression.Tolerance;
-import java.io.InputStream;
-import java.io.PrintWriter;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.ArrayList;
 import java.util.List;
+import java.util.Locale;
 import java.util.concurrent.Callable;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Parameters;
@@ -47,7 +36,7 @@ import picocli.CommandLine.Parameters;
             "set computed with NumPy and SciPy, catches a deliberately broken export, and renders the small",
             "model as Graphviz DOT. Writes every file to DIR (default: circa-demo)."})
 final class DemoCommand implements Callable<Integer> {
-    private static final String RESOURCES = "/dev/circa/cli/demo/";
+    private static final ReadLimits LIMITS = ReadLimits.DEFAULT;
 
     @Parameters(index = "0", arity = "0..1", paramLabel = "DIR", description = "Folder for the demo's files (created if needed).")
     Path dir = Path.of("circa-demo");
@@ -55,155 +44,89 @@ final class DemoCommand implements Callable<Integer> {
     @picocli.CommandLine.Spec
     picocli.CommandLine.Model.CommandSpec spec;
 
-    private PrintWriter out;
-    private final List<String> written = new ArrayList<>();
-
     @Override
     public Integer call() throws Exception {
-        out = spec.commandLine().getOut();
-        Files.createDirectories(dir);
-        ReadLimits limits = ReadLimits.DEFAULT;
-        say("circa demo: the pump-station scenario, files in " + dir.toAbsolutePath().normalize());
-        say("");
-        say("1. The regime mixture an engineer wrote by hand (normal operation, cavitation, worn valve),");
-        say("   converted into a circuit and proved equal to the mixture at sampled points.");
-        Path yaml = extract("mixtures/pump-station-regimes.yaml", "pump-station-regimes.yaml");
-        MixtureConverter.Result mix = MixtureConverter.convert(MixtureReader.read(yaml, limits), MixtureOptions.DEFAULT);
-        indent(mix.summary());
-        Path regimes = dir.resolve("regimes.circuit.json");
-        write(mix.circuit(), regimes, "the converted regime mixture");
+        DemoFolder f = new DemoFolder(dir, spec.commandLine().getOut());
+        f.say("circa demo: the pump-station scenario, files in " + dir.toAbsolutePath().normalize());
+        f.say("");
+        f.say("1. The regime mixture an engineer wrote by hand (normal operation, cavitation, worn valve),");
+        f.say("   converted into a circuit and proved equal to the mixture at sampled points.");
+        Path yaml = f.extract("mixtures/pump-station-regimes.yaml", "pump-station-regimes.yaml");
+        MixtureConverter.Result mix = MixtureConverter.convert(MixtureReader.read(yaml, LIMITS), MixtureOptions.DEFAULT);
+        f.indent(mix.summary());
+        Path regimes = f.write(mix.circuit(), "regimes.circuit.json", "the converted regime mixture");
 
-        say("");
-        say("2. A model trained elsewhere from a region graph; its parameters came from NumPy (example-params.npz).");
-        Path rg = extract("npz/example-regions.json", "station-regions.json");
-        Path npz = extract("npz/example-params.npz", "station-params.npz");
-        RegionStructure structure = RegionStructure.of(new RegionGraphReader(limits).read(rg));
-        CompileOptions options = new CompileOptions(3, 2, 1, CompileOptions.defaults().families());
-        RegionParameters params = RegionParameters.fromArchive(structure, options, NpzArchive.read(npz, limits.maxBytes()));
-        CircuitDocument stations = RegionCompiler.compile(params);
-        CompiledCircuit stationsCompiled = CompiledCircuit.compile(stations);
-        RegionVerifier.Result v = RegionVerifier.verify(params, stationsCompiled, 500, 0, 1e-9, 1e-9);
-        indent("compiled with 3 sums per region, 2 input bundles per leaf region: " + stations.nodes().size()
-                + " nodes, " + stations.edgeCount() + " edges\n" + v.summary());
-        Path stationsFile = dir.resolve("stations.circuit.json");
-        write(stations, stationsFile, "the compiled region-graph model");
+        f.say("");
+        f.say("2. A model trained elsewhere from a region graph; its parameters came from NumPy (example-params.npz).");
+        Path rg = f.extract("npz/example-regions.json", "station-regions.json");
+        Path npz = f.extract("npz/example-params.npz", "station-params.npz");
+        RegionConverter.Result stations = RegionConverter.convert(new RegionGraphReader(LIMITS).read(rg),
+                new CompileOptions(3, 2, 1, CompileOptions.defaults().families()), ParameterSource.file(npz),
+                new RegionConverter.Verification(500, 0, 1e-9, 1e-9), LIMITS);
+        CircuitDocument doc = stations.circuit();
+        f.indent("compiled with 3 sums per region, 2 input bundles per leaf region: " + doc.nodes().size()
+                + " nodes, " + doc.edgeCount() + " edges\n" + stations.verification().summary());
+        Path stationsFile = f.write(doc, "stations.circuit.json", "the compiled region-graph model");
 
-        say("");
-        say("3. Both files through the validator (schema, references, scopes, parameters, normalisation).");
+        f.say("");
+        f.say("3. Both files through the validator (schema, references, scopes, parameters, normalisation).");
         Validator validator = new Validator(ValidationOptions.defaults(), SchemaCheck.BUNDLED);
         boolean ok = true;
-        for (Path f : List.of(regimes, stationsFile)) {
-            ValidationReport r = validator.validate(f, limits);
+        for (Path p : List.of(regimes, stationsFile)) {
+            ValidationReport r = validator.validate(p, LIMITS);
             ok &= r.valid();
-            indent(f.getFileName() + ": " + (r.valid() ? "valid" : "INVALID") + ", smooth " + r.property(
-                    dev.circa.validator.Property.SMOOTH).toString().toLowerCase(java.util.Locale.ROOT)
-                    + ", decomposable " + r.property(dev.circa.validator.Property.DECOMPOSABLE).toString()
-                            .toLowerCase(java.util.Locale.ROOT)
+            f.indent(p.getFileName() + ": " + (r.valid() ? "valid" : "INVALID") + ", smooth "
+                    + lower(r.property(Property.SMOOTH)) + ", decomposable " + lower(r.property(Property.DECOMPOSABLE))
                     + ", log Z " + r.logPartition() + ", exact marginals " + r.exactQueries().marginal());
         }
 
-        say("");
-        say("4. The region-graph model against reference log-densities its training code computed");
-        say("   (NumPy 1.24 and SciPy 1.10, including rows with missing values).");
-        Path ref = extract("npz/example-reference.csv", "station-reference.csv");
-        RegressionCheck check = new RegressionCheck(stationsCompiled, Tolerance.DEFAULT);
-        check.checkReference(ref, limits);
+        f.say("");
+        f.say("4. The region-graph model against reference log-densities its training code computed");
+        f.say("   (NumPy 1.24 and SciPy 1.10, including rows with missing values).");
+        Path ref = f.extract("npz/example-reference.csv", "station-reference.csv");
+        RegressionCheck check = new RegressionCheck(stations.compiled(), Tolerance.DEFAULT);
+        check.checkReference(ref, LIMITS);
         CheckReport cr = check.report();
-        indent(cr.toText());
+        f.indent(cr.toText());
         ok &= cr.passed();
 
-        say("");
-        say("5. A deliberately broken export of the regime model: one product given a variable twice and one");
-        say("   sum's weights scaled by 1.25. The validator must catch both.");
-        Path broken = dir.resolve("broken-export.circuit.json");
-        write(breakExport(mix.circuit()), broken, "the broken export");
-        ValidationReport br = validator.validate(broken, limits);
-        int caught = 0;
-        for (Diagnostic d : br.diagnostics()) {
-            if (d.severity() == Severity.ERROR || d.severity() == Severity.WARNING) {
-                indent(d.render());
-                caught++;
-            }
-        }
-        indent("verdict: " + (br.valid() ? "valid (unexpected!)" : "INVALID, as it should be") + " (" + caught
-                + " diagnostics)");
-        ok &= !br.valid();
+        f.say("");
+        f.say("5. A deliberately broken export of the regime model: one product given a variable twice and one");
+        f.say("   sum's weights scaled by 1.25. The validator must catch both.");
+        ok &= caught(f, validator, f.write(BrokenExport.of(mix.circuit()), "broken-export.circuit.json", "the broken export"));
 
-        say("");
-        say("6. A picture of the small model (Graphviz DOT; draw it with: dot -Tsvg regimes.dot -o regimes.svg).");
-        Path dot = dir.resolve("regimes.dot");
+        f.say("");
+        f.say("6. A picture of the small model (Graphviz DOT; draw it with: dot -Tsvg regimes.dot -o regimes.svg).");
         String text = DotRenderer.render(CompiledCircuit.compile(mix.circuit()), new RenderOptions(true,
                 RenderOptions.DEFAULT_MAX_NODES));
-        AtomicOutput.write(dot, s -> s.write(text.getBytes(StandardCharsets.UTF_8)));
-        written.add(dot + "  (the regime model as a DOT graph, with scopes)");
+        f.writeText(text, "regimes.dot", "the regime model as a DOT graph, with scopes");
 
-        say("");
-        say("Files written:");
-        for (String w : written) {
-            say("  " + w);
-        }
-        say("");
-        say(ok ? "Every step behaved as expected. Remember: a valid file is not a good model; circa proves structure"
+        f.say("");
+        f.listWritten();
+        f.say("");
+        f.say(ok ? "Every step behaved as expected. Remember: a valid file is not a good model; circa proves structure"
                 + " and numbers, not fitness for a decision."
                 : "Some step did not behave as expected; see above.");
-        out.flush();
+        spec.commandLine().getOut().flush();
         return ok ? ExitStatus.OK : ExitStatus.FAILED;
     }
 
-    /** A copy of {@code circuit} with one product's first child repeated and one sum's weights scaled. */
-    private static CircuitDocument breakExport(CircuitDocument circuit) {
-        List<Node> nodes = new ArrayList<>(circuit.nodes());
-        boolean productBroken = false;
-        boolean sumBroken = false;
-        for (int i = 0; i < nodes.size(); i++) {
-            Node n = nodes.get(i);
-            if (!productBroken && n instanceof ProductNode p && p.children().length >= 2) {
-                int[] c = java.util.Arrays.copyOf(p.children(), p.children().length + 1);
-                c[c.length - 1] = c[0];
-                nodes.set(i, new ProductNode(p.id(), p.label(), c));
-                productBroken = true;
-            } else if (!sumBroken && n instanceof SumNode s && !s.logWeights()) {
-                double[] w = s.weights().clone();
-                for (int j = 0; j < w.length; j++) {
-                    w[j] *= 1.25;
-                }
-                nodes.set(i, new SumNode(s.id(), s.label(), s.children(), w, false));
-                sumBroken = true;
+    /** Validates the broken export and prints what the validator caught; whether it was found invalid. */
+    private static boolean caught(DemoFolder f, Validator validator, Path broken) throws Exception {
+        ValidationReport br = validator.validate(broken, LIMITS);
+        int caught = 0;
+        for (Diagnostic d : br.diagnostics()) {
+            if (d.severity() == Severity.ERROR || d.severity() == Severity.WARNING) {
+                f.indent(d.render());
+                caught++;
             }
         }
-        return CircuitDocument.builder().name("pump-station-regimes (broken export)")
-                .provenance(circuit.provenance()).variables(circuit.variables()).nodes(nodes)
-                .outputs(circuit.outputs()).build();
+        f.indent("verdict: " + (br.valid() ? "valid (unexpected!)" : "INVALID, as it should be") + " (" + caught
+                + " diagnostics)");
+        return !br.valid();
     }
 
-    private Path extract(String resource, String name) throws Exception {
-        Path target = dir.resolve(name);
-        try (InputStream in = DemoCommand.class.getResourceAsStream(RESOURCES + resource)) {
-            if (in == null) {
-                throw new UsageException("the demo's bundled file " + resource + " is missing from the jar");
-            }
-            byte[] bytes = in.readAllBytes();
-            AtomicOutput.write(target, s -> s.write(bytes));
-        }
-        written.add(target + "  (bundled input)");
-        return target;
-    }
-
-    private void write(CircuitDocument doc, Path target, String what) throws Exception {
-        new CircuitWriter().write(doc, target);
-        written.add(target + "  (" + what + ")");
-        indent("wrote " + target);
-    }
-
-    private void say(String s) {
-        out.println(s);
-    }
-
-    private void indent(String text) {
-        for (String line : text.split("\n")) {
-            if (!line.isBlank()) {
-                out.println("   " + line);
-            }
-        }
+    private static String lower(Object value) {
+        return value.toString().toLowerCase(Locale.ROOT);
     }
 }

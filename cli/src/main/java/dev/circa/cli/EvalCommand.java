@@ -4,10 +4,6 @@ import dev.circa.engine.CompiledCircuit;
 import dev.circa.engine.Evaluator;
 import dev.circa.format.csv.CellValues;
 import dev.circa.format.csv.CsvReader;
-import dev.circa.format.io.AtomicOutput;
-import java.io.BufferedWriter;
-import java.io.OutputStreamWriter;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
@@ -30,41 +26,36 @@ final class EvalCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "CIRCUIT", description = "The circuit file (.json or .json.gz).")
     Path circuitFile;
 
-    @Option(names = "--data", required = true, paramLabel = "DATA.csv", description = "The data rows.")
-    Path dataFile;
+    @Mixin
+    DataOption data;
 
     @Option(names = "--given", split = ",", paramLabel = "COLS", description = "Columns to condition on (comma-separated).")
     List<String> given = new ArrayList<>();
 
-    @Option(names = {"-o", "--output"}, paramLabel = "OUT.csv", description = "Output file (default: standard output).")
-    Path output = Path.of("-");
+    @Mixin
+    CsvOutput output;
 
     @Mixin
     ReadOptions read;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws Exception {
-        LoadedCircuit model = LoadedCircuit.load(circuitFile, read.limits(), spec.commandLine().getErr());
+        LoadedCircuit model = read.load(circuitFile);
         CompiledCircuit c = model.circuit();
         int nv = c.variableCount();
         int no = c.outputCount();
-        try (CsvReader csv = CsvReader.open(dataFile, read.limits())) {
+        try (CsvReader csv = CsvReader.open(data.file, read.limits())) {
             DataColumns cols = DataColumns.readHeader(csv, c.variables());
             boolean[] givenMask = new boolean[nv];
             for (String g : given) {
                 int col = cols.columnOf(g.strip());
                 if (col < 0) {
-                    throw new UsageException("--given names \"" + g + "\", which is not a column of " + dataFile);
+                    throw new UsageException("--given names \"" + g + "\", which is not a column of " + data.file);
                 }
                 givenMask[cols.variableOf(col)] = true;
             }
             String[] header = cols.header();
-            AtomicOutput.write(output, stream -> {
-                BufferedWriter w = new BufferedWriter(new OutputStreamWriter(stream, StandardCharsets.UTF_8));
-                CsvOut out = new CsvOut(w);
+            output.write(out -> {
                 String[] names = Arrays.copyOf(header, header.length + no);
                 for (int o = 0; o < no; o++) {
                     names[header.length + o] = no == 1 ? "log_density" : "log_density:" + c.outputName(o);
@@ -90,8 +81,7 @@ final class EvalCommand implements Callable<Integer> {
                         out.record(line);
                     }
                 }
-                out.flush();
-            }, circuitFile, dataFile);
+            }, circuitFile, data.file);
         }
         return ExitStatus.OK;
     }

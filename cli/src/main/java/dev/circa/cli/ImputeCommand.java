@@ -4,10 +4,6 @@ import dev.circa.engine.CompiledCircuit;
 import dev.circa.engine.Evaluator;
 import dev.circa.format.csv.CellValues;
 import dev.circa.format.csv.CsvReader;
-import dev.circa.format.io.AtomicOutput;
-import java.io.BufferedWriter;
-import java.io.OutputStreamWriter;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import picocli.CommandLine.Command;
@@ -26,33 +22,28 @@ final class ImputeCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "CIRCUIT", description = "The circuit file.")
     Path circuitFile;
 
-    @Option(names = "--data", required = true, paramLabel = "DATA.csv", description = "The data rows.")
-    Path dataFile;
+    @Mixin
+    DataOption data;
 
     @Option(names = "--output-name", paramLabel = "NAME", description = "The circuit output to use (default: the first).")
     String outputName;
 
-    @Option(names = {"-o", "--output"}, paramLabel = "OUT.csv", description = "Output file (default: standard output).")
-    Path output = Path.of("-");
+    @Mixin
+    CsvOutput output;
 
     @Mixin
     ReadOptions read;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws Exception {
-        LoadedCircuit model = LoadedCircuit.load(circuitFile, read.limits(), spec.commandLine().getErr());
+        LoadedCircuit model = read.load(circuitFile);
         CompiledCircuit c = model.circuit();
         int outIndex = OutputChoice.index(c, outputName);
         int nv = c.variableCount();
-        try (CsvReader csv = CsvReader.open(dataFile, read.limits())) {
+        try (CsvReader csv = CsvReader.open(data.file, read.limits())) {
             DataColumns cols = DataColumns.readHeader(csv, c.variables());
             String[] header = cols.header();
-            AtomicOutput.write(output, stream -> {
-                BufferedWriter w = new BufferedWriter(new OutputStreamWriter(stream, StandardCharsets.UTF_8));
-                CsvOut out = new CsvOut(w);
+            output.write(out -> {
                 out.record(header);
                 Evaluator ev = new Evaluator(c);
                 double[] data = new double[CHUNK * nv];
@@ -72,10 +63,9 @@ final class ImputeCommand implements Callable<Integer> {
                         out.record(line);
                     }
                 }
-                out.flush();
-            }, circuitFile, dataFile);
+            }, circuitFile, data.file);
         }
-        spec.commandLine().getErr().println(model.deterministic()
+        read.err().println(model.deterministic()
                 ? "circa impute: exact (the circuit is deterministic, so max-product gives the most probable explanation)"
                 : "circa impute: approximate (the circuit is not proven deterministic; max-product gives a lower bound "
                         + "of the most probable explanation, not necessarily the exact one)");

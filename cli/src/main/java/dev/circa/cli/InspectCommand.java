@@ -34,15 +34,12 @@ final class InspectCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws Exception {
         CircuitDocument doc = new CircuitReader(read.limits()).read(circuitFile);
         ValidationReport report = new Validator(ValidationOptions.defaults().withRequire("")
                 .withRule("CheckCaseFailed:off")).validate(doc);
-        PrintWriter out = spec.commandLine().getOut();
+        PrintWriter out = read.out();
         CircuitStats s = report.stats();
         int inputs = 0;
         int products = 0;

@@ -33,13 +33,10 @@ final class NormalizeCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws IOException {
         AtomicOutput.refuseInputs(output, circuitFile);
-        PrintWriter err = spec.commandLine().getErr();
+        PrintWriter err = read.err();
         LoadedCircuit model = LoadedCircuit.load(circuitFile, read.limits(), err);
         NormalizationResult r;
         try {

@@ -1,9 +1,17 @@
 package dev.circa.cli;
 
+import dev.circa.format.io.FormatException;
 import dev.circa.format.io.ReadLimits;
+import java.io.PrintWriter;
+import java.nio.file.Path;
+import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
+import picocli.CommandLine.Spec;
 
-/** The named read limits of CLI.md, shared by every subcommand that reads a file. */
+/**
+ * The named read limits of CLI.md, shared by every subcommand that reads a file, with the command's
+ * standard output and error and the loading of a circuit under those limits.
+ */
 public final class ReadOptions {
     @Option(names = "--max-bytes", paramLabel = "N",
             description = "Uncompressed bytes read from one file, gzip included (default: ${DEFAULT-VALUE}).")
@@ -23,6 +31,24 @@ public final class ReadOptions {
 
     @Option(names = "--debug", description = "Print stack traces of unexpected errors.")
     boolean debug;
+
+    @Spec(Spec.Target.MIXEE)
+    CommandSpec command;
+
+    /** The command's standard output. */
+    PrintWriter out() {
+        return command.commandLine().getOut();
+    }
+
+    /** The command's standard error. */
+    PrintWriter err() {
+        return command.commandLine().getErr();
+    }
+
+    /** The circuit in {@code file}, read under these limits, validated and compiled. */
+    LoadedCircuit load(Path file) throws FormatException {
+        return LoadedCircuit.load(file, limits(), err());
+    }
 
     /** The limits as set on the command line. */
     public ReadLimits limits() {

@@ -4,7 +4,6 @@ import dev.circa.converter.regions.GridRegions;
 import dev.circa.converter.regions.RandomRegions;
 import dev.circa.format.Variable;
 import dev.circa.format.regions.RegionGraph;
-import dev.circa.format.regions.RegionGraphWriter;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.concurrent.Callable;
@@ -45,14 +44,11 @@ final class RegionsCommand implements Runnable {
         @Option(names = "--seed", paramLabel = "S", description = "Seed (default: ${DEFAULT-VALUE}).")
         long seed = 0;
 
-        @Option(names = {"-o", "--output"}, required = true, paramLabel = "OUT", description = "The region graph to write.")
-        Path output;
+        @Mixin
+        RegionGraphOutput output;
 
         @Mixin
         ReadOptions read;
-
-        @picocli.CommandLine.Spec
-        picocli.CommandLine.Model.CommandSpec spec;
 
         @Override
         public Integer call() throws Exception {
@@ -77,9 +73,7 @@ final class RegionsCommand implements Runnable {
             } catch (IllegalArgumentException e) {
                 throw new UsageException(e.getMessage());
             }
-            new RegionGraphWriter().write(g, output, variablesFile);
-            spec.commandLine().getErr().printf("wrote %s: %d variables, %d regions, %d partitions%n", output,
-                    g.variables().size(), g.regions().size(), g.partitions().size());
+            output.write(g, variablesFile);
             return ExitStatus.OK;
         }
     }
@@ -95,11 +89,8 @@ final class RegionsCommand implements Runnable {
         @Option(names = "--width", required = true, paramLabel = "W", description = "Columns.")
         int width;
 
-        @Option(names = {"-o", "--output"}, required = true, paramLabel = "OUT", description = "The region graph to write.")
-        Path output;
-
-        @picocli.CommandLine.Spec
-        picocli.CommandLine.Model.CommandSpec spec;
+        @Mixin
+        RegionGraphOutput output;
 
         @Override
         public Integer call() throws Exception {
@@ -107,9 +98,7 @@ final class RegionsCommand implements Runnable {
                 throw new UsageException("--height and --width must be >= 1");
             }
             RegionGraph g = GridRegions.generate(height, width);
-            new RegionGraphWriter().write(g, output);
-            spec.commandLine().getErr().printf("wrote %s: %d variables, %d regions, %d partitions%n", output,
-                    g.variables().size(), g.regions().size(), g.partitions().size());
+            output.write(g);
             return ExitStatus.OK;
         }
     }

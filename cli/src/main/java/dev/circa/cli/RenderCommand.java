@@ -40,16 +40,13 @@ final class RenderCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws IOException {
         if (maxNodes < 0) {
             throw new UsageException("--max-render-nodes must be >= 0, got " + maxNodes);
         }
         AtomicOutput.refuseInputs(output, circuitFile);
-        PrintWriter err = spec.commandLine().getErr();
+        PrintWriter err = read.err();
         LoadedCircuit model = LoadedCircuit.load(circuitFile, read.limits(), err);
         RenderOptions options = new RenderOptions(scopes, maxNodes);
         if (DotRenderer.isSummary(model.circuit(), options)) {

@@ -5,7 +5,6 @@ import dev.circa.report.ModelReport;
 import dev.circa.report.ReportOptions;
 import dev.circa.report.ReportSource;
 import dev.circa.report.VariablePairs;
-import dev.circa.validator.regression.Tolerance;
 import java.io.BufferedWriter;
 import java.io.OutputStreamWriter;
 import java.io.PrintWriter;
@@ -41,26 +40,20 @@ final class ReportCommand implements Callable<Integer> {
             description = "Up to 6 pairs of variables drawn as 2-D marginal heat maps, e.g. inlet_pressure:outlet_pressure.")
     String pairs;
 
-    @Option(names = "--atol", paramLabel = "A", description = "Absolute tolerance of the checks (default: the file's checks value, else 1e-9).")
-    Double atol;
-
-    @Option(names = "--rtol", paramLabel = "R", description = "Relative tolerance of the checks (default: the file's checks value, else 1e-9).")
-    Double rtol;
+    @Mixin
+    CheckTolerance tolerance;
 
     @Mixin
     ReadOptions read;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws Exception {
-        PrintWriter err = spec.commandLine().getErr();
+        PrintWriter err = read.err();
         List<Path> inputs = new ArrayList<>(references);
         inputs.add(modelFile);
         Path[] in = inputs.toArray(new Path[0]);
         AtomicOutput.refuseInputs(output, in);
-        LoadedCircuit model = LoadedCircuit.load(modelFile, read.limits(), err);
+        LoadedCircuit model = read.load(modelFile);
         ReportOptions options = options(model);
         ReportSource src = ReportSource.of(modelFile, model.document(), model.circuit());
         write(src, options, output, in);
@@ -78,11 +71,7 @@ final class ReportCommand implements Callable<Integer> {
         } catch (IllegalArgumentException e) {
             throw new UsageException(e.getMessage());
         }
-        try {
-            return o.withTolerance(Tolerance.resolve(model.document().checks(), atol, rtol));
-        } catch (IllegalArgumentException e) {
-            throw new UsageException("--atol and --rtol must be finite and >= 0");
-        }
+        return o.withTolerance(tolerance.resolve(model.document().checks()));
     }
 
     /** Writes the report of {@code src} to {@code target} whole or not at all (also used by {@code circa demo}). */

@@ -4,10 +4,6 @@ import dev.circa.engine.CompiledCircuit;
 import dev.circa.engine.Sampler;
 import dev.circa.format.Variable;
 import dev.circa.format.csv.CellValues;
-import dev.circa.format.io.AtomicOutput;
-import java.io.BufferedWriter;
-import java.io.OutputStreamWriter;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.concurrent.Callable;
@@ -37,28 +33,23 @@ final class SampleCommand implements Callable<Integer> {
     @Option(names = "--output-name", paramLabel = "NAME", description = "The circuit output to sample (default: the first).")
     String outputName;
 
-    @Option(names = {"-o", "--output"}, paramLabel = "OUT.csv", description = "Output file (default: standard output).")
-    Path output = Path.of("-");
+    @Mixin
+    CsvOutput output;
 
     @Mixin
     ReadOptions read;
-
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
 
     @Override
     public Integer call() throws Exception {
         if (count < 0) {
             throw new UsageException("-n must be >= 0, got " + count);
         }
-        LoadedCircuit model = LoadedCircuit.load(circuitFile, read.limits(), spec.commandLine().getErr());
+        LoadedCircuit model = read.load(circuitFile);
         CompiledCircuit c = model.circuit();
         int outIndex = OutputChoice.index(c, outputName);
         List<Variable> vars = c.variables();
         int nv = vars.size();
-        AtomicOutput.write(output, stream -> {
-            BufferedWriter w = new BufferedWriter(new OutputStreamWriter(stream, StandardCharsets.UTF_8));
-            CsvOut out = new CsvOut(w);
+        output.write(out -> {
             out.record(vars.stream().map(Variable::name).toArray(String[]::new));
             Sampler sampler = new Sampler(c, seed);
             double[] buf = new double[CHUNK * nv];
@@ -75,7 +66,6 @@ final class SampleCommand implements Callable<Integer> {
                 }
                 left -= n;
             }
-            out.flush();
         }, circuitFile);
         return ExitStatus.OK;
     }

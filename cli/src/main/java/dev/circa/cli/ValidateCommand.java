@@ -57,9 +57,6 @@ final class ValidateCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
-    @picocli.CommandLine.Spec
-    picocli.CommandLine.Model.CommandSpec spec;
-
     @Override
     public Integer call() throws Exception {
         ReportFormat fmt;
@@ -77,8 +74,8 @@ final class ValidateCommand implements Callable<Integer> {
         if (!List.of("auto", "always", "never").contains(schemaCheck)) {
             throw new UsageException("--schema-check must be auto, always or never, got \"" + schemaCheck + "\"");
         }
-        PrintWriter out = spec.commandLine().getOut();
-        PrintWriter err = spec.commandLine().getErr();
+        PrintWriter out = read.out();
+        PrintWriter err = read.err();
         List<ValidationReport> reports = new ArrayList<>();
         int status = 0;
         for (Path f : files) {

@@ -75,7 +75,7 @@ class CheckCommandTest {
 
     @Test
     void check_commonsMathReference_passesWithStatus0() throws Exception {
-        CliRun r = CliRun.of("check", mixture("m.json", false).toString(), "--reference", reference().toString());
+        Cli.Result r = Cli.run("check", mixture("m.json", false).toString(), "--reference", reference().toString());
         assertEquals(ExitStatus.OK, r.status(), r::toString);
         assertTrue(r.out().startsWith("PASSED: 500 cases, 0 failures (atol 1.00e-09, rtol 1.00e-09)"), r::toString);
     }
@@ -85,18 +85,18 @@ class CheckCommandTest {
         // common practice: single-precision training code rounds every weight and parameter to float
         Path model = mixture("m32.json", true);
         Path ref = reference();
-        CliRun strict = CliRun.of("check", model.toString(), "--reference", ref.toString());
+        Cli.Result strict = Cli.run("check", model.toString(), "--reference", ref.toString());
         assertEquals(ExitStatus.FAILED, strict.status(), strict::toString);
         assertTrue(strict.out().startsWith("FAILED: 500 cases, "), strict::toString);
         assertTrue(strict.out().contains("worst cases:\n  FAIL " + ref + " row "), strict::toString);
         assertEquals(10, strict.out().lines().filter(l -> l.startsWith("  FAIL ") || l.startsWith("  pass ")).count(), strict::toString);
-        CliRun loose = CliRun.of("check", model.toString(), "--reference", ref.toString(), "--atol", "1e-5", "--rtol", "1e-5");
+        Cli.Result loose = Cli.run("check", model.toString(), "--reference", ref.toString(), "--atol", "1e-5", "--rtol", "1e-5");
         assertEquals(ExitStatus.OK, loose.status(), loose::toString);
     }
 
     @Test
     void check_jsonFormat_givesTheFieldsOfCliMd() throws Exception {
-        CliRun r = CliRun.of("check", mixture("m32.json", true).toString(), "--reference", reference().toString(), "--format", "json");
+        Cli.Result r = Cli.run("check", mixture("m32.json", true).toString(), "--reference", reference().toString(), "--format", "json");
         assertEquals(ExitStatus.FAILED, r.status(), r::toString);
         assertTrue(r.out().startsWith("{\"cases\": 500, \"failures\": "), r::toString);
         assertTrue(r.out().contains("\"maxAbsError\": ") && r.out().contains("\"maxRelError\": ")
@@ -106,7 +106,7 @@ class CheckCommandTest {
     @Test
     void check_formatExampleEmbeddedChecks_status0() {
         // FORMAT.md's reference values, computed with SciPy 1.10
-        CliRun r = CliRun.of("check", EXAMPLE.toString());
+        Cli.Result r = Cli.run("check", EXAMPLE.toString());
         assertEquals(ExitStatus.OK, r.status(), r::toString);
         assertTrue(r.out().startsWith("PASSED: 2 cases, 0 failures"), r::toString);
     }
@@ -115,7 +115,7 @@ class CheckCommandTest {
     void check_badReferenceCell_status2WithFileLineAndColumn() throws Exception {
         Path ref = dir.resolve("bad.csv");
         Files.writeString(ref, "inlet_pressure,valve,log_density\n3.0,open,0.18\n2.1,shut,-2.1\n");
-        CliRun r = CliRun.of("check", EXAMPLE.toString(), "--reference", ref.toString());
+        Cli.Result r = Cli.run("check", EXAMPLE.toString(), "--reference", ref.toString());
         assertEquals(ExitStatus.UNUSABLE, r.status(), r::toString);
         assertTrue(r.err().startsWith("circa: " + ref + ":3:5: "), r::toString);
         assertTrue(r.err().contains("not a value of valve"), r::toString);
@@ -124,7 +124,7 @@ class CheckCommandTest {
 
     @Test
     void check_nothingToCheck_status2() throws Exception {
-        CliRun r = CliRun.of("check", mixture("m.json", false).toString());
+        Cli.Result r = Cli.run("check", mixture("m.json", false).toString());
         assertEquals(ExitStatus.UNUSABLE, r.status(), r::toString);
         assertTrue(r.err().contains("nothing to check"), r::toString);
     }

@@ -16,7 +16,7 @@ import java.time.Duration;
 import java.util.Arrays;
 import java.util.HexFormat;
 
-/** Runs the command line in-process (through {@link Main#run}) for tests, with a hang guard. */
+/** The one test helper that runs the command line in-process (through {@link Main#run}), with a hang guard. */
 final class Cli {
     /** Only a guard against hangs: malformed input must end, however slowly (tests never assert on time). */
     static final Duration HANG_GUARD = Duration.ofSeconds(30);
@@ -41,6 +41,11 @@ final class Cli {
 
         String describe() {
             return String.join(" ", args) + " -> " + status + "\n" + err;
+        }
+
+        @Override
+        public String toString() {
+            return "status " + status + "\n--- out\n" + out + "--- err\n" + err;
         }
     }
 

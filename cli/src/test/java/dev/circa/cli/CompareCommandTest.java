@@ -33,7 +33,7 @@ class CompareCommandTest {
         // common practice: node order, ids and child order do not change a circuit's function
         Path b = dir.resolve("reordered.json");
         Files.writeString(b, REORDERED);
-        CliRun r = CliRun.of("compare", CheckCommandTest.EXAMPLE.toString(), b.toString(), "--samples", "300", "--seed", "4");
+        Cli.Result r = Cli.run("compare", CheckCommandTest.EXAMPLE.toString(), b.toString(), "--samples", "300", "--seed", "4");
         assertEquals(ExitStatus.OK, r.status(), r::toString);
         assertTrue(r.out().startsWith("the circuits are structurally identical (up to node order)\nAGREE: 1200 points, 0 disagreeing"),
                 r::toString);
@@ -43,12 +43,12 @@ class CompareCommandTest {
     void compare_changedWeight_status1WithLargestDisagreements() throws Exception {
         Path b = dir.resolve("changed.json");
         Files.writeString(b, REORDERED.replace("[0.15, 0.85]", "[0.16, 0.84]"));
-        CliRun r = CliRun.of("compare", CheckCommandTest.EXAMPLE.toString(), b.toString());
+        Cli.Result r = Cli.run("compare", CheckCommandTest.EXAMPLE.toString(), b.toString());
         assertEquals(ExitStatus.FAILED, r.status(), r::toString);
         assertFalse(r.out().contains("structurally identical"), r::toString);
         assertTrue(r.out().contains("DISAGREE: 4000 points"), r::toString);
         assertTrue(r.out().contains("largest disagreements:\n  DIFF output joint, point "), r::toString);
-        CliRun json = CliRun.of("compare", CheckCommandTest.EXAMPLE.toString(), b.toString(), "--format", "json", "--atol", "0.1");
+        Cli.Result json = Cli.run("compare", CheckCommandTest.EXAMPLE.toString(), b.toString(), "--format", "json", "--atol", "0.1");
         assertEquals(ExitStatus.OK, json.status(), json::toString);
         assertTrue(json.out().startsWith("{\"structurallyIdentical\": false, \"passed\": true, \"points\": 4000"), json::toString);
     }
@@ -57,7 +57,7 @@ class CompareCommandTest {
     void compare_otherVariables_status2WithClearMessage() throws Exception {
         Path b = dir.resolve("renamed.json");
         Files.writeString(b, REORDERED.replace("\"inlet_pressure\"", "\"outlet_pressure\""));
-        CliRun r = CliRun.of("compare", CheckCommandTest.EXAMPLE.toString(), b.toString());
+        Cli.Result r = Cli.run("compare", CheckCommandTest.EXAMPLE.toString(), b.toString());
         assertEquals(ExitStatus.UNUSABLE, r.status(), r::toString);
         assertTrue(r.err().contains("variable \"inlet_pressure\" of the first circuit is not a variable of the second"), r::toString);
     }

@@ -1,11 +1,11 @@
 package dev.circa.cli;
 
-import static org.junit.jupiter.api.Assertions.assertTimeoutPreemptively;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import com.code_intelligence.jazzer.junit.FuzzTest;
 import dev.circa.format.Variable;
 import dev.circa.format.VariableType;
+import dev.circa.format.csv.CellRanges;
 import dev.circa.format.csv.CsvReader;
 import dev.circa.format.io.InputMutator;
 import dev.circa.format.io.OwnErrors;
@@ -16,7 +16,6 @@ import java.io.InputStreamReader;
 import java.nio.charset.CodingErrorAction;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
-import java.time.Duration;
 import java.util.ArrayList;
 import java.util.List;
 import org.junit.jupiter.api.Test;
@@ -49,17 +48,7 @@ class DataColumnsFuzzTest {
         corpus.add(utf8("restarts,alarm,valve,inlet_pressure\n0,on,open,3.0\n2,0,1,2.5\n,,,\n12,off,closed,-1e3\n"));
         corpus.add(utf8("valve,alarm\r\n\"half\",\"1\"\r\n# comment\r\nopen,\r\n"));
         InputMutator mutator = new InputMutator(20261203L, corpus);
-        int[] outcome = new int[2];
-        assertTimeoutPreemptively(Duration.ofSeconds(60), () -> {
-            for (int i = 0; i < 10_000; i++) {
-                byte[] input = mutator.next();
-                try {
-                    outcome[OwnErrors.modelOrLocatedError(FILE, true, input, DataColumnsFuzzTest::readAll) != null ? 0 : 1]++;
-                } catch (AssertionError e) {
-                    throw new AssertionError("mutation " + i + " (" + mutator.lastMutations() + "): " + e.getMessage(), e);
-                }
-            }
-        });
+        int[] outcome = mutator.run(10_000, input -> OwnErrors.modelOrLocatedError(FILE, true, input, DataColumnsFuzzTest::readAll) != null);
         assertTrue(outcome[0] > 500 && outcome[1] > 500, outcome[0] + " files read, " + outcome[1] + " errors");
     }
 
@@ -75,20 +64,7 @@ class DataColumnsFuzzTest {
             String[][] cells = new String[CHUNK][cols.header().length];
             int rows;
             while ((rows = cols.readRows(data, cells, CHUNK)) > 0) {
-                for (int r = 0; r < rows; r++) {
-                    for (int v = 0; v < nv; v++) {
-                        double x = data[r * nv + v];
-                        Variable var = VARIABLES.get(v);
-                        boolean ok = Double.isNaN(x) || switch (var.type()) {
-                            case REAL -> Double.isFinite(x);
-                            case COUNT -> x >= 0 && x == Math.rint(x);
-                            default -> x >= 0 && x < var.stateCount() && x == Math.rint(x);
-                        };
-                        if (!ok) {
-                            throw new AssertionError(var.name() + " = " + x + " in row " + (total + r));
-                        }
-                    }
-                }
+                CellRanges.assertInRange(VARIABLES, data, rows, total);
                 total += rows;
             }
         }

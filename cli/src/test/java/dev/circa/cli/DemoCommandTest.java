@@ -15,18 +15,18 @@ class DemoCommandTest {
     @Test
     void demo_freshFolder_everyStepAsExpectedAndFilesWritten() {
         Path dir = tmp.resolve("demo");
-        CliRunner r = CliRunner.run("demo", dir.toString());
-        assertEquals(0, r.status, r.out + r.err);
+        Cli.Result r = Cli.run("demo", dir.toString());
+        assertEquals(0, r.status(), r.out() + r.err());
         for (String f : new String[] {"regimes.circuit.json", "stations.circuit.json", "broken-export.circuit.json",
             "regimes.dot", "station-reference.csv"}) {
             assertTrue(Files.isRegularFile(dir.resolve(f)), f);
-            assertTrue(r.out.contains(dir.resolve(f).toString()), "says where it wrote " + f);
+            assertTrue(r.out().contains(dir.resolve(f).toString()), "says where it wrote " + f);
         }
         // the NumPy/SciPy reference set (fixtures/npz/SOURCE.md) passes; the broken export is caught by both rules
-        assertTrue(r.out.contains("PASSED: 6 cases, 0 failures"), r.out);
-        assertTrue(r.out.contains("[ProductScopesOverlap]"), r.out);
-        assertTrue(r.out.contains("[WeightsNotNormalized]"), r.out);
-        assertEquals(0, CliRunner.run("validate", dir.resolve("regimes.circuit.json").toString()).status);
-        assertEquals(1, CliRunner.run("validate", dir.resolve("broken-export.circuit.json").toString()).status);
+        assertTrue(r.out().contains("PASSED: 6 cases, 0 failures"), r.out());
+        assertTrue(r.out().contains("[ProductScopesOverlap]"), r.out());
+        assertTrue(r.out().contains("[WeightsNotNormalized]"), r.out());
+        assertEquals(0, Cli.run("validate", dir.resolve("regimes.circuit.json").toString()).status());
+        assertEquals(1, Cli.run("validate", dir.resolve("broken-export.circuit.json").toString()).status());
     }
 }

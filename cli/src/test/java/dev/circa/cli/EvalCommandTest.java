@@ -22,8 +22,8 @@ class EvalCommandTest {
         Path data = tmp.resolve("d.csv");
         Files.writeString(data, "inlet_pressure,valve\n3.0,open\n2.1,\n");
         Path out = tmp.resolve("out.csv");
-        CliRunner r = CliRunner.run("eval", EXAMPLE, "--data", data.toString(), "-o", out.toString());
-        assertEquals(0, r.status, r.err);
+        Cli.Result r = Cli.run("eval", EXAMPLE, "--data", data.toString(), "-o", out.toString());
+        assertEquals(0, r.status(), r.err());
         List<String> lines = Files.readAllLines(out);
         assertEquals("inlet_pressure,valve,log_density", lines.get(0));
         // Reference values of FORMAT.md, computed independently with SciPy 1.10 (scipy.stats.norm.pdf).
@@ -40,10 +40,10 @@ class EvalCommandTest {
         Path marg = tmp.resolve("m.csv");
         Path justPressure = tmp.resolve("p.csv");
         Files.writeString(justPressure, "inlet_pressure\n3.0\n");
-        assertEquals(0, CliRunner.run("eval", EXAMPLE, "--data", data.toString(), "-o", joint.toString()).status);
-        assertEquals(0, CliRunner.run("eval", EXAMPLE, "--data", data.toString(), "--given", "inlet_pressure",
-                "-o", cond.toString()).status);
-        assertEquals(0, CliRunner.run("eval", EXAMPLE, "--data", justPressure.toString(), "-o", marg.toString()).status);
+        assertEquals(0, Cli.run("eval", EXAMPLE, "--data", data.toString(), "-o", joint.toString()).status());
+        assertEquals(0, Cli.run("eval", EXAMPLE, "--data", data.toString(), "--given", "inlet_pressure",
+                "-o", cond.toString()).status());
+        assertEquals(0, Cli.run("eval", EXAMPLE, "--data", justPressure.toString(), "-o", marg.toString()).status());
         double j = lastValue(joint);
         double c = lastValue(cond);
         double m = lastValue(marg);
@@ -55,18 +55,18 @@ class EvalCommandTest {
     void eval_unknownColumn_status2WithLocation() throws Exception {
         Path data = tmp.resolve("d.csv");
         Files.writeString(data, "inlet_pressure,flow\n3.0,1\n");
-        CliRunner r = CliRunner.run("eval", EXAMPLE, "--data", data.toString());
-        assertEquals(2, r.status);
-        assertTrue(r.err.contains("d.csv:1:16"), r.err);
-        assertTrue(r.err.contains("unknown column \"flow\""), r.err);
+        Cli.Result r = Cli.run("eval", EXAMPLE, "--data", data.toString());
+        assertEquals(2, r.status());
+        assertTrue(r.err().contains("d.csv:1:16"), r.err());
+        assertTrue(r.err().contains("unknown column \"flow\""), r.err());
     }
 
     @Test
     void sample_sameSeed_sameBytes() throws Exception {
         Path a = tmp.resolve("a.csv");
         Path b = tmp.resolve("b.csv");
-        assertEquals(0, CliRunner.run("sample", EXAMPLE, "-n", "5000", "--seed", "7", "-o", a.toString()).status);
-        assertEquals(0, CliRunner.run("sample", EXAMPLE, "-n", "5000", "--seed", "7", "-o", b.toString()).status);
+        assertEquals(0, Cli.run("sample", EXAMPLE, "-n", "5000", "--seed", "7", "-o", a.toString()).status());
+        assertEquals(0, Cli.run("sample", EXAMPLE, "-n", "5000", "--seed", "7", "-o", b.toString()).status());
         assertEquals(Files.readString(a), Files.readString(b));
         List<String> lines = Files.readAllLines(a);
         assertEquals("inlet_pressure,valve", lines.get(0));
@@ -83,8 +83,8 @@ class EvalCommandTest {
         Path data = tmp.resolve("d.csv");
         Files.writeString(data, "inlet_pressure,valve\n3.1,\n2.0,\n");
         Path out = tmp.resolve("o.csv");
-        CliRunner r = CliRunner.run("impute", EXAMPLE, "--data", data.toString(), "-o", out.toString());
-        assertEquals(0, r.status, r.err);
+        Cli.Result r = Cli.run("impute", EXAMPLE, "--data", data.toString(), "-o", out.toString());
+        assertEquals(0, r.status(), r.err());
         List<String> lines = Files.readAllLines(out);
         // At 3.1 bar the normal-operation component dominates (valve mostly open); at 2.0 bar the cavitation
         // component does (valve mostly closed): max-product by hand from the FORMAT.md parameters.

@@ -39,7 +39,7 @@ class NormalizeCommandTest {
     void normalize_scaledExample_recoversTheExampleAndReportsLogZ() throws Exception {
         Path in = scaled();
         Path out = dir.resolve("normalized.json");
-        CliRun r = CliRun.of("normalize", in.toString(), "-o", out.toString());
+        Cli.Result r = Cli.run("normalize", in.toString(), "-o", out.toString());
         assertEquals(ExitStatus.OK, r.status(), r::toString);
         Matcher m = Pattern.compile("output joint: log Z (\\S+) before, (\\S+) after").matcher(r.err());
         assertTrue(m.find(), r::toString);
@@ -53,10 +53,10 @@ class NormalizeCommandTest {
         assertEquals(0.85, root.weight(0), 1e-12);
         assertEquals(0.15, root.weight(1), 1e-12);
         assertArrayEquals(new double[] {0.05, 0.15, 0.80}, ((InputNode) doc.nodes().get(1)).params(), 1e-15);
-        CliRun cmp = CliRun.of("compare", out.toString(), CheckCommandTest.EXAMPLE.toString());
+        Cli.Result cmp = Cli.run("compare", out.toString(), CheckCommandTest.EXAMPLE.toString());
         assertEquals(ExitStatus.OK, cmp.status(), cmp::toString);
         // the shifted checks are the SciPy 1.10 values of FORMAT.md again
-        CliRun check = CliRun.of("check", out.toString());
+        Cli.Result check = Cli.run("check", out.toString());
         assertEquals(ExitStatus.OK, check.status(), check::toString);
     }
 
@@ -64,7 +64,7 @@ class NormalizeCommandTest {
     void normalize_outputNamesTheInput_refusedWithStatus2() throws Exception {
         Path in = scaled();
         String before = Files.readString(in);
-        CliRun r = CliRun.of("normalize", in.toString(), "-o", in.toString());
+        Cli.Result r = Cli.run("normalize", in.toString(), "-o", in.toString());
         assertEquals(ExitStatus.UNUSABLE, r.status(), r::toString);
         assertTrue(r.err().contains("refusing to write over an input file"), r::toString);
         assertEquals(before, Files.readString(in));
@@ -73,16 +73,9 @@ class NormalizeCommandTest {
     @Test
     void normalize_notDecomposable_refusedWithStatus2AndNoOutput() throws Exception {
         Path in = dir.resolve("overlap.json");
-        Files.writeString(in, """
-            {"format": "circa.circuit", "version": "1.0",
-             "variables": [{"name": "inlet_pressure", "type": "real"}],
-             "nodes": [{"id": 0, "input": "normal", "var": 0, "mean": 3.1, "sd": 0.2},
-                       {"id": 1, "input": "normal", "var": 0, "mean": 2.2, "sd": 0.5},
-                       {"id": 2, "product": [0, 1]}],
-             "outputs": [{"name": "joint", "node": 2}]}
-            """);
+        Files.writeString(in, ValidateCommandTest.OVERLAP);
         Path out = dir.resolve("never.json");
-        CliRun r = CliRun.of("normalize", in.toString(), "-o", out.toString());
+        Cli.Result r = Cli.run("normalize", in.toString(), "-o", out.toString());
         assertEquals(ExitStatus.UNUSABLE, r.status(), r::toString);
         // CLI.md: a decomposability diagnostic names the product and a variable its children share
         assertTrue(r.err().contains("inlet_pressure"), r::toString);

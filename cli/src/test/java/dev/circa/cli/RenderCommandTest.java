@@ -15,7 +15,7 @@ class RenderCommandTest {
     @Test
     void render_exampleWithScopes_writesDotFile() throws Exception {
         Path out = dir.resolve("pump.dot");
-        CliRun r = CliRun.of("render", CheckCommandTest.EXAMPLE.toString(), "-o", out.toString(), "--scopes");
+        Cli.Result r = Cli.run("render", CheckCommandTest.EXAMPLE.toString(), "-o", out.toString(), "--scopes");
         assertEquals(ExitStatus.OK, r.status(), r::toString);
         String dot = Files.readString(out);
         // Graphviz DOT language (common practice): a digraph with one statement per line here
@@ -27,7 +27,7 @@ class RenderCommandTest {
     @Test
     void render_aboveMaxRenderNodes_summaryByScope() throws Exception {
         Path out = dir.resolve("summary.dot");
-        CliRun r = CliRun.of("render", CheckCommandTest.EXAMPLE.toString(), "-o", out.toString(), "--max-render-nodes", "3");
+        Cli.Result r = Cli.run("render", CheckCommandTest.EXAMPLE.toString(), "-o", out.toString(), "--max-render-nodes", "3");
         assertEquals(ExitStatus.OK, r.status(), r::toString);
         assertTrue(r.err().contains("7 nodes is more than --max-render-nodes 3: drawing a summary by scope"), r::toString);
         String dot = Files.readString(out);

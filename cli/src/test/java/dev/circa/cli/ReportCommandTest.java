@@ -16,10 +16,10 @@ class ReportCommandTest {
     @Test
     void report_exampleWithPair_writesTheWholePage() throws Exception {
         Path out = dir.resolve("report.html");
-        CliRun r = CliRun.of("report", CheckCommandTest.EXAMPLE.toString(), "--pairs", "inlet_pressure:valve", "-o",
+        Cli.Result r = Cli.run("report", Cli.EXAMPLE.toString(), "--pairs", "inlet_pressure:valve", "-o",
                 out.toString());
-        assertEquals(ExitStatus.OK, r.status(), r::toString);
-        assertTrue(r.err().contains("circa report: wrote " + out + " (valid model, 2 marginals, 1 pairs"), r::toString);
+        assertEquals(ExitStatus.OK, r.status(), r::describe);
+        assertTrue(r.err().contains("circa report: wrote " + out + " (valid model, 2 marginals, 1 pairs"), r::describe);
         String page = Files.readString(out);
         assertTrue(page.startsWith("<!DOCTYPE html>") && page.endsWith("</html>\n"));
         for (String id : new String[] {"summary", "verdict", "checks", "marginals", "pairs", "structure"}) {
@@ -33,10 +33,10 @@ class ReportCommandTest {
     @Test
     void report_unknownPairVariable_status2AndNoFile() {
         Path out = dir.resolve("report.html");
-        CliRun r = CliRun.of("report", CheckCommandTest.EXAMPLE.toString(), "--pairs", "inlet_pressure:flow", "-o",
+        Cli.Result r = Cli.run("report", Cli.EXAMPLE.toString(), "--pairs", "inlet_pressure:flow", "-o",
                 out.toString());
-        assertEquals(ExitStatus.UNUSABLE, r.status(), r::toString);
-        assertTrue(r.err().contains("no variable \"flow\"; expected one of inlet_pressure, valve"), r::toString);
+        assertEquals(ExitStatus.UNUSABLE, r.status(), r::describe);
+        assertTrue(r.err().contains("no variable \"flow\"; expected one of inlet_pressure, valve"), r::describe);
         assertFalse(Files.exists(out));
     }
 
@@ -45,32 +45,32 @@ class ReportCommandTest {
         Path out = dir.resolve("report.html");
         Path ref = dir.resolve("ref.csv");
         Files.writeString(ref, "inlet_pressure,valve,log_density\n3.0,open,x\n");
-        CliRun r = CliRun.of("report", CheckCommandTest.EXAMPLE.toString(), "--reference", ref.toString(), "-o",
+        Cli.Result r = Cli.run("report", Cli.EXAMPLE.toString(), "--reference", ref.toString(), "-o",
                 out.toString());
-        assertEquals(ExitStatus.UNUSABLE, r.status(), r::toString);
-        assertTrue(r.err().contains(ref.toString()), r::toString);
+        assertEquals(ExitStatus.UNUSABLE, r.status(), r::describe);
+        assertTrue(r.err().contains(ref.toString()), r::describe);
         assertFalse(Files.exists(out));
     }
 
     @Test
     void report_outputNamesTheModel_refused() throws Exception {
         Path model = dir.resolve("model.json");
-        Files.copy(CheckCommandTest.EXAMPLE, model);
+        Files.copy(Cli.EXAMPLE, model);
         byte[] before = Files.readAllBytes(model);
-        CliRun r = CliRun.of("report", model.toString(), "-o", model.toString());
-        assertEquals(ExitStatus.UNUSABLE, r.status(), r::toString);
+        Cli.Result r = Cli.run("report", model.toString(), "-o", model.toString());
+        assertEquals(ExitStatus.UNUSABLE, r.status(), r::describe);
         assertTrue(java.util.Arrays.equals(before, Files.readAllBytes(model)), "the input is untouched");
     }
 
     @Test
     void report_productOverSharedVariable_status2() throws Exception {
         Path model = dir.resolve("overlap.json");
-        Files.writeString(model, Files.readString(CheckCommandTest.EXAMPLE).replace("{\"id\": 5, \"product\": [3, 4]}",
+        Files.writeString(model, Files.readString(Cli.EXAMPLE).replace("{\"id\": 5, \"product\": [3, 4]}",
                 "{\"id\": 5, \"product\": [3, 4, 0]}"));
         Path out = dir.resolve("report.html");
-        CliRun r = CliRun.of("report", model.toString(), "-o", out.toString());
-        assertEquals(ExitStatus.UNUSABLE, r.status(), r::toString);
-        assertTrue(r.err().contains("ProductScopesOverlap"), r::toString);
+        Cli.Result r = Cli.run("report", model.toString(), "-o", out.toString());
+        assertEquals(ExitStatus.UNUSABLE, r.status(), r::describe);
+        assertTrue(r.err().contains("ProductScopesOverlap"), r::describe);
         assertFalse(Files.exists(out));
     }
 }

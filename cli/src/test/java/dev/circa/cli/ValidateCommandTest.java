@@ -13,7 +13,8 @@ import tools.jackson.databind.json.JsonMapper;
 
 class ValidateCommandTest {
     private static final String EXAMPLE = "../fixtures/circuits/pump-station.json";
-    private static final String OVERLAP = """
+    /** A product over one variable twice (not decomposable). */
+    static final String OVERLAP = """
         {"format": "circa.circuit", "version": "1.0",
          "variables": [{"name": "inlet_pressure", "type": "real"}],
          "nodes": [{"id": 0, "input": "normal", "var": 0, "mean": 3.1, "sd": 0.2},
@@ -27,28 +28,28 @@ class ValidateCommandTest {
 
     @Test
     void validate_formatExample_status0AndSummary() {
-        CliRunner r = CliRunner.run("validate", EXAMPLE);
-        assertEquals(0, r.status, r.err);
-        assertTrue(r.out.contains("smooth true, decomposable true"), r.out);
+        Cli.Result r = Cli.run("validate", EXAMPLE);
+        assertEquals(0, r.status(), r.err());
+        assertTrue(r.out().contains("smooth true, decomposable true"), r.out());
     }
 
     @Test
     void validate_overlappingProduct_status1WithWitnessPointer() throws Exception {
         Path f = tmp.resolve("overlap.json");
         Files.writeString(f, OVERLAP);
-        CliRunner r = CliRunner.run("validate", f.toString());
-        assertEquals(1, r.status, r.out + r.err);
-        assertTrue(r.out.contains("[ProductScopesOverlap]"), r.out);
-        assertTrue(r.out.contains("at /nodes/2 (line 5, column 12)"), r.out);
+        Cli.Result r = Cli.run("validate", f.toString());
+        assertEquals(1, r.status(), r.out() + r.err());
+        assertTrue(r.out().contains("[ProductScopesOverlap]"), r.out());
+        assertTrue(r.out().contains("at /nodes/2 (line 5, column 12)"), r.out());
     }
 
     @Test
     void validate_severalFilesJson_arrayAndHighestStatus() throws Exception {
         Path bad = tmp.resolve("overlap.json");
         Files.writeString(bad, OVERLAP);
-        CliRunner r = CliRunner.run("validate", "--format", "json", EXAMPLE, bad.toString());
-        assertEquals(1, r.status);
-        JsonNode arr = JsonMapper.builder().build().readTree(r.out);
+        Cli.Result r = Cli.run("validate", "--format", "json", EXAMPLE, bad.toString());
+        assertEquals(1, r.status());
+        JsonNode arr = JsonMapper.builder().build().readTree(r.out());
         assertTrue(arr.isArray());
         assertEquals(2, arr.size());
         assertTrue(arr.get(0).get("valid").asBoolean());
@@ -61,32 +62,32 @@ class ValidateCommandTest {
     void validate_syntaxError_status2WithLineAndColumn() throws Exception {
         Path f = tmp.resolve("broken.json");
         Files.writeString(f, "{\"format\": \"circa.circuit\",\n \"version\": 1.0.0}");
-        CliRunner r = CliRunner.run("validate", f.toString(), EXAMPLE);
-        assertEquals(2, r.status);
-        assertTrue(r.err.contains("broken.json:2:"), r.err);
-        assertFalse(r.err.contains("at dev.circa"), "no stack trace: " + r.err);
+        Cli.Result r = Cli.run("validate", f.toString(), EXAMPLE);
+        assertEquals(2, r.status());
+        assertTrue(r.err().contains("broken.json:2:"), r.err());
+        assertFalse(r.err().contains("at dev.circa"), "no stack trace: " + r.err());
     }
 
     @Test
     void validate_requireDeterministic_exampleNotDeterministic_status1() {
-        CliRunner r = CliRunner.run("validate", "--require", "smooth,decomposable,deterministic", EXAMPLE);
-        assertEquals(1, r.status, r.out);
-        assertTrue(r.out.contains("SumNotDeterministic"), r.out);
+        Cli.Result r = Cli.run("validate", "--require", "smooth,decomposable,deterministic", EXAMPLE);
+        assertEquals(1, r.status(), r.out());
+        assertTrue(r.out().contains("SumNotDeterministic"), r.out());
     }
 
     @Test
     void validate_ruleOff_unknownCode_status2() {
-        CliRunner r = CliRunner.run("validate", "--rule", "NoSuchRule:off", EXAMPLE);
-        assertEquals(2, r.status);
-        assertTrue(r.err.contains("NoSuchRule"), r.err);
+        Cli.Result r = Cli.run("validate", "--rule", "NoSuchRule:off", EXAMPLE);
+        assertEquals(2, r.status());
+        assertTrue(r.err().contains("NoSuchRule"), r.err());
     }
 
     @Test
     void validate_sarif_hasVersionAndRules() throws Exception {
         Path bad = tmp.resolve("overlap.json");
         Files.writeString(bad, OVERLAP);
-        CliRunner r = CliRunner.run("validate", "--format", "sarif", bad.toString());
-        JsonNode sarif = JsonMapper.builder().build().readTree(r.out);
+        Cli.Result r = Cli.run("validate", "--format", "sarif", bad.toString());
+        JsonNode sarif = JsonMapper.builder().build().readTree(r.out());
         assertEquals("2.1.0", sarif.get("version").asString());
         assertTrue(sarif.get("runs").get(0).get("results").size() >= 1);
     }
@@ -97,16 +98,16 @@ class ValidateCommandTest {
         Files.writeString(bad, OVERLAP);
         Path data = tmp.resolve("d.csv");
         Files.writeString(data, "inlet_pressure\n3.0\n");
-        CliRunner r = CliRunner.run("eval", bad.toString(), "--data", data.toString());
-        assertEquals(2, r.status);
-        assertTrue(r.err.contains("ProductScopesOverlap"), r.err);
+        Cli.Result r = Cli.run("eval", bad.toString(), "--data", data.toString());
+        assertEquals(2, r.status());
+        assertTrue(r.err().contains("ProductScopesOverlap"), r.err());
     }
 
     @Test
     void inspect_formatExample_listsSizesAndTree() {
-        CliRunner r = CliRunner.run("inspect", EXAMPLE);
-        assertEquals(0, r.status, r.err);
-        assertTrue(r.out.contains("nodes:     7 (4 inputs, 2 products, 1 sums)"), r.out);
-        assertTrue(r.out.contains("variable tree: [0, 1]"), r.out);
+        Cli.Result r = Cli.run("inspect", EXAMPLE);
+        assertEquals(0, r.status(), r.err());
+        assertTrue(r.out().contains("nodes:     7 (4 inputs, 2 products, 1 sums)"), r.out());
+        assertTrue(r.out().contains("variable tree: [0, 1]"), r.out());
     }
 }

@@ -13,27 +13,7 @@ class DenseBlockEvaluatorTest extends EvaluatorContractTest {
         Evaluator e = Evaluator.everyCandidateBlock(circuit);
         assertTrue(e.usesDenseBlocks() || circuit.edgeCount() == 0 || !hasSumOverProducts(circuit),
                 "the forced dense path takes every sum over products");
-        return new Variant() {
-            @Override
-            public void logDensity(double[] data, int rows, double[] out) {
-                e.logDensity(data, rows, out);
-            }
-
-            @Override
-            public void conditional(double[] data, int rows, boolean[] given, double[] out) {
-                e.conditional(data, rows, given, out);
-            }
-
-            @Override
-            public double[] logPartition() {
-                return e.logPartition();
-            }
-
-            @Override
-            public void mpe(double[] data, int rows, int output, double[] completed, double[] logValue) {
-                e.mpe(data, rows, output, completed, logValue);
-            }
-        };
+        return of(e);
     }
 
     static boolean hasSumOverProducts(CompiledCircuit circuit) {

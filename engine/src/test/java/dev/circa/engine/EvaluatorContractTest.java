@@ -19,7 +19,7 @@ import org.junit.jupiter.api.Test;
 
 /**
  * What every evaluator variant must do. A variant's test extends this class and says how to build it;
- * the generic {@link Evaluator} is the first.
+ * the generic path ({@link Evaluator.Mode#GENERIC}) is the first.
  */
 abstract class EvaluatorContractTest {
     static final Path PUMP_STATION = Path.of("..", "fixtures", "circuits", "pump-station.json");
@@ -37,6 +37,46 @@ abstract class EvaluatorContractTest {
 
     /** A fresh evaluator variant for {@code circuit}. */
     protected abstract Variant create(CompiledCircuit circuit);
+
+    /** The variant that runs every operation on {@code e}. */
+    static Variant of(Evaluator e) {
+        return of(e, e::logDensity, e::conditional);
+    }
+
+    /** The variant that runs densities and conditionals as given, partition and MPE on {@code e}. */
+    static Variant of(Evaluator e, Densities densities, Conditionals conditionals) {
+        return new Variant() {
+            @Override
+            public void logDensity(double[] data, int rows, double[] out) {
+                densities.logDensity(data, rows, out);
+            }
+
+            @Override
+            public void conditional(double[] data, int rows, boolean[] given, double[] out) {
+                conditionals.conditional(data, rows, given, out);
+            }
+
+            @Override
+            public double[] logPartition() {
+                return e.logPartition();
+            }
+
+            @Override
+            public void mpe(double[] data, int rows, int output, double[] completed, double[] logValue) {
+                e.mpe(data, rows, output, completed, logValue);
+            }
+        };
+    }
+
+    /** Log-densities of a batch of rows. */
+    interface Densities {
+        void logDensity(double[] data, int rows, double[] out);
+    }
+
+    /** Conditional log-densities of a batch of rows. */
+    interface Conditionals {
+        void conditional(double[] data, int rows, boolean[] given, double[] out);
+    }
 
     private double[] densities(CompiledCircuit circuit, double[] rows) {
         double[] out = new double[rows.length / circuit.variableCount() * circuit.outputCount()];

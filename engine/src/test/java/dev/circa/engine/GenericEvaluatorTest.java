@@ -1,30 +1,13 @@
 package dev.circa.engine;
 
-/** The contract for the generic node-by-node {@link Evaluator}. */
+import static org.junit.jupiter.api.Assertions.assertFalse;
+
+/** The contract for the generic node-by-node path, forced with {@link Evaluator.Mode#GENERIC}. */
 class GenericEvaluatorTest extends EvaluatorContractTest {
     @Override
     protected Variant create(CompiledCircuit circuit) {
-        Evaluator e = new Evaluator(circuit);
-        return new Variant() {
-            @Override
-            public void logDensity(double[] data, int rows, double[] out) {
-                e.logDensity(data, rows, out);
-            }
-
-            @Override
-            public void conditional(double[] data, int rows, boolean[] given, double[] out) {
-                e.conditional(data, rows, given, out);
-            }
-
-            @Override
-            public double[] logPartition() {
-                return e.logPartition();
-            }
-
-            @Override
-            public void mpe(double[] data, int rows, int output, double[] completed, double[] logValue) {
-                e.mpe(data, rows, output, completed, logValue);
-            }
-        };
+        Evaluator e = new Evaluator(circuit, Evaluator.Mode.GENERIC);
+        assertFalse(e.usesDenseBlocks(), "the generic mode evaluates no dense block");
+        return of(e);
     }
 }

@@ -1,7 +1,6 @@
 package dev.circa.format;
 
 import java.util.List;
-import tools.jackson.databind.JsonNode;
 
 /**
  * A circuit document (FORMAT.md section 2) as read, before any validation: node ids, child
@@ -10,38 +9,24 @@ import tools.jackson.databind.JsonNode;
  *
  * <p>Instances are immutable once built and safe to share between threads.
  */
-public final class CircuitDocument {
+public final class CircuitDocument implements Document {
     /** The value of {@code format} for a circuit. */
     public static final String FORMAT = "circa.circuit";
 
-    private final String version;
-    private final String name;
-    private final String description;
-    private final Provenance provenance;
-    private final List<Variable> variables;
+    private final Header header;
     private final List<Node> nodes;
     private final List<Output> outputs;
     private final Checks checks;
-    private final JsonNode extensions;
     private final NodeLocations nodeLocations;
     private final DocumentLocations locations;
-    private final List<ReadFinding> findings;
-    private final String source;
 
     private CircuitDocument(Builder b) {
-        this.version = b.version;
-        this.name = b.name;
-        this.description = b.description;
-        this.provenance = b.provenance;
-        this.variables = List.copyOf(b.variables);
+        this.header = b.header();
         this.nodes = List.copyOf(b.nodes);
         this.outputs = List.copyOf(b.outputs);
         this.checks = b.checks;
-        this.extensions = b.extensions;
         this.nodeLocations = b.nodeLocations == null ? NodeLocations.NONE : b.nodeLocations;
         this.locations = b.locations == null ? DocumentLocations.NONE : b.locations;
-        this.findings = List.copyOf(b.findings);
-        this.source = b.source;
     }
 
     /** A builder for documents made in code (converters, tests). */
@@ -49,29 +34,9 @@ public final class CircuitDocument {
         return new Builder();
     }
 
-    /** The document's {@code version}, e.g. {@code "1.0"}. */
-    public String version() {
-        return version;
-    }
-
-    /** Optional name, or {@code null}. */
-    public String name() {
-        return name;
-    }
-
-    /** Optional description, or {@code null}. */
-    public String description() {
-        return description;
-    }
-
-    /** Optional provenance, or {@code null}. */
-    public Provenance provenance() {
-        return provenance;
-    }
-
-    /** The variables, by index. */
-    public List<Variable> variables() {
-        return variables;
+    @Override
+    public Header header() {
+        return header;
     }
 
     /** The nodes in document order. */
@@ -87,21 +52,6 @@ public final class CircuitDocument {
     /** The embedded checks, or {@code null}. */
     public Checks checks() {
         return checks;
-    }
-
-    /** The free-form {@code extensions} object, or {@code null}. */
-    public JsonNode extensions() {
-        return extensions;
-    }
-
-    /** Things the reader noticed that did not stop it (unknown properties). */
-    public List<ReadFinding> findings() {
-        return findings;
-    }
-
-    /** The file the document was read from (for messages), or {@code null}. */
-    public String source() {
-        return source;
     }
 
     /** Where node {@code index} (its position in {@link #nodes()}) starts: pointer {@code /nodes/INDEX}. */
@@ -124,47 +74,14 @@ public final class CircuitDocument {
     }
 
     /** Builds a {@link CircuitDocument}. Not thread-safe. */
-    public static final class Builder {
-        private String version = "1.0";
-        private String name;
-        private String description;
-        private Provenance provenance;
-        private List<Variable> variables = List.of();
+    public static final class Builder extends Header.Setters<Builder> {
         private List<Node> nodes = List.of();
         private List<Output> outputs = List.of();
         private Checks checks;
-        private JsonNode extensions;
         private NodeLocations nodeLocations;
         private DocumentLocations locations;
-        private List<ReadFinding> findings = List.of();
-        private String source;
 
         private Builder() {
-        }
-
-        public Builder version(String v) {
-            this.version = v;
-            return this;
-        }
-
-        public Builder name(String v) {
-            this.name = v;
-            return this;
-        }
-
-        public Builder description(String v) {
-            this.description = v;
-            return this;
-        }
-
-        public Builder provenance(Provenance v) {
-            this.provenance = v;
-            return this;
-        }
-
-        public Builder variables(List<Variable> v) {
-            this.variables = v;
-            return this;
         }
 
         public Builder nodes(List<Node> v) {
@@ -182,11 +99,6 @@ public final class CircuitDocument {
             return this;
         }
 
-        public Builder extensions(JsonNode v) {
-            this.extensions = v;
-            return this;
-        }
-
         public Builder nodeLocations(NodeLocations v) {
             this.nodeLocations = v;
             return this;
@@ -194,16 +106,6 @@ public final class CircuitDocument {
 
         public Builder locations(DocumentLocations v) {
             this.locations = v;
-            return this;
-        }
-
-        public Builder findings(List<ReadFinding> v) {
-            this.findings = v;
-            return this;
-        }
-
-        public Builder source(String v) {
-            this.source = v;
             return this;
         }
 

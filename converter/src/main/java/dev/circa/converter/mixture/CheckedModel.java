@@ -1,5 +1,7 @@
 package dev.circa.converter.mixture;
 
+import dev.circa.engine.family.ParameterLimits;
+import dev.circa.engine.family.ParameterLimits.Limit;
 import dev.circa.format.Family;
 import dev.circa.format.SourceLocation;
 import dev.circa.format.Variable;
@@ -11,6 +13,8 @@ import dev.circa.format.mixture.MixtureDocument;
 import dev.circa.format.mixture.MixtureEntry;
 import dev.circa.format.mixture.MixtureExpr;
 import dev.circa.format.mixture.ProductExpr;
+import dev.circa.validator.analysis.Numbers;
+import java.util.List;
 import java.util.Locale;
 
 /**
@@ -219,12 +223,11 @@ final class CheckedModel {
         String path = in.path() + "." + f.jsonName();
         SourceLocation l = in.paramsLocation();
         switch (f) {
-            case BERNOULLI -> probability(doc, p[0], "p", l, path);
             case CATEGORICAL -> {
                 double sum = 0;
                 Variable v = doc.variables().get(in.vars()[0]);
                 for (int s = 0; s < p.length; s++) {
-                    if (!(p[s] >= 0)) {
+                    if (!ParameterLimits.of(Family.CATEGORICAL).get(0).holds(p[s], Integer.MAX_VALUE)) {
                         throw error(doc, l, path, "the probability of " + label(v, s) + " is " + fmt(p[s])
                                 + "; expected probabilities >= 0");
                     }
@@ -238,45 +241,45 @@ final class CheckedModel {
             case INDICATOR -> {
                 // the reader has resolved the value to a state of the variable
             }
-            case NORMAL -> positive(doc, p[1], "sd", l, path);
-            case LOGNORMAL -> positive(doc, p[1], "sigma", l, path);
-            case EXPONENTIAL, POISSON -> positive(doc, p[0], "rate", l, path);
-            case GAMMA -> {
-                positive(doc, p[0], "shape", l, path);
-                positive(doc, p[1], "rate", l, path);
-            }
-            case BETA -> {
-                positive(doc, p[0], "alpha", l, path);
-                positive(doc, p[1], "beta", l, path);
-            }
-            case UNIFORM -> {
-                if (!(p[0] < p[1])) {
-                    throw error(doc, l, path, "uniform low " + fmt(p[0]) + " is not below high " + fmt(p[1])
-                            + "; expected low < high");
-                }
-            }
-            case BINOMIAL -> {
-                if (!(p[0] >= 0) || p[0] != Math.rint(p[0]) || p[0] > Integer.MAX_VALUE) {
-                    throw error(doc, l, path, "binomial trials " + fmt(p[0]) + " is not an integer >= 0");
-                }
-                probability(doc, p[1], "p", l, path);
-            }
             case MVNORMAL -> checkCovariance(doc, java.util.Arrays.copyOfRange(p, in.vars().length, p.length),
                     in.vars().length, l, path + ".cov");
-            default -> throw new IllegalStateException("family " + f);
+            default -> checkLimits(doc, f, p, l, path);
+        }
+    }
+
+    /** Each parameter of a one-variable family but categorical and indicator against {@link ParameterLimits}. */
+    private static void checkLimits(MixtureDocument doc, Family f, double[] p, SourceLocation l, String path)
+            throws FormatException {
+        List<Limit> limits = ParameterLimits.of(f);
+        for (int k = 0; k < limits.size(); k++) {
+            Limit limit = limits.get(k);
+            String name = f.parameters().get(k);
+            // trials must also fit the sampler's int
+            if (limit == Limit.COUNT && !(limit.holds(p[k], Integer.MAX_VALUE) && p[k] <= Integer.MAX_VALUE)) {
+                throw error(doc, l, path, "binomial trials " + fmt(p[k]) + " is not an integer >= 0");
+            }
+            if (limit == Limit.POSITIVE) {
+                positive(doc, p[k], name, l, path);
+            } else if (limit == Limit.PROBABILITY) {
+                probability(doc, p[k], name, l, path);
+            }
+        }
+        if (!ParameterLimits.inOrder(f, p)) {
+            throw error(doc, l, path, "uniform low " + fmt(p[0]) + " is not below high " + fmt(p[1])
+                    + "; expected low < high");
         }
     }
 
     private static void positive(MixtureDocument doc, double v, String name, SourceLocation l, String path)
             throws FormatException {
-        if (!(v > 0)) {
+        if (!Limit.POSITIVE.holds(v, Integer.MAX_VALUE)) {
             throw error(doc, l, path, name + " is " + fmt(v) + "; expected " + name + " > 0");
         }
     }
 
     private static void probability(MixtureDocument doc, double v, String name, SourceLocation l, String path)
             throws FormatException {
-        if (!(v >= 0 && v <= 1)) {
+        if (!Limit.PROBABILITY.holds(v, Integer.MAX_VALUE)) {
             throw error(doc, l, path, name + " is " + fmt(v) + "; expected a probability in [0, 1]");
         }
     }

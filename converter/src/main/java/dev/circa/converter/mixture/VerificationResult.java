@@ -1,5 +1,6 @@
 package dev.circa.converter.mixture;
 
+import dev.circa.validator.analysis.Numbers;
 import java.util.List;
 import java.util.Locale;
 

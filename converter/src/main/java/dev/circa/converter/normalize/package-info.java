@@ -1,6 +1,6 @@
 /**
  * Exact, distribution-preserving renormalisation of smooth, decomposable circuits (every sum made
- * locally normalised, every output its normalised distribution), and the interned scopes it checks
- * those properties with. Used by {@code circa normalize} and {@code circa render}.
+ * locally normalised, every output its normalised distribution); whether a circuit is smooth and
+ * decomposable is asked of the validator. Used by {@code circa normalize}.
  */
 package dev.circa.converter.normalize;

@@ -33,16 +33,19 @@ public final class RegionCompiler {
 
     /** Compiles {@code graph} with parameters drawn from {@code seed} ({@link RegionParameters#seeded}). */
     public static CircuitDocument compile(RegionGraph graph, CompileOptions options, long seed) throws FormatException {
-        RegionStructure s = RegionStructure.of(graph);
-        return compile(RegionParameters.seeded(s, options, seed), provenance(graph, options, "seed " + seed));
+        return compile(graph, options, ParameterSource.seed(seed));
     }
 
     /** Compiles {@code graph} with parameters from a NumPy archive ({@link RegionParameters#fromArchive}). */
     public static CircuitDocument compile(RegionGraph graph, CompileOptions options, NpzArchive params)
             throws FormatException {
-        RegionStructure s = RegionStructure.of(graph);
-        return compile(RegionParameters.fromArchive(s, options, params),
-                provenance(graph, options, "parameters " + (params.source() == null ? "(in memory)" : params.source())));
+        return compile(graph, options, ParameterSource.archive(params));
+    }
+
+    private static CircuitDocument compile(RegionGraph graph, CompileOptions options, ParameterSource params)
+            throws FormatException {
+        RegionParameters p = params.load(RegionStructure.of(graph), options, Long.MAX_VALUE);
+        return compile(p, provenance(graph, options, params.describe()));
     }
 
     /** Compiles with the given parameters; the provenance says what was compiled. */
@@ -131,7 +134,8 @@ public final class RegionCompiler {
         return RegionParameters.fromCircuit(RegionStructure.of(graph), circuit).toArchive();
     }
 
-    private static Provenance provenance(RegionGraph g, CompileOptions o, String params) {
+    /** The provenance of a circuit compiled from {@code g} with {@code o} and parameters described by {@code params}. */
+    static Provenance provenance(RegionGraph g, CompileOptions o, String params) {
         StringBuilder sb = new StringBuilder("compiled from the region graph");
         if (g.source() != null) {
             sb.append(' ').append(g.source());

@@ -1,6 +1,5 @@
 package dev.circa.converter.render;
 
-import dev.circa.converter.normalize.InternedScopes;
 import dev.circa.engine.CompiledCircuit;
 import dev.circa.engine.NodeKind;
 import dev.circa.format.Family;

@@ -25,6 +25,15 @@ class AuthoringMistakeTest {
               - {name: pressure, type: real}
               - {name: valve, type: categorical, states: [closed, open]}
             """;
+    /** After {@link #HEAD}: a mixture whose weights add to 0.9. */
+    private static final String WEIGHTS_OFF = """
+            model:
+              product:
+                - mixture:
+                    - {weight: 0.6, var: pressure, normal: {mean: 3, sd: 1}}
+                    - {weight: 0.3, var: pressure, normal: {mean: 2, sd: 1}}
+                - {var: valve, categorical: [0.5, 0.5]}
+            """;
 
     /** One mistake: the document, where the message must point, and a fragment it must contain. */
     private record Mistake(String name, String text, int line, int column, String path, String fragment) {
@@ -62,14 +71,7 @@ class AuthoringMistakeTest {
                               var: pressure
                               normal: {mean: 2, sd: 1}
                         """, 12, 7, "model.mixture[1]", "valve is in model.mixture[0] but not in model.mixture[1]"),
-                new Mistake("weights not adding to 1", HEAD + """
-                        model:
-                          product:
-                            - mixture:
-                                - {weight: 0.6, var: pressure, normal: {mean: 3, sd: 1}}
-                                - {weight: 0.3, var: pressure, normal: {mean: 2, sd: 1}}
-                            - {var: valve, categorical: [0.5, 0.5]}
-                        """, 8, 7, "model.product[0].mixture", "add to 0.9 (expected 1 +/- 1e-09)"),
+                new Mistake("weights not adding to 1", HEAD + WEIGHTS_OFF, 8, 7, "model.product[0].mixture", "add to 0.9 (expected 1 +/- 1e-09)"),
                 new Mistake("negative sd", HEAD + """
                         model:
                           product:
@@ -114,14 +116,7 @@ class AuthoringMistakeTest {
 
     @Test
     void convert_weightsOffWithNormalizeWeights_rescaled() throws Exception {
-        CircuitDocument c = convert(HEAD + """
-                model:
-                  product:
-                    - mixture:
-                        - {weight: 0.6, var: pressure, normal: {mean: 3, sd: 1}}
-                        - {weight: 0.3, var: pressure, normal: {mean: 2, sd: 1}}
-                    - {var: valve, categorical: [0.5, 0.5]}
-                """, true);
+        CircuitDocument c = convert(HEAD + WEIGHTS_OFF, true);
         ConversionAssertions.assertValid(c);
         SumNode sum = (SumNode) c.nodes().get(2);
         // 0.6 / 0.9 and 0.3 / 0.9 (arithmetic)

@@ -13,6 +13,7 @@ import dev.circa.format.ProductNode;
 import dev.circa.format.SumNode;
 import dev.circa.format.io.ReadLimits;
 import dev.circa.format.mixture.MixtureDocument;
+import dev.circa.format.mixture.MixtureExamples;
 import dev.circa.format.mixture.MixtureReader;
 import java.util.ArrayList;
 import java.util.List;
@@ -20,27 +21,19 @@ import org.junit.jupiter.api.Test;
 
 /** The shape of converted circuits: order, ids, sharing, block split, provenance. */
 class ConverterStructureTest {
-    static final String FORMAT_EXAMPLE = """
+    /** The example of FORMAT.md section 4. */
+    static final String FORMAT_EXAMPLE = MixtureExamples.FORMAT_EXAMPLE;
+
+    /** A 4-dimensional normal whose covariance is block diagonal after a permutation: blocks {a, c}, {b}, {d}. */
+    static final String BLOCK_DIAGONAL = """
             format: circa.mixture
             version: "1.0"
-            name: pump-station-regimes
-            variables:
-              - {name: inlet_pressure, type: real, unit: bar}
-              - {name: valve, type: categorical, states: [closed, half, open]}
-            definitions:
-              worn-valve: {var: valve, categorical: {closed: 0.6, half: 0.3, open: 0.1}}
+            variables: [{name: a, type: real}, {name: b, type: real}, {name: c, type: real}, {name: d, type: real}]
             model:
-              mixture:
-                - weight: 0.85
-                  label: normal-operation
-                  product:
-                    - {var: inlet_pressure, normal: {mean: 3.1, sd: 0.2}}
-                    - {var: valve, categorical: {closed: 0.05, half: 0.15, open: 0.80}}
-                - weight: 0.15
-                  label: cavitation
-                  product:
-                    - {var: inlet_pressure, normal: {mean: 2.2, sd: 0.5}}
-                    - {use: worn-valve}
+              vars: [a, b, c, d]
+              mvnormal:
+                mean: [1, 2, 3, 4]
+                cov: [[2.0, 0.0, 0.7, 0.0], [0.0, 1.0, 0.0, 0.0], [0.7, 0.0, 1.5, 0.0], [0.0, 0.0, 0.0, 0.25]]
             """;
 
     static MixtureDocument read(String text) throws Exception {
@@ -108,16 +101,7 @@ class ConverterStructureTest {
 
     @Test
     void toCircuit_permutedBlockDiagonalCovariance_productOfBlocks() throws Exception {
-        MixtureDocument doc = read("""
-                format: circa.mixture
-                version: "1.0"
-                variables: [{name: a, type: real}, {name: b, type: real}, {name: c, type: real}, {name: d, type: real}]
-                model:
-                  vars: [a, b, c, d]
-                  mvnormal:
-                    mean: [1, 2, 3, 4]
-                    cov: [[2.0, 0.0, 0.7, 0.0], [0.0, 1.0, 0.0, 0.0], [0.7, 0.0, 1.5, 0.0], [0.0, 0.0, 0.0, 0.25]]
-                """);
+        MixtureDocument doc = read(BLOCK_DIAGONAL);
         CircuitDocument c = MixtureConverter.toCircuit(doc, MixtureOptions.DEFAULT);
         childrenFirstWithDenseIds(c);
         ProductNode root = assertInstanceOf(ProductNode.class, c.nodes().get(c.nodes().size() - 1));

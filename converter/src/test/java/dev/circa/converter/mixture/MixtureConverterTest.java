@@ -45,16 +45,7 @@ class MixtureConverterTest {
 
     @Test
     void convert_permutedBlockDiagonalCovariance_densityEqualsCommonsMathFullGaussian() throws Exception {
-        MixtureDocument doc = ConverterStructureTest.read("""
-                format: circa.mixture
-                version: "1.0"
-                variables: [{name: a, type: real}, {name: b, type: real}, {name: c, type: real}, {name: d, type: real}]
-                model:
-                  vars: [a, b, c, d]
-                  mvnormal:
-                    mean: [1, 2, 3, 4]
-                    cov: [[2.0, 0.0, 0.7, 0.0], [0.0, 1.0, 0.0, 0.0], [0.7, 0.0, 1.5, 0.0], [0.0, 0.0, 0.0, 0.25]]
-                """);
+        MixtureDocument doc = ConverterStructureTest.read(ConverterStructureTest.BLOCK_DIAGONAL);
         CircuitDocument c = ConversionAssertions.convertVerified(doc, MixtureOptions.DEFAULT);
         double[][] cov = {{2.0, 0.0, 0.7, 0.0}, {0.0, 1.0, 0.0, 0.0}, {0.7, 0.0, 1.5, 0.0}, {0.0, 0.0, 0.0, 0.25}};
         MultivariateNormalDistribution full = new MultivariateNormalDistribution(new double[] {1, 2, 3, 4}, cov);

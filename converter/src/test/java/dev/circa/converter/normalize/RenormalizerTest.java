@@ -37,7 +37,7 @@ import java.util.List;
 import java.util.Map;
 import org.junit.jupiter.api.Test;
 
-class RenormalizerTest {
+public class RenormalizerTest {
     private static final Path EXAMPLE = Path.of("..", "fixtures", "circuits", "pump-station.json");
     private static final List<Variable> VARS = List.of(
             new Variable("alarm", VariableType.BINARY, null, null, null),
@@ -48,8 +48,9 @@ class RenormalizerTest {
     /**
      * A discrete smooth, decomposable circuit with shared nodes. With {@code innerScaled} its inner sums
      * and categoricals are unnormalised; the output sum's weights are multiplied by {@code outputFactor}.
+     * Also used by the renderer's tests.
      */
-    private static CircuitDocument discrete(boolean innerScaled, double outputFactor) {
+    public static CircuitDocument discrete(boolean innerScaled, double outputFactor) {
         return discrete(innerScaled, innerScaled, outputFactor);
     }
 
@@ -301,14 +302,5 @@ class RenormalizerTest {
         CheckReport report = check.report();
         assertEquals(2, report.cases());
         assertEquals(0, report.failures(), report::toText);
-    }
-
-    @Test
-    void internedScopes_sharedScopes_oneIdPerDistinctScope() throws Exception {
-        InternedScopes s = InternedScopes.of(CompiledCircuit.compile(discrete(false, 1)));
-        // scopes: {alarm}, {valve}, {pump}, {alarm, valve}, {alarm, valve, pump}
-        assertEquals(5, s.scopeCount());
-        assertEquals(s.scopeOf(6), s.scopeOf(9));
-        assertArrayEquals(new int[] {0, 1, 2}, s.variables(s.scopeOf(14)));
     }
 }

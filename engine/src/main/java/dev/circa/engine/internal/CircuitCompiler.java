@@ -2,6 +2,7 @@ package dev.circa.engine.internal;
 
 import dev.circa.engine.CompileException;
 import dev.circa.engine.family.Families;
+import dev.circa.engine.family.ParameterLimits;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.Family;
 import dev.circa.format.InputNode;
@@ -59,7 +60,7 @@ public final class CircuitCompiler {
         }
         IdIndex ids = null;
         if (!identity) {
-            ids = new IdIndex(n);
+            ids = new IdIndex(nodeId);
             for (int i = 0; i < n; i++) {
                 int previous = ids.putIfAbsent(nodeId[i], i);
                 if (previous >= 0) {
@@ -218,21 +219,19 @@ public final class CircuitCompiler {
                         at, f.jsonName(), p[k]));
             }
         }
-        String problem = switch (f) {
-            case BERNOULLI -> p[0] >= 0 && p[0] <= 1 ? null : "p = " + num(p[0]) + " (expected 0 <= p <= 1)";
-            case CATEGORICAL -> in.logForm() ? null : negativeProbability(p);
-            case INDICATOR -> p[0] == Math.rint(p[0]) && p[0] >= 0 && p[0] < Math.max(2, variables.get(vars[0]).stateCount())
-                    ? null : "value = " + num(p[0]) + " (expected a state index of " + variables.get(vars[0]).name() + ")";
-            case NORMAL -> p[1] > 0 ? null : "sd = " + num(p[1]) + " (expected > 0)";
-            case LOGNORMAL -> p[1] > 0 ? null : "sigma = " + num(p[1]) + " (expected > 0)";
-            case EXPONENTIAL, POISSON -> p[0] > 0 ? null : "rate = " + num(p[0]) + " (expected > 0)";
-            case GAMMA -> p[0] > 0 && p[1] > 0 ? null
-                    : "shape = " + num(p[0]) + ", rate = " + num(p[1]) + " (expected both > 0)";
-            case BETA -> p[0] > 0 && p[1] > 0 ? null
-                    : "alpha = " + num(p[0]) + ", beta = " + num(p[1]) + " (expected both > 0)";
-            case UNIFORM -> p[0] < p[1] ? null : "low = " + num(p[0]) + ", high = " + num(p[1]) + " (expected low < high)";
-            case BINOMIAL -> p[0] >= 0 && p[0] == Math.rint(p[0]) && p[1] >= 0 && p[1] <= 1 ? null
-                    : "trials = " + num(p[0]) + ", p = " + num(p[1]) + " (expected an integer >= 0 and 0 <= p <= 1)";
+        boolean within = f == Family.MVNORMAL || f == Family.CATEGORICAL && in.logForm() || ParameterLimits.holds(f, p,
+                f == Family.INDICATOR ? Math.max(2, variables.get(vars[0]).stateCount()) : Integer.MAX_VALUE);
+        String problem = within ? null : switch (f) {
+            case BERNOULLI -> "p = " + num(p[0]) + " (expected 0 <= p <= 1)";
+            case CATEGORICAL -> negativeProbability(p);
+            case INDICATOR -> "value = " + num(p[0]) + " (expected a state index of " + variables.get(vars[0]).name() + ")";
+            case NORMAL -> "sd = " + num(p[1]) + " (expected > 0)";
+            case LOGNORMAL -> "sigma = " + num(p[1]) + " (expected > 0)";
+            case EXPONENTIAL, POISSON -> "rate = " + num(p[0]) + " (expected > 0)";
+            case GAMMA -> "shape = " + num(p[0]) + ", rate = " + num(p[1]) + " (expected both > 0)";
+            case BETA -> "alpha = " + num(p[0]) + ", beta = " + num(p[1]) + " (expected both > 0)";
+            case UNIFORM -> "low = " + num(p[0]) + ", high = " + num(p[1]) + " (expected low < high)";
+            case BINOMIAL -> "trials = " + num(p[0]) + ", p = " + num(p[1]) + " (expected an integer >= 0 and 0 <= p <= 1)";
             case MVNORMAL -> null;
         };
         if (problem != null) {

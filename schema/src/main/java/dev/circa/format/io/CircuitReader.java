@@ -13,9 +13,6 @@ import dev.circa.format.ProductNode;
 import dev.circa.format.ReadFinding;
 import dev.circa.format.SourceLocation;
 import dev.circa.format.SumNode;
-import dev.circa.format.Variable;
-import java.io.InputStream;
-import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.LinkedHashMap;
@@ -35,41 +32,21 @@ import tools.jackson.databind.JsonNode;
  *
  * <p>Instances hold only their limits and are safe to share between threads.
  */
-public final class CircuitReader {
+public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
     /** The newest minor version of format 1 this reader knows. */
     public static final int SUPPORTED_MINOR = 0;
-
-    private final ReadLimits limits;
 
     public CircuitReader() {
         this(ReadLimits.DEFAULT);
     }
 
     public CircuitReader(ReadLimits limits) {
-        this.limits = limits;
+        super(limits);
     }
 
-    /** Reads {@code path} ({@code .gz} decompressed, {@code -} for standard input). */
-    public CircuitDocument read(Path path) throws FormatException {
-        try (JsonInput in = JsonInput.openJson(path, limits)) {
-            return read(in);
-        }
-    }
-
-    /** Reads from {@code stream}; {@code file} names it in messages. */
-    public CircuitDocument read(InputStream stream, String file) throws FormatException {
-        try (JsonInput in = JsonInput.fromStream(stream, file, limits)) {
-            return read(in);
-        }
-    }
-
-    /** Reads a document from text (tests, small inputs). */
-    public CircuitDocument readString(String json, String file) throws FormatException {
-        return read(new java.io.ByteArrayInputStream(json.getBytes(java.nio.charset.StandardCharsets.UTF_8)), file);
-    }
-
-    private CircuitDocument read(JsonInput in) throws FormatException {
-        return new Pass(in, limits).run();
+    @Override
+    protected CircuitDocument read(JsonInput in) throws FormatException {
+        return new Pass(in, limits()).run();
     }
 
     /** The state of one read. */

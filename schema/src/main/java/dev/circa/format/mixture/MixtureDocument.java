@@ -1,11 +1,9 @@
 package dev.circa.format.mixture;
 
-import dev.circa.format.Provenance;
-import dev.circa.format.ReadFinding;
-import dev.circa.format.Variable;
+import dev.circa.format.Document;
+import dev.circa.format.Header;
 import java.util.Collections;
 import java.util.LinkedHashMap;
-import java.util.List;
 import java.util.Map;
 
 /**
@@ -14,62 +12,28 @@ import java.util.Map;
  * model is decomposable, smooth, normalised and free of {@code use} cycles is not judged here.
  * Immutable and safe to share between threads.
  */
-public final class MixtureDocument {
+public final class MixtureDocument implements Document {
     /** The value of {@code format} for a mixture document. */
     public static final String FORMAT = "circa.mixture";
 
-    private final String version;
-    private final String name;
-    private final String description;
-    private final Provenance provenance;
-    private final List<Variable> variables;
+    private final Header header;
     private final Map<String, Definition> definitions;
     private final Expression model;
-    private final List<ReadFinding> findings;
-    private final String source;
 
     /**
+     * @param header version, name, description, provenance and variables; the findings (unknown
+     *     properties ignored in a document of a newer minor version) and the file read, or {@code null}
      * @param definitions by name, in document order
-     * @param findings unknown properties ignored in a document of a newer minor version
-     * @param source the file it was read from, or {@code null}
      */
-    public MixtureDocument(String version, String name, String description, Provenance provenance,
-            List<Variable> variables, Map<String, Definition> definitions, Expression model,
-            List<ReadFinding> findings, String source) {
-        this.version = version;
-        this.name = name;
-        this.description = description;
-        this.provenance = provenance;
-        this.variables = List.copyOf(variables);
+    public MixtureDocument(Header header, Map<String, Definition> definitions, Expression model) {
+        this.header = header;
         this.definitions = Collections.unmodifiableMap(new LinkedHashMap<>(definitions));
         this.model = model;
-        this.findings = List.copyOf(findings);
-        this.source = source;
     }
 
-    /** The document's {@code version}, e.g. {@code "1.0"}. */
-    public String version() {
-        return version;
-    }
-
-    /** Optional name, or {@code null}. */
-    public String name() {
-        return name;
-    }
-
-    /** Optional description, or {@code null}. */
-    public String description() {
-        return description;
-    }
-
-    /** Optional provenance, or {@code null}. */
-    public Provenance provenance() {
-        return provenance;
-    }
-
-    /** The variables, by index. */
-    public List<Variable> variables() {
-        return variables;
+    @Override
+    public Header header() {
+        return header;
     }
 
     /** The definitions by name, in document order. */
@@ -82,13 +46,4 @@ public final class MixtureDocument {
         return model;
     }
 
-    /** Unknown properties that were ignored (only in a document of a newer minor version). */
-    public List<ReadFinding> findings() {
-        return findings;
-    }
-
-    /** The file it was read from (for messages), or {@code null}. */
-    public String source() {
-        return source;
-    }
 }

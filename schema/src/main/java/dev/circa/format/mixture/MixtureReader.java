@@ -1,6 +1,7 @@
 package dev.circa.format.mixture;
 
 import dev.circa.format.Family;
+import dev.circa.format.Header;
 import dev.circa.format.Provenance;
 import dev.circa.format.ReadFinding;
 import dev.circa.format.SourceLocation;
@@ -339,8 +340,9 @@ public final class MixtureReader {
                         definitionLocations.get(d.getKey())));
             }
             Expression root = resolve(model);
-            return new MixtureDocument(version, name, description, provenance, variables, definitions, root,
-                    findings, file);
+            Header header = Header.builder().version(version).name(name).description(description)
+                    .provenance(provenance).variables(variables).findings(findings).source(file).build();
+            return new MixtureDocument(header, definitions, root);
         }
 
         // ------------------------------------------------------------ reading

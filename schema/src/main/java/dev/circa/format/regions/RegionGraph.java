@@ -1,12 +1,10 @@
 package dev.circa.format.regions;
 
-import dev.circa.format.Provenance;
-import dev.circa.format.ReadFinding;
+import dev.circa.format.Document;
+import dev.circa.format.Header;
 import dev.circa.format.SourceLocation;
-import dev.circa.format.Variable;
 import java.util.Arrays;
 import java.util.List;
-import tools.jackson.databind.JsonNode;
 
 /**
  * A region graph document (FORMAT.md section 3) as read or generated: variables, regions and
@@ -16,36 +14,22 @@ import tools.jackson.databind.JsonNode;
  *
  * <p>Instances are immutable once built and safe to share between threads.
  */
-public final class RegionGraph {
+public final class RegionGraph implements Document {
     /** The value of {@code format} for a region graph. */
     public static final String FORMAT = "circa.regions";
 
-    private final String version;
-    private final String name;
-    private final String description;
-    private final Provenance provenance;
-    private final List<Variable> variables;
+    private final Header header;
     private final List<Region> regions;
     private final List<Partition> partitions;
-    private final JsonNode extensions;
-    private final List<ReadFinding> findings;
-    private final String source;
     private final int[] regionLines;
     private final int[] regionColumns;
     private final int[] partitionLines;
     private final int[] partitionColumns;
 
     private RegionGraph(Builder b) {
-        this.version = b.version;
-        this.name = b.name;
-        this.description = b.description;
-        this.provenance = b.provenance;
-        this.variables = List.copyOf(b.variables);
+        this.header = b.header();
         this.regions = List.copyOf(b.regions);
         this.partitions = List.copyOf(b.partitions);
-        this.extensions = b.extensions;
-        this.findings = List.copyOf(b.findings);
-        this.source = b.source;
         this.regionLines = b.regionLines;
         this.regionColumns = b.regionColumns;
         this.partitionLines = b.partitionLines;
@@ -57,29 +41,9 @@ public final class RegionGraph {
         return new Builder();
     }
 
-    /** The document's {@code version}, e.g. {@code "1.0"}. */
-    public String version() {
-        return version;
-    }
-
-    /** Optional name, or {@code null}. */
-    public String name() {
-        return name;
-    }
-
-    /** Optional description, or {@code null}. */
-    public String description() {
-        return description;
-    }
-
-    /** Optional provenance, or {@code null}. */
-    public Provenance provenance() {
-        return provenance;
-    }
-
-    /** The variables, by index. */
-    public List<Variable> variables() {
-        return variables;
+    @Override
+    public Header header() {
+        return header;
     }
 
     /** The regions in document order. */
@@ -90,21 +54,6 @@ public final class RegionGraph {
     /** The partitions in document order. */
     public List<Partition> partitions() {
         return partitions;
-    }
-
-    /** The free-form {@code extensions} object, or {@code null}. */
-    public JsonNode extensions() {
-        return extensions;
-    }
-
-    /** Unknown properties of a newer minor version, which the reader ignored. */
-    public List<ReadFinding> findings() {
-        return findings;
-    }
-
-    /** The file the graph was read from (for messages), or {@code null}. */
-    public String source() {
-        return source;
     }
 
     /** Where region {@code index} (its position in {@link #regions()}) starts: pointer {@code /regions/INDEX}. */
@@ -125,48 +74,15 @@ public final class RegionGraph {
     }
 
     /** Builds a {@link RegionGraph}. Not thread-safe. */
-    public static final class Builder {
-        private String version = "1.0";
-        private String name;
-        private String description;
-        private Provenance provenance;
-        private List<Variable> variables = List.of();
+    public static final class Builder extends Header.Setters<Builder> {
         private List<Region> regions = List.of();
         private List<Partition> partitions = List.of();
-        private JsonNode extensions;
-        private List<ReadFinding> findings = List.of();
-        private String source;
         private int[] regionLines;
         private int[] regionColumns;
         private int[] partitionLines;
         private int[] partitionColumns;
 
         private Builder() {
-        }
-
-        public Builder version(String v) {
-            this.version = v;
-            return this;
-        }
-
-        public Builder name(String v) {
-            this.name = v;
-            return this;
-        }
-
-        public Builder description(String v) {
-            this.description = v;
-            return this;
-        }
-
-        public Builder provenance(Provenance v) {
-            this.provenance = v;
-            return this;
-        }
-
-        public Builder variables(List<Variable> v) {
-            this.variables = v;
-            return this;
         }
 
         public Builder regions(List<Region> v) {
@@ -176,21 +92,6 @@ public final class RegionGraph {
 
         public Builder partitions(List<Partition> v) {
             this.partitions = v;
-            return this;
-        }
-
-        public Builder extensions(JsonNode v) {
-            this.extensions = v;
-            return this;
-        }
-
-        public Builder findings(List<ReadFinding> v) {
-            this.findings = v;
-            return this;
-        }
-
-        public Builder source(String v) {
-            this.source = v;
             return this;
         }
 

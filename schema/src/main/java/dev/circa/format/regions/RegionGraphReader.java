@@ -5,13 +5,10 @@ import dev.circa.format.SourceLocation;
 import dev.circa.format.Variable;
 import dev.circa.format.io.DocumentHeader;
 import dev.circa.format.io.FormatException;
+import dev.circa.format.io.JsonDocumentReader;
 import dev.circa.format.io.JsonInput;
 import dev.circa.format.io.ReadLimits;
 import dev.circa.format.io.VariableListReader;
-import java.io.ByteArrayInputStream;
-import java.io.InputStream;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
@@ -28,37 +25,21 @@ import tools.jackson.core.JsonToken;
  *
  * <p>Instances hold only their limits and are safe to share between threads.
  */
-public final class RegionGraphReader {
+public final class RegionGraphReader extends JsonDocumentReader<RegionGraph> {
     /** The newest minor version of format 1 this reader knows. */
     public static final int SUPPORTED_MINOR = 0;
-
-    private final ReadLimits limits;
 
     public RegionGraphReader() {
         this(ReadLimits.DEFAULT);
     }
 
     public RegionGraphReader(ReadLimits limits) {
-        this.limits = limits;
+        super(limits);
     }
 
-    /** Reads {@code path} ({@code .gz} decompressed, {@code -} for standard input). */
-    public RegionGraph read(Path path) throws FormatException {
-        try (JsonInput in = JsonInput.openJson(path, limits)) {
-            return new Pass(in).run();
-        }
-    }
-
-    /** Reads from {@code stream}; {@code file} names it in messages. */
-    public RegionGraph read(InputStream stream, String file) throws FormatException {
-        try (JsonInput in = JsonInput.fromStream(stream, file, limits)) {
-            return new Pass(in).run();
-        }
-    }
-
-    /** Reads a document from text (tests, small inputs). */
-    public RegionGraph readString(String json, String file) throws FormatException {
-        return read(new ByteArrayInputStream(json.getBytes(StandardCharsets.UTF_8)), file);
+    @Override
+    protected RegionGraph read(JsonInput in) throws FormatException {
+        return new Pass(in).run();
     }
 
     /** The state of one read. */

@@ -1,13 +1,10 @@
 package dev.circa.format.io;
 
-import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertTimeoutPreemptively;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import com.code_intelligence.jazzer.junit.FuzzTest;
 import dev.circa.format.CircuitDocument;
-import java.io.ByteArrayInputStream;
-import java.io.ByteArrayOutputStream;
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -29,7 +26,6 @@ import org.junit.jupiter.api.io.TempDir;
  * {@link #read_tenThousandMutationsOfFixtures_documentOrLocatedError} is the seeded mutation loop.
  */
 class CircuitReaderFuzzTest {
-    private static final String FILE = "fuzz.json";
     /** Small enough that mutated fixtures hit every limit now and then. */
     private static final ReadLimits TIGHT = new ReadLimits(1500, 6, 5, 40, 12);
 
@@ -42,17 +38,7 @@ class CircuitReaderFuzzTest {
     void read_tenThousandMutationsOfFixtures_documentOrLocatedError() {
         List<byte[]> corpus = fixtures();
         InputMutator mutator = new InputMutator(20261201L, corpus);
-        int[] outcome = new int[2];
-        assertTimeoutPreemptively(Duration.ofSeconds(60), () -> {
-            for (int i = 0; i < 10_000; i++) {
-                byte[] input = mutator.next();
-                try {
-                    outcome[check(input) ? 0 : 1]++;
-                } catch (AssertionError e) {
-                    throw new AssertionError("mutation " + i + " (" + mutator.lastMutations() + "): " + e.getMessage(), e);
-                }
-            }
-        });
+        int[] outcome = mutator.run(10_000, input -> check(input));
         // Both outcomes occur, so the loop exercises the reader past its first token.
         assertTrue(outcome[0] > 50 && outcome[1] > 1000, outcome[0] + " documents, " + outcome[1] + " errors");
     }
@@ -85,31 +71,8 @@ class CircuitReaderFuzzTest {
 
     /** The property; returns whether the input was read as a document under the default limits. */
     static boolean check(byte[] input) {
-        CircuitDocument doc = OwnErrors.modelOrLocatedError(FILE, true, input,
-                b -> new CircuitReader().read(new ByteArrayInputStream(b), FILE));
-        OwnErrors.modelOrLocatedError(FILE, true, input, b -> new CircuitReader(TIGHT).read(new ByteArrayInputStream(b), FILE));
-        if (doc == null) {
-            return false;
-        }
-        byte[] once = rewrite(doc, input);
-        CircuitDocument again = OwnErrors.modelOrLocatedError("rewritten.json", true, once,
-                b -> new CircuitReader().read(new ByteArrayInputStream(b), "rewritten.json"));
-        if (again == null) {
-            throw new AssertionError("the rewrite of a document that was read is rejected: " + OwnErrors.show(once)
-                    + " from input " + OwnErrors.show(input));
-        }
-        assertArrayEquals(once, rewrite(again, input), () -> "rewrite is not stable for input " + OwnErrors.show(input));
-        return true;
-    }
-
-    private static byte[] rewrite(CircuitDocument doc, byte[] input) {
-        ByteArrayOutputStream out = new ByteArrayOutputStream();
-        try {
-            new CircuitWriter().write(doc, out);
-        } catch (IOException | RuntimeException e) {
-            throw new AssertionError("writing a document that was read failed: " + e + " for input " + OwnErrors.show(input), e);
-        }
-        return out.toByteArray();
+        return OwnErrors.readsAndRewritesStably(input, TIGHT, (limits, in, file) -> new CircuitReader(limits).read(in, file),
+                (doc, out) -> new CircuitWriter().write(doc, out));
     }
 
     /** The circuit documents of {@code fixtures/}: the example and the schema corpus, valid and invalid. */

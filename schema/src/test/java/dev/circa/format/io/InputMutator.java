@@ -1,6 +1,9 @@
 package dev.circa.format.io;
 
+import static org.junit.jupiter.api.Assertions.assertTimeoutPreemptively;
+
 import java.nio.charset.StandardCharsets;
+import java.time.Duration;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
@@ -45,6 +48,33 @@ public final class InputMutator {
             b = mutate(b);
         }
         return b;
+    }
+
+    /** A property of one input: whether it was read whole (it throws an AssertionError when it fails). */
+    @FunctionalInterface
+    public interface Property {
+        boolean holds(byte[] input) throws Exception;
+    }
+
+    /**
+     * Checks {@code property} on the next {@code count} inputs under a 60-second hang guard (only a guard:
+     * tests never assert on time), naming the mutation of a failure.
+     *
+     * @return how many inputs were read whole ([0]) and how many refused ([1])
+     */
+    public int[] run(int count, Property property) {
+        int[] outcome = new int[2];
+        assertTimeoutPreemptively(Duration.ofSeconds(60), () -> {
+            for (int i = 0; i < count; i++) {
+                byte[] input = next();
+                try {
+                    outcome[property.holds(input) ? 0 : 1]++;
+                } catch (AssertionError e) {
+                    throw new AssertionError("mutation " + i + " (" + lastMutations() + "): " + e.getMessage(), e);
+                }
+            }
+        });
+        return outcome;
     }
 
     /** What the last call of {@link #next()} did, for failure messages. */

@@ -1,5 +1,11 @@
 package dev.circa.format.io;
 
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+
+import java.io.ByteArrayInputStream;
+import java.io.ByteArrayOutputStream;
+import java.io.InputStream;
+import java.io.OutputStream;
 import java.nio.charset.StandardCharsets;
 
 /**
@@ -14,7 +20,55 @@ public final class OwnErrors {
         T read(byte[] input) throws Exception;
     }
 
+    /** A reader of a document kind from a stream, under given limits. */
+    @FunctionalInterface
+    public interface StreamRead<T> {
+        T read(ReadLimits limits, InputStream in, String file) throws Exception;
+    }
+
+    /** A writer of a document kind. */
+    @FunctionalInterface
+    public interface Write<T> {
+        void write(T document, OutputStream out) throws Exception;
+    }
+
     private OwnErrors() {
+    }
+
+    /**
+     * The reader property of the fuzz tests of a JSON document kind: {@code input} yields a document or a
+     * located error under the default limits and under {@code tight}; a document that is read rewrites to
+     * bytes that read back and rewrite to the same bytes.
+     *
+     * @return whether the input was read under the default limits
+     */
+    public static <T> boolean readsAndRewritesStably(byte[] input, ReadLimits tight, StreamRead<T> reader,
+            Write<T> writer) {
+        String file = "fuzz.json";
+        T doc = modelOrLocatedError(file, true, input, b -> reader.read(ReadLimits.DEFAULT, new ByteArrayInputStream(b), file));
+        modelOrLocatedError(file, true, input, b -> reader.read(tight, new ByteArrayInputStream(b), file));
+        if (doc == null) {
+            return false;
+        }
+        byte[] once = rewrite(doc, writer, input);
+        T again = modelOrLocatedError("rewritten.json", true, once,
+                b -> reader.read(ReadLimits.DEFAULT, new ByteArrayInputStream(b), "rewritten.json"));
+        if (again == null) {
+            throw new AssertionError("the rewrite of a document that was read is rejected: " + show(once)
+                    + " from input " + show(input));
+        }
+        assertArrayEquals(once, rewrite(again, writer, input), () -> "rewrite is not stable for input " + show(input));
+        return true;
+    }
+
+    private static <T> byte[] rewrite(T doc, Write<T> writer, byte[] input) {
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        try {
+            writer.write(doc, out);
+        } catch (Exception | Error e) {
+            throw new AssertionError("writing a document that was read failed: " + e + " for input " + show(input), e);
+        }
+        return out.toByteArray();
     }
 
     /**

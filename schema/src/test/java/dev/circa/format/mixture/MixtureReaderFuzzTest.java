@@ -43,18 +43,9 @@ class MixtureReaderFuzzTest {
     @Test
     void read_tenThousandMutationsOfFixtures_documentOrLocatedError() {
         InputMutator mutator = new InputMutator(20261205L, fixtures());
-        int[] outcome = new int[2];
         MixtureReader.Syntax[] syntaxes = {MixtureReader.Syntax.JSON, MixtureReader.Syntax.YAML, null};
-        assertTimeoutPreemptively(Duration.ofSeconds(60), () -> {
-            for (int i = 0; i < 10_000; i++) {
-                byte[] input = mutator.next();
-                try {
-                    outcome[check(input, syntaxes[i % 3]) ? 0 : 1]++;
-                } catch (AssertionError e) {
-                    throw new AssertionError("mutation " + i + " (" + mutator.lastMutations() + "): " + e.getMessage(), e);
-                }
-            }
-        });
+        int[] i = {0};
+        int[] outcome = mutator.run(10_000, input -> check(input, syntaxes[i[0]++ % 3]));
         assertTrue(outcome[0] > 50 && outcome[1] > 1000, outcome[0] + " documents, " + outcome[1] + " errors");
     }
 

@@ -1,5 +1,6 @@
 package dev.circa.validator.analysis;
 
+import dev.circa.engine.internal.IntList;
 import dev.circa.format.InputNode;
 import dev.circa.format.SumNode;
 import dev.circa.format.Variable;

@@ -1,5 +1,7 @@
 package dev.circa.validator.analysis;
 
+import dev.circa.engine.internal.IdIndex;
+import dev.circa.engine.internal.IntList;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.Family;
 import dev.circa.format.InputNode;

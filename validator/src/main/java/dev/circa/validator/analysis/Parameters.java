@@ -1,230 +1,179 @@
 package dev.circa.validator.analysis;
 
+import dev.circa.engine.family.ParameterLimits;
+import dev.circa.engine.family.ParameterLimits.Limit;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.Family;
 import dev.circa.format.InputNode;
 import dev.circa.format.Node;
 import dev.circa.format.SumNode;
 import dev.circa.format.Variable;
-import java.util.ArrayList;
 import java.util.List;
-import java.util.Locale;
 import org.ejml.data.DMatrixRMaj;
 import org.ejml.dense.row.decomposition.chol.CholeskyDecompositionInner_DDRM;
 
 /**
- * Checks every input's parameters against its family's constraints (FORMAT.md's input table),
- * every number for finiteness and every sum weight for sign, in one pass over the nodes. Each
- * problem carries the code of the rule that reports it.
+ * Facts about the numbers of a circuit: which parameters and weights are not finite, which parameters
+ * are outside their family's limits ({@link ParameterLimits}), a categorical's length and total mass,
+ * an mvnormal covariance's symmetry and positive definiteness; and, in one pass over the nodes, which
+ * nodes have any such defect (then supports and partition functions are not computed). It says nothing
+ * about how the defects are reported: each parameter rule asks these facts and words its own diagnostics.
  */
 public final class Parameters {
-    public static final String NOT_FINITE = "NumberNotFinite";
-    public static final String OUT_OF_RANGE = "ParameterOutOfRange";
-    public static final String LENGTH = "CategoricalLengthMismatch";
-    public static final String PROBABILITIES = "ProbabilitiesNotNormalized";
-    public static final String ASYMMETRIC = "CovarianceNotSymmetric";
-    public static final String NOT_PD = "CovarianceNotPositiveDefinite";
-    public static final String NEGATIVE_WEIGHT = "WeightNegative";
-
-    /**
-     * One problem.
-     *
-     * @param code the rule code
-     * @param node the node index
-     * @param member the member of the node, e.g. {@code sd}
-     * @param message what was seen and expected
-     */
-    public record Problem(String code, int node, String member, String message) {
-    }
-
-    private final List<Problem> problems = new ArrayList<>();
-    private final boolean[] inputBad;
-    private boolean anyBad;
+    private final boolean[] bad;
+    private final boolean anyBad;
 
     private Parameters(CircuitDocument doc, double tol) {
         List<Node> nodes = doc.nodes();
-        inputBad = new boolean[nodes.size()];
+        bad = new boolean[nodes.size()];
+        boolean any = false;
         for (int i = 0; i < nodes.size(); i++) {
             Node n = nodes.get(i);
-            int before = problems.size();
-            if (n instanceof InputNode in) {
-                checkInput(doc, i, in, tol);
-            } else if (n instanceof SumNode s) {
-                checkSum(i, s);
-            }
-            if (problems.size() > before) {
-                inputBad[i] = true;
-                anyBad = true;
-            }
+            bad[i] = n instanceof InputNode in ? !sound(doc, in, tol) : n instanceof SumNode s && !sound(s);
+            any |= bad[i];
         }
+        anyBad = any;
     }
 
-    /** Checks every node of {@code doc} with tolerance {@code tol}. */
+    /** The facts of every node of {@code doc} with tolerance {@code tol}. */
     public static Parameters of(CircuitDocument doc, double tol) {
         return new Parameters(doc, tol);
     }
 
-    public List<Problem> problems() {
-        return problems;
-    }
-
-    /** Whether some node has a problem (then supports and partition functions are not computed). */
+    /** Whether some node has a defect (then supports and partition functions are not computed). */
     public boolean anyProblem() {
         return anyBad;
     }
 
-    /** Whether node {@code i} has a problem. */
+    /** Whether node {@code i} has a defect. */
     public boolean bad(int i) {
-        return inputBad[i];
+        return bad[i];
     }
 
-    private void add(String code, int node, String member, String fmt, Object... args) {
-        problems.add(new Problem(code, node, member, String.format(Locale.ROOT, fmt, args)));
-    }
-
-    private void checkSum(int i, SumNode s) {
-        double[] w = s.weights();
-        String member = s.logWeights() ? "logWeights" : "weights";
-        for (int j = 0; j < w.length; j++) {
-            if (Double.isNaN(w[j]) || Double.isInfinite(w[j])) {
-                add(NOT_FINITE, i, member + "/" + j, "%s %d of sum %d is %s; expected a finite number",
-                        s.logWeights() ? "log-weight" : "weight", j, s.id(), num(w[j]));
-            } else if (!s.logWeights() && w[j] < 0) {
-                add(NEGATIVE_WEIGHT, i, member + "/" + j, "weight %d of sum %d is %s; expected a weight >= 0",
-                        j, s.id(), num(w[j]));
+    private static boolean sound(SumNode s) {
+        for (double w : s.weights()) {
+            if (!Double.isFinite(w) || !s.logWeights() && w < 0) {
+                return false;
             }
         }
+        return true;
     }
 
-    private void checkInput(CircuitDocument doc, int i, InputNode in, double tol) {
+    private static boolean sound(CircuitDocument doc, InputNode in, double tol) {
+        if (firstNonFinite(in) >= 0) {
+            return false;
+        }
         Family f = in.family();
-        double[] p = in.params();
-        int id = in.id();
-        String fam = f.jsonName();
-        for (int k = 0; k < p.length; k++) {
-            if (Double.isNaN(p[k]) || Double.isInfinite(p[k])) {
-                add(NOT_FINITE, i, memberOf(in, k), "parameter %s of %s node %d is %s; expected a finite number",
-                        memberOf(in, k), fam, id, num(p[k]));
-                return;
-            }
-        }
-        List<Variable> vars = doc.variables();
-        int v = in.vars().length > 0 ? in.vars()[0] : -1;
-        Variable var = v >= 0 && v < vars.size() ? vars.get(v) : null;
-        switch (f) {
-            case BERNOULLI -> unit(i, in, "p", p[0]);
-            case CATEGORICAL -> categorical(i, in, var, tol);
-            case INDICATOR -> {
-                int states = var == null ? Integer.MAX_VALUE : var.stateCount();
-                if (p[0] != Math.rint(p[0]) || p[0] < 0 || p[0] >= states) {
-                    add(OUT_OF_RANGE, i, "value", "value of indicator node %d is %s; expected a state index 0..%d of %s",
-                            id, num(p[0]), states - 1, var == null ? "its variable" : var.name());
-                }
-            }
-            case NORMAL -> positive(i, in, "sd", p[1]);
-            case LOGNORMAL -> positive(i, in, "sigma", p[1]);
-            case EXPONENTIAL, POISSON -> positive(i, in, "rate", p[0]);
-            case GAMMA -> {
-                positive(i, in, "shape", p[0]);
-                positive(i, in, "rate", p[1]);
-            }
-            case BETA -> {
-                positive(i, in, "alpha", p[0]);
-                positive(i, in, "beta", p[1]);
-            }
-            case UNIFORM -> {
-                if (!(p[0] < p[1])) {
-                    add(OUT_OF_RANGE, i, "low", "uniform node %d has low %s and high %s; expected low < high",
-                            id, num(p[0]), num(p[1]));
-                }
-            }
-            case BINOMIAL -> {
-                if (p[0] != Math.rint(p[0]) || p[0] < 0) {
-                    add(OUT_OF_RANGE, i, "trials", "trials of binomial node %d is %s; expected an integer >= 0", id, num(p[0]));
-                }
-                unit(i, in, "p", p[1]);
-            }
-            case MVNORMAL -> mvnormal(i, in, tol);
-            default -> throw new IllegalStateException(fam);
-        }
-    }
-
-    private static String memberOf(InputNode in, int k) {
-        Family f = in.family();
+        Variable var = variable(doc, in);
         if (f == Family.CATEGORICAL) {
-            return (in.logForm() ? "logProbs/" : "probs/") + k;
+            return !lengthMismatch(in, var) && firstNegativeProbability(in, 0) < 0
+                    && Math.abs(probabilityMass(in) - 1) <= tol;
         }
         if (f == Family.MVNORMAL) {
-            int d = in.vars().length;
-            return k < d ? "mean/" + k : "cov/" + ((k - d) / d) + "/" + ((k - d) % d);
+            return asymmetry(in, tol) == null && positiveDefinite(in);
         }
-        return f.parameters().get(k);
+        return firstOutOfRange(in, var, 0) < 0 && ParameterLimits.inOrder(f, in.params());
     }
 
-    private static String num(double x) {
-        return Numbers.text(x);
-    }
-
-    private void unit(int i, InputNode in, String name, double x) {
-        if (!(x >= 0 && x <= 1)) {
-            add(OUT_OF_RANGE, i, name, "%s of %s node %d is %s; expected a probability in [0, 1]",
-                    name, in.family().jsonName(), in.id(), num(x));
-        }
-    }
-
-    private void positive(int i, InputNode in, String name, double x) {
-        if (!(x > 0)) {
-            add(OUT_OF_RANGE, i, name, "%s of %s node %d is %s; expected a number > 0",
-                    name, in.family().jsonName(), in.id(), num(x));
-        }
-    }
-
-    private void categorical(int i, InputNode in, Variable var, double tol) {
+    /** The index of the first parameter of {@code in} that is not a finite number, or -1. */
+    public static int firstNonFinite(InputNode in) {
         double[] p = in.params();
-        String member = in.logForm() ? "logProbs" : "probs";
-        if (var != null && var.stateCount() > 0 && p.length != var.stateCount()) {
-            add(LENGTH, i, member, "categorical node %d has %d %s; expected one per state of %s (%d)",
-                    in.id(), p.length, in.logForm() ? "log-probabilities" : "probabilities", var.name(), var.stateCount());
-        }
-        double sum = 0;
-        boolean negative = false;
         for (int k = 0; k < p.length; k++) {
-            if (in.logForm()) {
-                sum += Math.exp(p[k]);
-            } else if (p[k] < 0) {
-                negative = true;
-                add(OUT_OF_RANGE, i, member + "/" + k, "probability %d of categorical node %d is %s; expected >= 0",
-                        k, in.id(), num(p[k]));
-            } else {
-                sum += p[k];
+            if (!Double.isFinite(p[k])) {
+                return k;
             }
         }
-        if (!negative && !(Math.abs(sum - 1) <= tol)) {
-            add(PROBABILITIES, i, member, "%s of categorical node %d add to %s (expected 1 +/- %s, set by --tolerance)",
-                    in.logForm() ? "exp(logProbs)" : "probabilities", in.id(), num(sum), num(tol));
-        }
+        return -1;
     }
 
-    private void mvnormal(int i, InputNode in, double tol) {
-        int d = in.vars().length;
+    /** The variable of a one-variable input, or {@code null} when its index is out of range. */
+    public static Variable variable(CircuitDocument doc, InputNode in) {
+        List<Variable> vars = doc.variables();
+        int v = in.vars().length > 0 ? in.vars()[0] : -1;
+        return v >= 0 && v < vars.size() ? vars.get(v) : null;
+    }
+
+    /** The number of states an indicator's value must stay below ({@code Integer.MAX_VALUE} when unknown). */
+    public static int states(Variable var) {
+        return var == null ? Integer.MAX_VALUE : var.stateCount();
+    }
+
+    /**
+     * The index, from {@code from} on, of the first parameter of a one-variable, non-categorical input
+     * outside its {@link ParameterLimits limit}, or -1.
+     */
+    public static int firstOutOfRange(InputNode in, Variable var, int from) {
+        List<Limit> limits = ParameterLimits.of(in.family());
+        double[] p = in.params();
+        for (int k = from; k < limits.size(); k++) {
+            if (!limits.get(k).holds(p[k], states(var))) {
+                return k;
+            }
+        }
+        return -1;
+    }
+
+    /** Whether a categorical over {@code var} has a number of probabilities other than its states. */
+    public static boolean lengthMismatch(InputNode in, Variable var) {
+        return var != null && var.stateCount() > 0 && in.params().length != var.stateCount();
+    }
+
+    /** The index, from {@code from} on, of the first negative probability of a linear-form categorical, or -1. */
+    public static int firstNegativeProbability(InputNode in, int from) {
+        if (in.logForm()) {
+            return -1;
+        }
+        Limit limit = ParameterLimits.of(Family.CATEGORICAL).get(0);
+        double[] p = in.params();
+        for (int k = from; k < p.length; k++) {
+            if (!limit.holds(p[k], Integer.MAX_VALUE)) {
+                return k;
+            }
+        }
+        return -1;
+    }
+
+    /** The total of a categorical's probabilities (of exp(logProbs) in log form). */
+    public static double probabilityMass(InputNode in) {
+        double sum = 0;
+        for (double x : in.params()) {
+            sum += in.logForm() ? Math.exp(x) : x;
+        }
+        return sum;
+    }
+
+    /** The largest |entry| of an mvnormal's covariance. */
+    public static double covarianceScale(InputNode in) {
         double[] p = in.params();
         double max = 0;
-        for (int k = d; k < p.length; k++) {
+        for (int k = in.vars().length; k < p.length; k++) {
             max = Math.max(max, Math.abs(p[k]));
         }
+        return max;
+    }
+
+    /**
+     * The first (row, column) of an mvnormal's covariance, row by row below the diagonal, whose mirror
+     * entry differs by more than {@code tol} times {@link #covarianceScale}; {@code null} when symmetric.
+     */
+    public static int[] asymmetry(InputNode in, double tol) {
+        int d = in.vars().length;
+        double[] p = in.params();
+        double max = covarianceScale(in);
         for (int r = 0; r < d; r++) {
             for (int c = 0; c < r; c++) {
-                double lower = p[d + r * d + c];
-                double upper = p[d + c * d + r];
-                if (!(Math.abs(lower - upper) <= tol * max)) {
-                    add(ASYMMETRIC, i, "cov/" + c + "/" + r,
-                            "covariance of mvnormal node %d has cov[%d][%d] = %s but cov[%d][%d] = %s "
-                                    + "(expected equal within %s * max|cov| = %s, set by --tolerance)",
-                            in.id(), r, c, num(lower), c, r, num(upper), num(tol), num(tol * max));
-                    return;
+                if (!(Math.abs(p[d + r * d + c] - p[d + c * d + r]) <= tol * max)) {
+                    return new int[] {r, c};
                 }
             }
         }
+        return null;
+    }
+
+    /** Whether the Cholesky factorisation of an mvnormal's covariance (its lower triangle) has only pivots > 0. */
+    public static boolean positiveDefinite(InputNode in) {
+        int d = in.vars().length;
+        double[] p = in.params();
         DMatrixRMaj a = new DMatrixRMaj(d, d);
         for (int r = 0; r < d; r++) {
             for (int c = 0; c <= r; c++) {
@@ -241,9 +190,19 @@ public final class Parameters {
                 ok = l.get(k, k) > 0 && Double.isFinite(l.get(k, k));
             }
         }
-        if (!ok) {
-            add(NOT_PD, i, "cov", "covariance of mvnormal node %d is not positive definite: its Cholesky "
-                    + "factorisation (of the lower triangle) has a pivot <= 0", in.id());
+        return ok;
+    }
+
+    /** The document member of parameter {@code k} of {@code in}, e.g. {@code sd}, {@code probs/2}, {@code cov/0/1}. */
+    public static String member(InputNode in, int k) {
+        Family f = in.family();
+        if (f == Family.CATEGORICAL) {
+            return (in.logForm() ? "logProbs/" : "probs/") + k;
         }
+        if (f == Family.MVNORMAL) {
+            int d = in.vars().length;
+            return k < d ? "mean/" + k : "cov/" + ((k - d) / d) + "/" + ((k - d) % d);
+        }
+        return f.parameters().get(k);
     }
 }

@@ -1,5 +1,6 @@
 package dev.circa.validator.analysis;
 
+import dev.circa.engine.internal.IntList;
 import dev.circa.format.InputNode;
 import java.util.ArrayList;
 import java.util.Arrays;

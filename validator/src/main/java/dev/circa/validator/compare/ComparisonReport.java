@@ -1,9 +1,14 @@
 package dev.circa.validator.compare;
 
+import static dev.circa.validator.ReportNumbers.g;
+import static dev.circa.validator.ReportNumbers.ld;
+
 import dev.circa.format.Variable;
 import dev.circa.format.csv.CellValues;
+import dev.circa.validator.ReportJson;
 import java.util.List;
 import java.util.Locale;
+import tools.jackson.core.JsonGenerator;
 
 /**
  * The outcome of a comparison of circuits A and B.
@@ -71,54 +76,61 @@ public record ComparisonReport(CompareOptions options, List<Variable> variables,
 
     /** The JSON form (non-finite numbers as {@code null}). */
     public String toJson() {
-        StringBuilder sb = new StringBuilder();
-        sb.append("{\"structurallyIdentical\": ").append(structurallyIdentical)
-                .append(", \"passed\": ").append(passed())
-                .append(", \"points\": ").append(points)
-                .append(", \"failures\": ").append(failures)
-                .append(", \"maxAbsError\": ").append(num(maxAbsError))
-                .append(", \"maxRelError\": ").append(num(maxRelError))
-                .append(", \"samples\": ").append(options.samples())
-                .append(", \"seed\": ").append(options.seed())
-                .append(", \"atol\": ").append(num(options.atol()))
-                .append(", \"rtol\": ").append(num(options.rtol()))
-                .append(", \"outputs\": [");
-        for (int i = 0; i < outputs.size(); i++) {
-            OutputComparison o = outputs.get(i);
-            sb.append(i == 0 ? "" : ", ").append("{\"outputA\": ").append(str(o.outputA()))
-                    .append(", \"outputB\": ").append(str(o.outputB()))
-                    .append(", \"points\": ").append(o.points())
-                    .append(", \"failures\": ").append(o.failures())
-                    .append(", \"maxAbsError\": ").append(num(o.maxAbsError()))
-                    .append(", \"logPartitionA\": ").append(num(o.logPartitionA()))
-                    .append(", \"logPartitionB\": ").append(num(o.logPartitionB())).append('}');
+        ReportJson json = new ReportJson(ReportJson.Escapes.UNICODE);
+        JsonGenerator g = json.generator();
+        g.writeStartObject();
+        g.writeBooleanProperty("structurallyIdentical", structurallyIdentical);
+        g.writeBooleanProperty("passed", passed());
+        g.writeNumberProperty("points", points);
+        g.writeNumberProperty("failures", failures);
+        json.number("maxAbsError", maxAbsError);
+        json.number("maxRelError", maxRelError);
+        g.writeNumberProperty("samples", options.samples());
+        g.writeNumberProperty("seed", options.seed());
+        json.number("atol", options.atol());
+        json.number("rtol", options.rtol());
+        g.writeArrayPropertyStart("outputs");
+        for (OutputComparison o : outputs) {
+            g.writeStartObject();
+            g.writeStringProperty("outputA", o.outputA());
+            g.writeStringProperty("outputB", o.outputB());
+            g.writeNumberProperty("points", o.points());
+            g.writeNumberProperty("failures", o.failures());
+            json.number("maxAbsError", o.maxAbsError());
+            json.number("logPartitionA", o.logPartitionA());
+            json.number("logPartitionB", o.logPartitionB());
+            g.writeEndObject();
         }
-        sb.append("], \"worst\": [");
-        for (int i = 0; i < worst.size(); i++) {
-            Disagreement d = worst.get(i);
-            sb.append(i == 0 ? "\n  " : ",\n  ").append("{\"output\": ").append(str(d.output()))
-                    .append(", \"sampledFrom\": ").append(str(d.sampledFrom()))
-                    .append(", \"point\": ").append(d.point())
-                    .append(", \"logA\": ").append(num(d.logA()))
-                    .append(", \"logB\": ").append(num(d.logB()))
-                    .append(", \"absError\": ").append(num(d.absError()))
-                    .append(", \"agree\": ").append(d.agree())
-                    .append(", \"values\": {");
-            boolean first = true;
+        g.writeEndArray();
+        json.startLinedArray("worst");
+        for (Disagreement d : worst) {
+            g.writeStartObject();
+            g.writeStringProperty("output", d.output());
+            g.writeStringProperty("sampledFrom", d.sampledFrom());
+            g.writeNumberProperty("point", d.point());
+            json.number("logA", d.logA());
+            json.number("logB", d.logB());
+            json.number("absError", d.absError());
+            g.writeBooleanProperty("agree", d.agree());
+            g.writeObjectPropertyStart("values");
             for (int v = 0; v < variables.size(); v++) {
-                if (Double.isNaN(d.values()[v])) {
+                Variable x = variables.get(v);
+                double value = d.values()[v];
+                if (Double.isNaN(value)) {
                     continue;
                 }
-                sb.append(first ? "" : ", ").append(str(variables.get(v).name())).append(": ");
-                Variable x = variables.get(v);
-                sb.append(x.type().isDiscrete() && !x.states().isEmpty()
-                        ? str(CellValues.format(x, d.values()[v])) : num(d.values()[v]));
-                first = false;
+                if (x.type().isDiscrete() && !x.states().isEmpty()) {
+                    g.writeStringProperty(x.name(), CellValues.format(x, value));
+                } else {
+                    json.number(x.name(), value);
+                }
             }
-            sb.append("}}");
+            g.writeEndObject();
+            g.writeEndObject();
         }
-        sb.append(worst.isEmpty() ? "]}\n" : "\n]}\n");
-        return sb.toString();
+        g.writeEndArray();
+        g.writeEndObject();
+        return json.finish();
     }
 
     private String point(double[] values) {
@@ -128,38 +140,5 @@ public record ComparisonReport(CompareOptions options, List<Variable> variables,
             sb.append(Double.isNaN(values[v]) ? "missing" : CellValues.format(variables.get(v), values[v]));
         }
         return sb.append('}').toString();
-    }
-
-    private static String num(double d) {
-        return Double.isFinite(d) ? Double.toString(d) : "null";
-    }
-
-    private static String str(String s) {
-        StringBuilder sb = new StringBuilder(s.length() + 2).append('"');
-        for (int i = 0; i < s.length(); i++) {
-            char ch = s.charAt(i);
-            if (ch == '"' || ch == '\\') {
-                sb.append('\\').append(ch);
-            } else if (ch < 0x20) {
-                sb.append(String.format(Locale.ROOT, "\\u%04x", (int) ch));
-            } else {
-                sb.append(ch);
-            }
-        }
-        return sb.append('"').toString();
-    }
-
-    private static String g(double d) {
-        if (Double.isNaN(d)) {
-            return "n/a";
-        }
-        if (Double.isInfinite(d)) {
-            return d > 0 ? "inf" : "-inf";
-        }
-        return String.format(Locale.ROOT, "%.3g", d);
-    }
-
-    private static String ld(double d) {
-        return d == Double.NEGATIVE_INFINITY ? "-inf" : Double.isNaN(d) ? "NaN" : Double.toString(d);
     }
 }

@@ -1,7 +1,12 @@
 package dev.circa.validator.regression;
 
+import static dev.circa.validator.ReportNumbers.g;
+import static dev.circa.validator.ReportNumbers.ld;
+
+import dev.circa.validator.ReportJson;
 import java.util.List;
 import java.util.Locale;
+import tools.jackson.core.JsonGenerator;
 
 /**
  * The outcome of a regression check: counts, the largest errors, the worst cases and a breakdown per
@@ -36,44 +41,47 @@ public record CheckReport(Tolerance tolerance, long cases, long failures, double
      * followed by {@code passed}, {@code atol}, {@code rtol} and {@code outputs}. A non-finite number is {@code null}.
      */
     public String toJson() {
-        StringBuilder sb = new StringBuilder(512);
-        sb.append("{\"cases\": ").append(cases)
-                .append(", \"failures\": ").append(failures)
-                .append(", \"maxAbsError\": ").append(num(maxAbsError))
-                .append(", \"maxRelError\": ").append(num(maxRelError))
-                .append(", \"worst\": [");
-        for (int i = 0; i < worst.size(); i++) {
-            CaseResult c = worst.get(i);
-            sb.append(i == 0 ? "\n  " : ",\n  ");
-            sb.append("{\"source\": ").append(str(c.source()))
-                    .append(", \"row\": ").append(c.row())
-                    .append(", \"line\": ").append(c.line());
+        ReportJson json = new ReportJson(ReportJson.Escapes.SHORT_FORMS);
+        JsonGenerator g = json.generator();
+        g.writeStartObject();
+        g.writeNumberProperty("cases", cases);
+        g.writeNumberProperty("failures", failures);
+        json.number("maxAbsError", maxAbsError);
+        json.number("maxRelError", maxRelError);
+        json.startLinedArray("worst");
+        for (CaseResult c : worst) {
+            g.writeStartObject();
+            g.writeStringProperty("source", c.source());
+            g.writeNumberProperty("row", c.row());
+            g.writeNumberProperty("line", c.line());
             if (c.pointer() != null) {
-                sb.append(", \"pointer\": ").append(str(c.pointer()));
+                g.writeStringProperty("pointer", c.pointer());
             }
-            sb.append(", \"output\": ").append(str(c.output()))
-                    .append(", \"expected\": ").append(num(c.expected()))
-                    .append(", \"computed\": ").append(num(c.computed()))
-                    .append(", \"absError\": ").append(num(c.absError()))
-                    .append(", \"relError\": ").append(num(c.relError()))
-                    .append(", \"passed\": ").append(c.passed()).append('}');
+            g.writeStringProperty("output", c.output());
+            json.number("expected", c.expected());
+            json.number("computed", c.computed());
+            json.number("absError", c.absError());
+            json.number("relError", c.relError());
+            g.writeBooleanProperty("passed", c.passed());
+            g.writeEndObject();
         }
-        sb.append(worst.isEmpty() ? "]" : "\n]");
-        sb.append(", \"passed\": ").append(passed())
-                .append(", \"atol\": ").append(num(tolerance.atol()))
-                .append(", \"rtol\": ").append(num(tolerance.rtol()))
-                .append(", \"outputs\": [");
-        for (int i = 0; i < outputs.size(); i++) {
-            OutputSummary o = outputs.get(i);
-            sb.append(i == 0 ? "" : ", ")
-                    .append("{\"output\": ").append(str(o.output()))
-                    .append(", \"cases\": ").append(o.cases())
-                    .append(", \"failures\": ").append(o.failures())
-                    .append(", \"maxAbsError\": ").append(num(o.maxAbsError()))
-                    .append(", \"maxRelError\": ").append(num(o.maxRelError())).append('}');
+        g.writeEndArray();
+        g.writeBooleanProperty("passed", passed());
+        json.number("atol", tolerance.atol());
+        json.number("rtol", tolerance.rtol());
+        g.writeArrayPropertyStart("outputs");
+        for (OutputSummary o : outputs) {
+            g.writeStartObject();
+            g.writeStringProperty("output", o.output());
+            g.writeNumberProperty("cases", o.cases());
+            g.writeNumberProperty("failures", o.failures());
+            json.number("maxAbsError", o.maxAbsError());
+            json.number("maxRelError", o.maxRelError());
+            g.writeEndObject();
         }
-        sb.append("]}\n");
-        return sb.toString();
+        g.writeEndArray();
+        g.writeEndObject();
+        return json.finish();
     }
 
     /** A summary for people: counts, largest errors, per output when several, and the worst cases with their rows. */
@@ -102,45 +110,5 @@ public record CheckReport(Tolerance tolerance, long cases, long failures, double
             }
         }
         return sb.toString();
-    }
-
-    static String num(double d) {
-        return Double.isFinite(d) ? Double.toString(d) : "null";
-    }
-
-    static String str(String s) {
-        StringBuilder sb = new StringBuilder(s.length() + 2).append('"');
-        for (int i = 0; i < s.length(); i++) {
-            char ch = s.charAt(i);
-            switch (ch) {
-                case '"' -> sb.append("\\\"");
-                case '\\' -> sb.append("\\\\");
-                case '\n' -> sb.append("\\n");
-                case '\r' -> sb.append("\\r");
-                case '\t' -> sb.append("\\t");
-                default -> {
-                    if (ch < 0x20) {
-                        sb.append(String.format(Locale.ROOT, "\\u%04x", (int) ch));
-                    } else {
-                        sb.append(ch);
-                    }
-                }
-            }
-        }
-        return sb.append('"').toString();
-    }
-
-    private static String g(double d) {
-        if (Double.isNaN(d)) {
-            return "n/a";
-        }
-        if (Double.isInfinite(d)) {
-            return d > 0 ? "inf" : "-inf";
-        }
-        return String.format(Locale.ROOT, "%.3g", d);
-    }
-
-    private static String ld(double d) {
-        return d == Double.NEGATIVE_INFINITY ? "-inf" : Double.isNaN(d) ? "NaN" : Double.toString(d);
     }
 }

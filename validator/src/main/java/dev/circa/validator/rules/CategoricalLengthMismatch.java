@@ -1,8 +1,12 @@
 package dev.circa.validator.rules;
 
-import dev.circa.validator.analysis.Parameters;
+import dev.circa.format.Family;
+import dev.circa.format.InputNode;
+import dev.circa.format.Node;
+import dev.circa.format.Variable;
 import dev.circa.validator.Severity;
-import dev.circa.validator.analysis.Graph;
+import dev.circa.validator.analysis.Parameters;
+import java.util.List;
 import java.util.Locale;
 
 /** A categorical does not have one probability per state. */
@@ -10,9 +14,17 @@ import java.util.Locale;
 public final class CategoricalLengthMismatch extends Rule {
     @Override
     public void check(RuleContext ctx) {
-        for (Parameters.Problem p : ctx.parameters().problems()) {
-            if (p.code().equals(Parameters.LENGTH) && !ctx.skip(this, severity())) {
-                ctx.atNode(this, severity(), p.node(), p.member(), p.message());
+        List<Node> nodes = ctx.document().nodes();
+        for (int i = 0; i < nodes.size(); i++) {
+            if (nodes.get(i) instanceof InputNode in && in.family() == Family.CATEGORICAL
+                    && Parameters.firstNonFinite(in) < 0) {
+                Variable var = Parameters.variable(ctx.document(), in);
+                if (Parameters.lengthMismatch(in, var) && !ctx.skip(this, severity())) {
+                    ctx.atNode(this, severity(), i, in.logForm() ? "logProbs" : "probs", String.format(Locale.ROOT,
+                            "categorical node %d has %d %s; expected one per state of %s (%d)", in.id(),
+                            in.params().length, in.logForm() ? "log-probabilities" : "probabilities", var.name(),
+                            var.stateCount()));
+                }
             }
         }
     }

@@ -1,8 +1,11 @@
 package dev.circa.validator.rules;
 
-import dev.circa.validator.analysis.Parameters;
+import dev.circa.format.Family;
+import dev.circa.format.InputNode;
+import dev.circa.format.Node;
 import dev.circa.validator.Severity;
-import dev.circa.validator.analysis.Graph;
+import dev.circa.validator.analysis.Parameters;
+import java.util.List;
 import java.util.Locale;
 
 /** An mvnormal covariance is not positive definite. */
@@ -10,9 +13,14 @@ import java.util.Locale;
 public final class CovarianceNotPositiveDefinite extends Rule {
     @Override
     public void check(RuleContext ctx) {
-        for (Parameters.Problem p : ctx.parameters().problems()) {
-            if (p.code().equals(Parameters.NOT_PD) && !ctx.skip(this, severity())) {
-                ctx.atNode(this, severity(), p.node(), p.member(), p.message());
+        List<Node> nodes = ctx.document().nodes();
+        for (int i = 0; i < nodes.size(); i++) {
+            if (nodes.get(i) instanceof InputNode in && in.family() == Family.MVNORMAL && Parameters.firstNonFinite(in) < 0
+                    && Parameters.asymmetry(in, ctx.options().tolerance()) == null && !Parameters.positiveDefinite(in)
+                    && !ctx.skip(this, severity())) {
+                ctx.atNode(this, severity(), i, "cov", String.format(Locale.ROOT, "covariance of mvnormal node %d is "
+                        + "not positive definite: its Cholesky factorisation (of the lower triangle) has a pivot <= 0",
+                        in.id()));
             }
         }
     }

@@ -1,8 +1,12 @@
 package dev.circa.validator.rules;
 
-import dev.circa.validator.analysis.Parameters;
+import dev.circa.format.Family;
+import dev.circa.format.InputNode;
+import dev.circa.format.Node;
 import dev.circa.validator.Severity;
-import dev.circa.validator.analysis.Graph;
+import dev.circa.validator.analysis.Numbers;
+import dev.circa.validator.analysis.Parameters;
+import java.util.List;
 import java.util.Locale;
 
 /** An mvnormal covariance is not symmetric. */
@@ -10,9 +14,22 @@ import java.util.Locale;
 public final class CovarianceNotSymmetric extends Rule {
     @Override
     public void check(RuleContext ctx) {
-        for (Parameters.Problem p : ctx.parameters().problems()) {
-            if (p.code().equals(Parameters.ASYMMETRIC) && !ctx.skip(this, severity())) {
-                ctx.atNode(this, severity(), p.node(), p.member(), p.message());
+        List<Node> nodes = ctx.document().nodes();
+        for (int i = 0; i < nodes.size(); i++) {
+            if (nodes.get(i) instanceof InputNode in && in.family() == Family.MVNORMAL && Parameters.firstNonFinite(in) < 0) {
+                double tol = ctx.options().tolerance();
+                int[] rc = Parameters.asymmetry(in, tol);
+                if (rc != null && !ctx.skip(this, severity())) {
+                    int d = in.vars().length;
+                    int r = rc[0];
+                    int c = rc[1];
+                    double max = Parameters.covarianceScale(in);
+                    ctx.atNode(this, severity(), i, "cov/" + c + "/" + r, String.format(Locale.ROOT,
+                            "covariance of mvnormal node %d has cov[%d][%d] = %s but cov[%d][%d] = %s "
+                                    + "(expected equal within %s * max|cov| = %s, set by --tolerance)",
+                            in.id(), r, c, Numbers.text(in.params()[d + r * d + c]), c, r,
+                            Numbers.text(in.params()[d + c * d + r]), Numbers.text(tol), Numbers.text(tol * max)));
+                }
             }
         }
     }

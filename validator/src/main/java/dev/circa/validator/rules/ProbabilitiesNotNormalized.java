@@ -1,8 +1,12 @@
 package dev.circa.validator.rules;
 
-import dev.circa.validator.analysis.Parameters;
+import dev.circa.format.Family;
+import dev.circa.format.InputNode;
+import dev.circa.format.Node;
 import dev.circa.validator.Severity;
-import dev.circa.validator.analysis.Graph;
+import dev.circa.validator.analysis.Numbers;
+import dev.circa.validator.analysis.Parameters;
+import java.util.List;
 import java.util.Locale;
 
 /** A categorical's probabilities do not add to 1. */
@@ -10,9 +14,18 @@ import java.util.Locale;
 public final class ProbabilitiesNotNormalized extends Rule {
     @Override
     public void check(RuleContext ctx) {
-        for (Parameters.Problem p : ctx.parameters().problems()) {
-            if (p.code().equals(Parameters.PROBABILITIES) && !ctx.skip(this, severity())) {
-                ctx.atNode(this, severity(), p.node(), p.member(), p.message());
+        List<Node> nodes = ctx.document().nodes();
+        for (int i = 0; i < nodes.size(); i++) {
+            if (nodes.get(i) instanceof InputNode in && in.family() == Family.CATEGORICAL
+                    && Parameters.firstNonFinite(in) < 0 && Parameters.firstNegativeProbability(in, 0) < 0) {
+                double tol = ctx.options().tolerance();
+                double sum = Parameters.probabilityMass(in);
+                if (!(Math.abs(sum - 1) <= tol) && !ctx.skip(this, severity())) {
+                    ctx.atNode(this, severity(), i, in.logForm() ? "logProbs" : "probs", String.format(Locale.ROOT,
+                            "%s of categorical node %d add to %s (expected 1 +/- %s, set by --tolerance)",
+                            in.logForm() ? "exp(logProbs)" : "probabilities", in.id(), Numbers.text(sum),
+                            Numbers.text(tol)));
+                }
             }
         }
     }

@@ -1,8 +1,10 @@
 package dev.circa.validator.rules;
 
-import dev.circa.validator.analysis.Parameters;
+import dev.circa.format.Node;
+import dev.circa.format.SumNode;
 import dev.circa.validator.Severity;
-import dev.circa.validator.analysis.Graph;
+import dev.circa.validator.analysis.Numbers;
+import java.util.List;
 import java.util.Locale;
 
 /** A sum weight is negative. */
@@ -10,9 +12,16 @@ import java.util.Locale;
 public final class WeightNegative extends Rule {
     @Override
     public void check(RuleContext ctx) {
-        for (Parameters.Problem p : ctx.parameters().problems()) {
-            if (p.code().equals(Parameters.NEGATIVE_WEIGHT) && !ctx.skip(this, severity())) {
-                ctx.atNode(this, severity(), p.node(), p.member(), p.message());
+        List<Node> nodes = ctx.document().nodes();
+        for (int i = 0; i < nodes.size(); i++) {
+            if (nodes.get(i) instanceof SumNode s && !s.logWeights()) {
+                double[] w = s.weights();
+                for (int j = 0; j < w.length; j++) {
+                    if (Double.isFinite(w[j]) && w[j] < 0 && !ctx.skip(this, severity())) {
+                        ctx.atNode(this, severity(), i, "weights/" + j, String.format(Locale.ROOT,
+                                "weight %d of sum %d is %s; expected a weight >= 0", j, s.id(), Numbers.text(w[j])));
+                    }
+                }
             }
         }
     }

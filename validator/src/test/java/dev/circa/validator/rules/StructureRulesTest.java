@@ -19,6 +19,19 @@ import org.junit.jupiter.api.Test;
 class StructureRulesTest {
     private static final String AB = """
             {"name": "alarm", "type": "binary"}, {"name": "pump_on", "type": "binary"}""";
+    /** {@link #AB} and two more binary variables, for the structured-decomposability cases. */
+    private static final String FOUR_VARS = AB
+            + ", {\"name\": \"valve_open\", \"type\": \"binary\"}, {\"name\": \"drain_open\", \"type\": \"binary\"}";
+    /** Over {@link #FOUR_VARS}: indicators of variable 0, a bernoulli of each other variable, two products over 0 and 1. */
+    private static final String FOUR_VAR_LEAVES = """
+            {"id": 0, "input": "indicator", "var": 0, "value": 0},
+            {"id": 1, "input": "indicator", "var": 0, "value": 1},
+            {"id": 2, "input": "bernoulli", "var": 1, "p": 0.5},
+            {"id": 3, "input": "bernoulli", "var": 2, "p": 0.5},
+            {"id": 4, "input": "bernoulli", "var": 3, "p": 0.5},
+            {"id": 5, "product": [0, 2]},
+            {"id": 6, "product": [1, 2]},
+            """;
     /** Inputs 0..3: alarm=0, alarm=1, pump_on=0, pump_on=1; 4..7 the four products; 8 = equal, 9 = different. */
     private static final String XOR = """
             {"id": 0, "input": "indicator", "var": 0, "value": 0},
@@ -156,15 +169,8 @@ class StructureRulesTest {
     @Test
     void productNotStructured_ternaryProductsOneTree_clean() {
         // products of arity 3 and 2 over the tree [[0, 1], 2, 3]
-        String vars = AB + ", {\"name\": \"valve_open\", \"type\": \"binary\"}, {\"name\": \"drain_open\", \"type\": \"binary\"}";
-        String nodes = """
-                {"id": 0, "input": "indicator", "var": 0, "value": 0},
-                {"id": 1, "input": "indicator", "var": 0, "value": 1},
-                {"id": 2, "input": "bernoulli", "var": 1, "p": 0.5},
-                {"id": 3, "input": "bernoulli", "var": 2, "p": 0.5},
-                {"id": 4, "input": "bernoulli", "var": 3, "p": 0.5},
-                {"id": 5, "product": [0, 2]},
-                {"id": 6, "product": [1, 2]},
+        String vars = FOUR_VARS;
+        String nodes = FOUR_VAR_LEAVES + """
                 {"id": 7, "sum": [5, 6], "weights": [0.5, 0.5]},
                 {"id": 8, "product": [7, 3, 4]},
                 {"id": 9, "product": [5, 3, 4]},
@@ -181,15 +187,8 @@ class StructureRulesTest {
 
     @Test
     void productNotStructured_oneTree_clean() {
-        String vars = AB + ", {\"name\": \"valve_open\", \"type\": \"binary\"}, {\"name\": \"drain_open\", \"type\": \"binary\"}";
-        String nodes = """
-                {"id": 0, "input": "indicator", "var": 0, "value": 0},
-                {"id": 1, "input": "indicator", "var": 0, "value": 1},
-                {"id": 2, "input": "bernoulli", "var": 1, "p": 0.5},
-                {"id": 3, "input": "bernoulli", "var": 2, "p": 0.5},
-                {"id": 4, "input": "bernoulli", "var": 3, "p": 0.5},
-                {"id": 5, "product": [0, 2]},
-                {"id": 6, "product": [1, 2]},
+        String vars = FOUR_VARS;
+        String nodes = FOUR_VAR_LEAVES + """
                 {"id": 7, "product": [5, 3, 4]},
                 {"id": 8, "product": [6, 4, 3]},
                 {"id": 9, "sum": [7, 8], "weights": [0.5, 0.5]}""";

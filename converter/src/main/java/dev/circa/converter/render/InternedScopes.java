@@ -1,4 +1,4 @@
-package dev.circa.converter.normalize;
+package dev.circa.converter.render;
 
 import dev.circa.engine.CompiledCircuit;
 import dev.circa.engine.NodeKind;
@@ -14,7 +14,7 @@ import java.util.Map;
  * share one id and one sorted array, so a circuit with millions of nodes over few distinct scopes
  * stays small. Immutable once built.
  */
-public final class InternedScopes {
+final class InternedScopes {
     private final int[] scopeOfNode;
     private final List<int[]> scopes;
 
@@ -24,7 +24,7 @@ public final class InternedScopes {
     }
 
     /** Computes the scopes of every node of {@code c}. */
-    public static InternedScopes of(CompiledCircuit c) {
+    static InternedScopes of(CompiledCircuit c) {
         int n = c.nodeCount();
         int[] scopeOf = new int[n];
         List<int[]> scopes = new ArrayList<>();

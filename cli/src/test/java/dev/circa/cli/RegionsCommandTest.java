@@ -1,0 +1,80 @@
+package dev.circa.cli;
+
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import dev.circa.format.regions.Partition;
+import dev.circa.format.regions.Region;
+import dev.circa.format.regions.RegionGraph;
+import dev.circa.format.regions.RegionGraphReader;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.Arrays;
+import java.util.HashMap;
+import java.util.Map;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+/** {@code circa regions random} and {@code circa regions grid}. */
+class RegionsCommandTest {
+    @TempDir
+    Path tmp;
+
+    @Test
+    void grid_3x3_halvingGivesABinaryTreeOfNineCells() throws Exception {
+        Path out = tmp.resolve("g.json");
+        Cli.Result r = Cli.run("regions", "grid", "--height", "3", "--width", "3", "-o", out.toString());
+        assertEquals(ExitStatus.OK, r.status(), r::describe);
+        // By hand: halving down to single cells is a binary tree with 9 leaves, so 8 splits (partitions)
+        // and 9 + 8 = 17 regions (a full binary tree with n leaves has n - 1 inner nodes, common practice).
+        assertEquals("wrote " + out + ": 9 variables, 17 regions, 8 partitions", r.err().strip());
+        RegionGraph g = new RegionGraphReader().read(out);
+        assertEquals("r0c0", g.variables().get(0).name());
+        assertEquals("r2c2", g.variables().get(8).name());
+        assertPartitionsCoverTheirRegions(g);
+    }
+
+    @Test
+    void random_seed7_sameAsTheGoldenFileAndEveryPartitionCoversItsRegion() throws Exception {
+        Path out = tmp.resolve("r.json");
+        Cli.Result r = Cli.run("regions", "random", "--vars", "6", "--depth", "2", "--repeats", "2", "--seed", "7",
+                "-o", out.toString());
+        assertEquals(ExitStatus.OK, r.status(), r::describe);
+        // Golden file written by circa itself (fixtures/regions/SOURCE.md): guards the seeded splits.
+        assertEquals(Files.readString(Path.of("..", "fixtures", "regions", "random-n6-d2-r2-seed7.json")),
+                Files.readString(out));
+        RegionGraph g = new RegionGraphReader().read(out);
+        assertEquals(6, g.variables().size());
+        // Two repeats of the root: the root has two partitions (FORMAT.md section 3).
+        assertEquals(2, g.partitions().stream().filter(p -> p.region() == 0).count());
+        assertPartitionsCoverTheirRegions(g);
+    }
+
+    @Test
+    void random_bothVariableSources_status2() {
+        Cli.Result r = Cli.run("regions", "random", "--vars", "3", "--variables", "v.json", "--depth", "1",
+                "-o", tmp.resolve("x.json").toString());
+        Cli.assertUnusable(r, "--vars", "exactly one of");
+    }
+
+    @Test
+    void regions_withoutSubcommand_status2() {
+        Cli.Result r = Cli.run("regions");
+        assertEquals(ExitStatus.UNUSABLE, r.status(), r::describe);
+        assertTrue(r.err().contains("choose random or grid"), r::describe);
+    }
+
+    /** Each partition's parts are disjoint and their union is the partitioned region (FORMAT.md section 3). */
+    private static void assertPartitionsCoverTheirRegions(RegionGraph g) {
+        Map<Integer, int[]> vars = new HashMap<>();
+        for (Region region : g.regions()) {
+            vars.put(region.id(), region.vars());
+        }
+        for (Partition p : g.partitions()) {
+            int[] union = Arrays.stream(p.parts()).flatMap(part -> Arrays.stream(vars.get(part))).sorted().toArray();
+            int[] whole = Arrays.stream(vars.get(p.region())).sorted().toArray();
+            assertArrayEquals(whole, union, "partition of region " + p.region());
+        }
+    }
+}
