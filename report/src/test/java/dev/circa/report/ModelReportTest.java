@@ -208,6 +208,14 @@ class ModelReportTest {
     }
 
     @Test
+    void verdict_certificateStateGiven_shownBesideTheProperties() throws Exception {
+        Document page = Jsoup.parse(ReportFixtures.report(ReportFixtures.OUT.resolve("regimes.circuit.json"),
+                ReportOptions.defaults("circa test").withCertificateState("matches this file")));
+        assertTrue(page.getElementById("verdict").selectFirst("dl.facts").text().equals("certificate matches this file"));
+        assertTrue(regimes.getElementById("verdict").select("dl.facts").isEmpty(), "no certificate line without one");
+    }
+
+    @Test
     void pairs_badSpecifications_areRefusedWithTheReason() {
         List<Variable> vars = List.of(Variable.of("a", VariableType.REAL), Variable.of("b", VariableType.REAL));
         assertEquals(1, VariablePairs.parse("a:b", vars).size());
