@@ -4,6 +4,7 @@ import dev.circa.format.io.FormatException;
 import dev.circa.validator.regression.CheckReport;
 import dev.circa.validator.regression.RegressionCheck;
 import java.io.PrintWriter;
+import dev.circa.model.Model;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -40,7 +41,7 @@ final class CheckCommand implements Callable<Integer> {
     @Override
     public Integer call() throws FormatException {
         PrintWriter out = read.out();
-        LoadedCircuit model = read.load(circuitFile);
+        Model model = read.load(circuitFile);
         RegressionCheck check = new RegressionCheck(model.circuit(), tolerance.resolve(model.document().checks()));
         check.checkEmbedded(model.document());
         for (Path ref : references) {

@@ -6,6 +6,7 @@ import dev.circa.validator.compare.CompareOptions;
 import dev.circa.validator.compare.ComparisonReport;
 import dev.circa.validator.compare.IncompatibleCircuitsException;
 import java.io.PrintWriter;
+import dev.circa.model.Model;
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import picocli.CommandLine.Command;
@@ -56,8 +57,8 @@ final class CompareCommand implements Callable<Integer> {
         } catch (IllegalArgumentException e) {
             throw new UsageException("--atol and --rtol must be finite and >= 0");
         }
-        LoadedCircuit a = read.load(first);
-        LoadedCircuit b = read.load(second);
+        Model a = read.load(first);
+        Model b = read.load(second);
         ComparisonReport report;
         try {
             report = CircuitComparison.compare(a.circuit(), b.circuit(), options);

@@ -89,7 +89,7 @@ final class ConvertCommand implements Callable<Integer> {
             throw new UsageException("--verify must be >= 0, got " + verify);
         }
         if (toParams != null) {
-            return ParameterExport.run(source, regions, toParams, limits, err);
+            return ParameterExport.run(source, regions, toParams, read);
         }
         if (output == null) {
             throw new UsageException("missing -o OUT: the circuit to write");

@@ -1,9 +1,9 @@
 package dev.circa.cli;
 
 import dev.circa.engine.CompiledCircuit;
-import dev.circa.engine.Evaluator;
 import dev.circa.format.csv.CellValues;
 import dev.circa.format.csv.CsvReader;
+import dev.circa.model.Model;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
@@ -40,7 +40,7 @@ final class EvalCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
-        LoadedCircuit model = read.load(circuitFile);
+        Model model = read.load(circuitFile);
         CompiledCircuit c = model.circuit();
         int nv = c.variableCount();
         int no = c.outputCount();
@@ -61,7 +61,6 @@ final class EvalCommand implements Callable<Integer> {
                     names[header.length + o] = no == 1 ? "log_density" : "log_density:" + c.outputName(o);
                 }
                 out.record(names);
-                Evaluator ev = new Evaluator(c);
                 double[] data = new double[CHUNK * nv];
                 double[] result = new double[CHUNK * no];
                 String[][] cells = new String[CHUNK][header.length];
@@ -69,9 +68,9 @@ final class EvalCommand implements Callable<Integer> {
                 int rows;
                 while ((rows = cols.readRows(data, cells, CHUNK)) > 0) {
                     if (given.isEmpty()) {
-                        ev.logDensity(data, rows, result);
+                        model.logDensity(data, rows, result);
                     } else {
-                        ev.conditional(data, rows, givenMask, result);
+                        model.conditional(data, rows, givenMask, result);
                     }
                     for (int r = 0; r < rows; r++) {
                         System.arraycopy(cells[r], 0, line, 0, header.length);

@@ -1,9 +1,9 @@
 package dev.circa.cli;
 
 import dev.circa.engine.CompiledCircuit;
-import dev.circa.engine.Evaluator;
 import dev.circa.format.csv.CellValues;
 import dev.circa.format.csv.CsvReader;
+import dev.circa.model.Model;
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import picocli.CommandLine.Command;
@@ -36,7 +36,7 @@ final class ImputeCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
-        LoadedCircuit model = read.load(circuitFile);
+        Model model = read.load(circuitFile);
         CompiledCircuit c = model.circuit();
         int outIndex = OutputChoice.index(c, outputName);
         int nv = c.variableCount();
@@ -45,7 +45,6 @@ final class ImputeCommand implements Callable<Integer> {
             String[] header = cols.header();
             output.write(out -> {
                 out.record(header);
-                Evaluator ev = new Evaluator(c);
                 double[] data = new double[CHUNK * nv];
                 double[] filled = new double[CHUNK * nv];
                 double[] logValue = new double[CHUNK];
@@ -53,7 +52,7 @@ final class ImputeCommand implements Callable<Integer> {
                 String[] line = new String[header.length];
                 int rows;
                 while ((rows = cols.readRows(data, cells, CHUNK)) > 0) {
-                    ev.mpe(data, rows, outIndex, filled, logValue);
+                    model.impute(data, rows, outIndex, filled, logValue);
                     for (int r = 0; r < rows; r++) {
                         for (int col = 0; col < header.length; col++) {
                             int v = cols.variableOf(col);
@@ -65,7 +64,7 @@ final class ImputeCommand implements Callable<Integer> {
                 }
             }, circuitFile, data.file);
         }
-        read.err().println(model.deterministic()
+        read.err().println(model.mpeExact()
                 ? "circa impute: exact (the circuit is deterministic, so max-product gives the most probable explanation)"
                 : "circa impute: approximate (the circuit is not proven deterministic; max-product gives a lower bound "
                         + "of the most probable explanation, not necessarily the exact one)");

@@ -7,13 +7,12 @@ import dev.circa.format.Node;
 import dev.circa.format.Output;
 import dev.circa.format.ProductNode;
 import dev.circa.format.SumNode;
-import dev.circa.format.io.CircuitReader;
 import dev.circa.validator.CircuitStats;
 import dev.circa.validator.ExactQueries;
 import dev.circa.validator.Property;
-import dev.circa.validator.ValidationOptions;
+import dev.circa.model.CheckedCircuit;
+import dev.circa.model.Requirement;
 import dev.circa.validator.ValidationReport;
-import dev.circa.validator.Validator;
 import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.EnumMap;
@@ -36,9 +35,10 @@ final class InspectCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
-        CircuitDocument doc = new CircuitReader(read.limits()).read(circuitFile);
-        ValidationReport report = new Validator(ValidationOptions.defaults().withRequire("")
-                .withRule("CheckCaseFailed:off")).validate(doc);
+        // described whatever its verdict: read and validated by the model API's loader, nothing required
+        CheckedCircuit checked = read.loader().withRequirement(Requirement.parse("")).check(circuitFile);
+        CircuitDocument doc = checked.document();
+        ValidationReport report = checked.report();
         PrintWriter out = read.out();
         CircuitStats s = report.stats();
         int inputs = 0;

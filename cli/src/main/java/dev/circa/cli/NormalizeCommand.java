@@ -8,6 +8,7 @@ import dev.circa.format.io.CircuitWriter;
 import dev.circa.format.io.FormatException;
 import java.io.IOException;
 import java.io.PrintWriter;
+import dev.circa.model.Model;
 import java.nio.file.Path;
 import java.util.Locale;
 import java.util.concurrent.Callable;
@@ -37,7 +38,7 @@ final class NormalizeCommand implements Callable<Integer> {
     public Integer call() throws IOException {
         AtomicOutput.refuseInputs(output, circuitFile);
         PrintWriter err = read.err();
-        LoadedCircuit model = LoadedCircuit.load(circuitFile, read.limits(), err);
+        Model model = read.load(circuitFile);
         NormalizationResult r;
         try {
             r = Renormalizer.normalize(model.document(), model.circuit());

@@ -3,11 +3,8 @@ package dev.circa.cli;
 import dev.circa.converter.npz.NpzArchive;
 import dev.circa.converter.regions.RegionConverter;
 import dev.circa.format.CircuitDocument;
-import dev.circa.format.io.CircuitReader;
-import dev.circa.format.io.ReadLimits;
 import dev.circa.format.regions.RegionGraph;
 import dev.circa.format.regions.RegionGraphReader;
-import java.io.PrintWriter;
 import java.nio.file.Path;
 
 /** {@code circa convert --to-params}: a compiled circuit's parameters back in the layout of FORMAT.md section 3. */
@@ -16,15 +13,15 @@ final class ParameterExport {
     }
 
     /** Writes the parameters of {@code circuitFile}, compiled from {@code regions}, to {@code target}; the exit status. */
-    static int run(Path circuitFile, Path regions, Path target, ReadLimits limits, PrintWriter err) throws Exception {
+    static int run(Path circuitFile, Path regions, Path target, ReadOptions read) throws Exception {
         if (regions == null) {
             throw new UsageException("--to-params needs --regions RG.json, the region graph the circuit was compiled from");
         }
-        CircuitDocument circuit = new CircuitReader(limits).read(circuitFile);
-        RegionGraph graph = new RegionGraphReader(limits).read(regions);
+        CircuitDocument circuit = read.load(circuitFile).document();
+        RegionGraph graph = new RegionGraphReader(read.limits()).read(regions);
         NpzArchive archive = RegionConverter.exportParameters(circuit, graph);
         archive.write(target, false, circuitFile, regions);
-        err.println("wrote " + archive.size() + " arrays to " + target);
+        read.err().println("wrote " + archive.size() + " arrays to " + target);
         return ExitStatus.OK;
     }
 }

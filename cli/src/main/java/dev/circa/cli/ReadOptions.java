@@ -2,6 +2,10 @@ package dev.circa.cli;
 
 import dev.circa.format.io.FormatException;
 import dev.circa.format.io.ReadLimits;
+import dev.circa.model.Model;
+import dev.circa.model.ModelException;
+import dev.circa.model.ModelLoader;
+import dev.circa.validator.Diagnostic;
 import java.io.PrintWriter;
 import java.nio.file.Path;
 import picocli.CommandLine.Model.CommandSpec;
@@ -45,9 +49,36 @@ public final class ReadOptions {
         return command.commandLine().getErr();
     }
 
-    /** The circuit in {@code file}, read under these limits, validated and compiled. */
-    LoadedCircuit load(Path file) throws FormatException {
-        return LoadedCircuit.load(file, limits(), err());
+    /** The model API's loader with these limits and its default requirement (smooth and decomposable). */
+    ModelLoader loader() {
+        return Model.loader().withLimits(limits());
+    }
+
+    /**
+     * The circuit in {@code file} loaded through the model API as CLI.md requires of every command but
+     * {@code validate}: read under these limits, proven smooth and decomposable (else the first 20 error
+     * diagnostics on standard error and status 2), compiled; an unnormalised circuit gets a warning.
+     */
+    Model load(Path file) throws FormatException {
+        Model model;
+        try {
+            model = loader().load(file);
+        } catch (ModelException e) {
+            if (e.unreadable()) {
+                throw e;
+            }
+            for (Diagnostic d : e.diagnostics().subList(0, Math.min(20, e.diagnostics().size()))) {
+                err().println(file + ": " + d.render());
+            }
+            throw new FormatException(file.toString(), 0, 0, null, "cannot be used: " + e.diagnostics().size()
+                    + " error(s) found by the validator (listed above; a circuit must at least be smooth and "
+                    + "decomposable, with valid references and parameters; run circa validate for the full report)");
+        }
+        if (!model.normalized()) {
+            err().println("circa: warning: " + file + " is not proven normalized (log Z = "
+                    + model.report().logPartition() + "); densities are those of the unnormalised circuit");
+        }
+        return model;
     }
 
     /** The limits as set on the command line. */

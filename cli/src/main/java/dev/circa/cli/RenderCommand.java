@@ -8,6 +8,7 @@ import java.io.IOException;
 import java.io.OutputStreamWriter;
 import java.io.PrintWriter;
 import java.nio.charset.StandardCharsets;
+import dev.circa.model.Model;
 import java.nio.file.Path;
 import java.util.Locale;
 import java.util.concurrent.Callable;
@@ -47,7 +48,7 @@ final class RenderCommand implements Callable<Integer> {
         }
         AtomicOutput.refuseInputs(output, circuitFile);
         PrintWriter err = read.err();
-        LoadedCircuit model = LoadedCircuit.load(circuitFile, read.limits(), err);
+        Model model = read.load(circuitFile);
         RenderOptions options = new RenderOptions(scopes, maxNodes);
         if (DotRenderer.isSummary(model.circuit(), options)) {
             err.println(String.format(Locale.ROOT, "%d nodes is more than --max-render-nodes %d: drawing a summary by scope",

@@ -1,9 +1,9 @@
 package dev.circa.cli;
 
 import dev.circa.engine.CompiledCircuit;
-import dev.circa.engine.Sampler;
 import dev.circa.format.Variable;
 import dev.circa.format.csv.CellValues;
+import dev.circa.model.Model;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.concurrent.Callable;
@@ -44,27 +44,24 @@ final class SampleCommand implements Callable<Integer> {
         if (count < 0) {
             throw new UsageException("-n must be >= 0, got " + count);
         }
-        LoadedCircuit model = read.load(circuitFile);
+        Model model = read.load(circuitFile);
         CompiledCircuit c = model.circuit();
         int outIndex = OutputChoice.index(c, outputName);
         List<Variable> vars = c.variables();
         int nv = vars.size();
         output.write(out -> {
             out.record(vars.stream().map(Variable::name).toArray(String[]::new));
-            Sampler sampler = new Sampler(c, seed);
             double[] buf = new double[CHUNK * nv];
             String[] line = new String[nv];
-            long left = count;
-            while (left > 0) {
-                int n = (int) Math.min(CHUNK, left);
-                sampler.sample(outIndex, n, buf);
+            for (long first = 0; first < count; first += CHUNK) {
+                int n = (int) Math.min(CHUNK, count - first);
+                model.sample(outIndex, seed, first, n, buf);
                 for (int r = 0; r < n; r++) {
                     for (int v = 0; v < nv; v++) {
                         line[v] = CellValues.format(vars.get(v), buf[r * nv + v]);
                     }
                     out.record(line);
                 }
-                left -= n;
             }
         }, circuitFile);
         return ExitStatus.OK;

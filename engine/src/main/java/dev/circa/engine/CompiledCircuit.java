@@ -39,7 +39,7 @@ public final class CompiledCircuit {
      *
      * @throws CompileException when a child id is dangling or not earlier, an id repeats, a variable index
      *     is out of range, a family does not fit its variable's type, a sum's weight count differs from
-     *     its child count, a parameter count or value is impossible (e.g. sd <= 0, a covariance that is not
+     *     its child count, a parameter count or value is impossible (e.g. sd {@literal <=} 0, a covariance that is not
      *     positive definite, mvnormal variables that are not distinct), or an output names no node
      */
     public static CompiledCircuit compile(CircuitDocument doc) throws CompileException {

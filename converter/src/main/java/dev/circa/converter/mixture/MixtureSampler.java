@@ -181,18 +181,21 @@ public final class MixtureSampler {
             case GAMMA:
                 return gamma(p[0]) / p[1];
             case BETA: {
-                double a;
-                double b;
-                double x;
-                do {
-                    a = gamma(p[0]);
-                    b = gamma(p[1]);
-                    x = a / (a + b);
-                } while (!(x > 0 && x < 1));
-                return x;
+                double x = 0;
+                for (int attempt = 0; attempt < MAX_ATTEMPTS && !(x > 0 && x < 1); attempt++) {
+                    double a = gamma(p[0]);
+                    double b = gamma(p[1]);
+                    // halves where the sum leaves double range (both shapes near the largest double)
+                    x = a + b < Double.POSITIVE_INFINITY ? a / (a + b) : (0.5 * a) / (0.5 * a + 0.5 * b);
+                }
+                // shapes so extreme that every draw rounds to an end: the nearest point inside (0, 1)
+                return x > 0 && x < 1 ? x : x >= 1 ? Math.nextDown(1.0) : Double.MIN_VALUE;
             }
             case UNIFORM: {
-                double x = p[0] + (p[1] - p[0]) * random.nextDouble();
+                double u = random.nextDouble();
+                double w = p[1] - p[0];
+                // a width beyond double range is never formed: the two ends are weighted instead
+                double x = w < Double.POSITIVE_INFINITY ? p[0] + w * u : p[0] * (1 - u) + p[1] * u;
                 return Math.min(x, p[1]);
             }
             case POISSON:
@@ -203,6 +206,9 @@ public final class MixtureSampler {
                 throw new IllegalArgumentException("not a one-variable family: " + f);
         }
     }
+
+    /** Redraws of a value that rounded outside its open support before it is moved inside. */
+    private static final int MAX_ATTEMPTS = 64;
 
     /** A standard normal variate (Marsaglia's polar method). */
     private double gaussian() {
@@ -220,11 +226,12 @@ public final class MixtureSampler {
     /** A Gamma(shape, 1) variate (Marsaglia and Tsang's method; shape below 1 by the power boost). */
     private double gamma(double shape) {
         if (shape < 1) {
-            double g;
-            do {
+            double g = 0;
+            for (int attempt = 0; attempt < MAX_ATTEMPTS && !(g > 0); attempt++) {
                 g = gamma(shape + 1) * Math.pow(random.nextDouble(), 1 / shape);
-            } while (!(g > 0));
-            return g;
+            }
+            // a shape so small that every draw underflows: the smallest positive double, inside (0, inf)
+            return g > 0 ? g : Double.MIN_VALUE;
         }
         double d = shape - 1.0 / 3;
         double c = 1 / Math.sqrt(9 * d);

@@ -111,8 +111,7 @@ public final class NpyFormat {
                     "shape %s of %s needs %d bytes of values but the entry holds at most %d",
                     NpyArray.shapeText(h.shape), h.descr, dataBytes, Math.max(0, maxBytes - prefix - headerLength)));
         }
-        double[] raw = new double[(int) count];
-        readValues(in, dt, raw, file, name);
+        double[] raw = readValues(in, dt, (int) count, file, name);
         if (in.read() != -1) {
             throw problem(file, name, "there are bytes after the " + count + " values that shape "
                     + NpyArray.shapeText(h.shape) + " holds");
@@ -129,27 +128,39 @@ public final class NpyFormat {
         }
     }
 
-    private static void readValues(InputStream in, Dtype dt, double[] out, String file, String name) throws IOException {
+    /** Values are read into an array that grows as they arrive, from at most this many: a header never decides an allocation. */
+    private static final int FIRST_CHUNK = 1 << 16;
+
+    /**
+     * Reads {@code count} values. The array grows (doubling) as values really arrive, so a shape or an
+     * entry size that claims more than the archive holds costs no more memory than the archive's own bytes.
+     */
+    private static double[] readValues(InputStream in, Dtype dt, int count, String file, String name) throws IOException {
         byte[] buf = new byte[dt.size * 8192];
         ByteBuffer bb = ByteBuffer.wrap(buf).order(dt.order);
+        double[] out = new double[Math.min(count, FIRST_CHUNK)];
         int done = 0;
-        while (done < out.length) {
-            int n = Math.min(8192, out.length - done);
+        while (done < count) {
+            int n = Math.min(8192, count - done);
             int bytes = n * dt.size;
             int got = 0;
             while (got < bytes) {
                 int r = in.read(buf, got, bytes - got);
                 if (r < 0) {
-                    throw problem(file, name, "the values end early: " + (done + got / dt.size) + " of " + out.length
+                    throw problem(file, name, "the values end early: " + (done + got / dt.size) + " of " + count
                             + " read (truncated)");
                 }
                 got += r;
+            }
+            if (done + n > out.length) {
+                out = java.util.Arrays.copyOf(out, (int) Math.min(count, Math.max(done + n, 2L * out.length)));
             }
             for (int i = 0; i < n; i++) {
                 out[done + i] = dt.get(bb, i * dt.size, done + i, file, name);
             }
             done += n;
         }
+        return out;
     }
 
     /** Reorders values stored with the first axis varying fastest into row-major order. */

@@ -75,6 +75,7 @@ public final class NpzArchive {
         Map<String, NpyArray> out = new LinkedHashMap<>();
         long budget = maxBytes;
         try (ZipFile zip = new ZipFile(path.toFile())) {
+            ZipEnd.check(path, file);
             Enumeration<? extends ZipEntry> entries = zip.entries();
             while (entries.hasMoreElements()) {
                 ZipEntry e = entries.nextElement();
@@ -118,7 +119,8 @@ public final class NpzArchive {
         Map<String, NpyArray> out = new LinkedHashMap<>();
         long budget = maxBytes;
         boolean any = false;
-        try (ZipInputStream zin = new ZipInputStream(new BufferedInputStream(stream, 1 << 16))) {
+        ZipEnd.Keeper kept = new ZipEnd.Keeper(stream);
+        try (ZipInputStream zin = new ZipInputStream(new BufferedInputStream(kept, 1 << 16))) {
             ZipEntry e;
             while ((e = zin.getNextEntry()) != null) {
                 any = true;
@@ -128,6 +130,9 @@ public final class NpzArchive {
                 NpyArray a = NpyFormat.read(counted, key, file, limit);
                 budget -= counted.count;
                 put(out, a, file);
+            }
+            if (any) {
+                kept.drainAndCheck(file);
             }
         } catch (FormatException e) {
             throw e;

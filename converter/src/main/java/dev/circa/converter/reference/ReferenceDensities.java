@@ -58,7 +58,12 @@ public final class ReferenceDensities {
                 return (p[0] - 1) * Math.log(x) + (p[1] - 1) * Math.log1p(-x)
                         - (logGamma(p[0]) + logGamma(p[1]) - logGamma(p[0] + p[1]));
             case UNIFORM:
-                return x >= p[0] && x <= p[1] ? -Math.log(p[1] - p[0]) : Double.NEGATIVE_INFINITY;
+                if (!(x >= p[0] && x <= p[1])) {
+                    return Double.NEGATIVE_INFINITY;
+                }
+                // a width beyond double range: log(high - low) = log(high / 2 - low / 2) + log 2
+                return p[1] - p[0] < Double.POSITIVE_INFINITY ? -Math.log(p[1] - p[0])
+                        : -(Math.log(0.5 * p[1] - 0.5 * p[0]) + Math.log(2));
             case POISSON: {
                 if (!(x >= 0) || x != Math.rint(x)) {
                     return Double.NEGATIVE_INFINITY;

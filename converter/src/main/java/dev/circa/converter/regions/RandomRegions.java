@@ -7,6 +7,7 @@ import dev.circa.format.Variable;
 import dev.circa.format.VariableType;
 import dev.circa.format.io.FormatException;
 import dev.circa.format.io.JsonInput;
+import dev.circa.format.io.LimitExceededException;
 import dev.circa.format.io.ReadLimits;
 import dev.circa.format.io.VariableListReader;
 import dev.circa.format.regions.Partition;
@@ -87,6 +88,50 @@ public final class RandomRegions {
      * @param seed the seed
      */
     public static RegionGraph generate(List<Variable> variables, int depth, int repeats, long seed) {
+        return generate(variables, depth, repeats, seed, ReadLimits.DEFAULT);
+    }
+
+    /**
+     * The most variable references a random region graph can hold: the root's n, and per repetition n at
+     * each split level (a level below which every region is a single variable holds no more splits).
+     */
+    public static long maxVariableReferences(long variables, int depth, long repeats) {
+        long levels = Math.min(depth, Math.max(0, variables - 1));
+        double refs = variables + (double) repeats * variables * levels;
+        return refs >= Long.MAX_VALUE ? Long.MAX_VALUE : (long) refs;
+    }
+
+    /**
+     * Checks, before any work, that a random region graph of {@code variables} variables, depth and
+     * repeats stays within {@code --max-nodes}: the number of variables, and the variable references of
+     * its regions (the circuit compiled from it has at least one input node for each reference of a leaf
+     * region, and the generator holds them all).
+     *
+     * @throws LimitExceededException naming {@code --max-nodes}
+     */
+    public static void checkLimits(long variables, int depth, long repeats, ReadLimits limits) throws LimitExceededException {
+        long refs = maxVariableReferences(variables, depth, repeats);
+        if (variables > limits.maxNodes() || refs > limits.maxNodes()) {
+            throw new LimitExceededException(null, 0, 0, null, String.format(java.util.Locale.ROOT,
+                    "a random region graph of %d variables, depth %d and %d repeats holds up to %d variable references,"
+                            + " more than the limit of %d set by %s (raise it with %s, or lower --depth or --repeats)",
+                    variables, depth, repeats, refs, limits.maxNodes(), ReadLimits.MAX_NODES, ReadLimits.MAX_NODES),
+                    ReadLimits.MAX_NODES);
+        }
+    }
+
+    /**
+     * Draws a random region graph within {@code limits}, checked before any work ({@link #checkLimits}).
+     *
+     * @throws IllegalArgumentException for an empty variable list, a negative depth, fewer than one
+     *     repeat, or a graph beyond {@code --max-nodes} (the message names the limit)
+     */
+    public static RegionGraph generate(List<Variable> variables, int depth, int repeats, long seed, ReadLimits limits) {
+        try {
+            checkLimits(variables.size(), depth, repeats, limits);
+        } catch (LimitExceededException e) {
+            throw new IllegalArgumentException(e.problem(), e);
+        }
         if (variables.isEmpty()) {
             throw new IllegalArgumentException("a region graph needs at least one variable");
         }

@@ -12,7 +12,7 @@ import java.util.Locale;
  * uniform in [-4, 16), counts uniform in 0..20, states uniform; each cell missing with probability
  * 1/2; values outside an input's support must give -inf on both sides), and the point with every
  * variable missing: 3N + 1 rows. A point passes when
- * |circuit - direct| <= atol + rtol * |direct| for every output; -inf matches only -inf.
+ * |circuit - direct| {@literal <=} atol + rtol * |direct| for every output; -inf matches only -inf.
  * Stateless.
  */
 public final class RegionVerifier {

@@ -62,7 +62,7 @@ public final class SplitMix64 {
     }
 
     /**
-     * A Gamma(shape, 1) draw: Marsaglia and Tsang's method for shape >= 1; for shape < 1 a
+     * A Gamma(shape, 1) draw: Marsaglia and Tsang's method for shape {@literal >=} 1; for shape {@literal <} 1 a
      * Gamma(shape + 1) draw times U^(1/shape).
      */
     public double nextGamma(double shape) {

@@ -200,6 +200,53 @@ class NpzArchiveTest {
     }
 
     @Test
+    void read_directoryClaimsFourGigabytes_allocationBoundedByWhatTheArchiveHolds() throws IOException {
+        // 400,000,000 float64 values (3.2 GB) claimed by the header and a central directory that says the
+        // entry holds 4 GB; the entry really holds one value. The values are read in growing chunks, so
+        // the read fails after the one value without allocating for the claim.
+        byte[] lie = npy(1, "{'descr': '<f8', 'fortran_order': False, 'shape': (400000000,), }", le(8, 1.0));
+        byte[] z = zip(true, Map.of("big.npy", lie));
+        int cen = lastIndexOf(z, new byte[] {0x50, 0x4b, 0x01, 0x02});
+        ByteBuffer.wrap(z).order(ByteOrder.LITTLE_ENDIAN).putInt(cen + 24, 0xfffffffe);
+        Path p = tmp.resolve("claims-4gb.npz");
+        Files.write(p, z);
+        FormatException e = assertThrows(FormatException.class, () -> NpzArchive.read(p, 1L << 40));
+        assertTrue(e.getMessage().startsWith(p + ": array big: the values end early: 1 of 400000000"), e.getMessage());
+        FormatException s = assertThrows(FormatException.class,
+                () -> NpzArchive.read(new ByteArrayInputStream(z), "-", 1L << 40));
+        assertTrue(s.getMessage().startsWith("-: array big: the values end early"), s.getMessage());
+    }
+
+    @Test
+    void read_trailingBytesAfterTheArchive_errorWithOffset() throws IOException {
+        byte[] one = npy(1, "{'descr': '<f8', 'fortran_order': False, 'shape': (), }", le(8, 1.0));
+        byte[] z = zip(false, Map.of("w.npy", one));
+        for (byte[] tail : new byte[][] {{0, 0, 0, 0}, "garbage".getBytes(StandardCharsets.US_ASCII)}) {
+            byte[] bad = java.util.Arrays.copyOf(z, z.length + tail.length);
+            System.arraycopy(tail, 0, bad, z.length, tail.length);
+            Path p = tmp.resolve("trailing.npz");
+            Files.write(p, bad);
+            String expected = "unexpected " + tail.length + " bytes after the end of the zip archive at byte " + z.length;
+            FormatException e = assertThrows(FormatException.class, () -> NpzArchive.read(p, 1 << 20));
+            assertTrue(e.getMessage().startsWith(p + ": ") && e.getMessage().contains(expected), e.getMessage());
+            FormatException s = assertThrows(FormatException.class,
+                    () -> NpzArchive.read(new ByteArrayInputStream(bad), "-", 1 << 20));
+            assertTrue(s.getMessage().startsWith("-: ") && s.getMessage().contains(expected), s.getMessage());
+        }
+        // the archive as written, and one with a zip comment, still read
+        assertEquals(1.0, NpzArchive.read(new ByteArrayInputStream(z), "-", 1 << 20).get("w").value(0));
+    }
+
+    private static int lastIndexOf(byte[] a, byte[] sig) {
+        for (int i = a.length - sig.length; i >= 0; i--) {
+            if (java.util.Arrays.equals(a, i, i + sig.length, sig, 0, sig.length)) {
+                return i;
+            }
+        }
+        return -1;
+    }
+
+    @Test
     void read_entryNamesWithPaths_onlyKeysNoFilesWritten() throws IOException {
         byte[] one = npy(1, "{'descr': '<f8', 'fortran_order': False, 'shape': (), }", le(8, 1.0));
         Map<String, byte[]> entries = new java.util.LinkedHashMap<>();

@@ -29,6 +29,9 @@ public final class Families {
 
     private static final double NEG_INF = Double.NEGATIVE_INFINITY;
     private static final double HALF_LOG_2PI = SpecialFunctions.HALF_LOG_2PI;
+    private static final double LN_2 = Math.log(2);
+    /** The largest count below which every whole number is a double: the count range of every reader. */
+    public static final double MAX_COUNT = 9.007199254740992E15;
 
     private Families() {
     }
@@ -77,7 +80,9 @@ public final class Families {
             case INDICATOR:
                 return x == p[off] ? 0 : NEG_INF;
             case NORMAL: {
-                double z = (x - p[off]) / p[off + 1];
+                double diff = x - p[off];
+                // a difference beyond double range is divided term by term (sd may be as large)
+                double z = Double.isInfinite(diff) ? x / p[off + 1] - p[off] / p[off + 1] : diff / p[off + 1];
                 return -0.5 * z * z - Math.log(p[off + 1]) - HALF_LOG_2PI;
             }
             case LOGNORMAL: {
@@ -95,7 +100,7 @@ public final class Families {
             case BETA:
                 return logBeta(x, p[off], p[off + 1]);
             case UNIFORM:
-                return x < p[off] || x > p[off + 1] ? NEG_INF : -Math.log(p[off + 1] - p[off]);
+                return x < p[off] || x > p[off + 1] ? NEG_INF : -logWidth(p[off], p[off + 1]);
             case POISSON:
                 return isCount(x) ? SpecialFunctions.logPoisson(x, p[off]) : NEG_INF;
             case BINOMIAL:
@@ -105,29 +110,62 @@ public final class Families {
         }
     }
 
-    private static double logGamma(double x, double shape, double rate) {
-        if (x < 0 || Double.isNaN(x) || x == Double.POSITIVE_INFINITY) {
-            return NEG_INF;
-        }
-        double norm = shape * Math.log(rate) - SpecialFunctions.logGamma(shape);
-        if (x == 0) {
-            // the density's limit at the edge of the support
-            return shape < 1 ? Double.POSITIVE_INFINITY : shape == 1 ? norm : NEG_INF;
-        }
-        return (shape - 1) * Math.log(x) - rate * x + norm;
+    /** log(high - low) for low < high, also when the difference exceeds the largest double. */
+    private static double logWidth(double low, double high) {
+        double w = high - low;
+        return w < Double.POSITIVE_INFINITY ? Math.log(w) : Math.log(0.5 * high - 0.5 * low) + LN_2;
     }
 
-    private static double logBeta(double x, double a, double b) {
-        if (x < 0 || x > 1 || Double.isNaN(x)) {
+    /**
+     * The gamma log-density on its open support (0, inf), in Loader's form through the Poisson mass with
+     * real argument, so that large shapes and rates do not cancel (shape log rate against log Gamma(shape)).
+     */
+    private static double logGamma(double x, double shape, double rate) {
+        if (!(x > 0) || x == Double.POSITIVE_INFINITY) {
             return NEG_INF;
         }
-        double norm = -SpecialFunctions.logBeta(a, b);
-        if (x == 0 || x == 1) {
-            // the density's limit at the edge of the support
-            double e = x == 0 ? a : b;
-            return e < 1 ? Double.POSITIVE_INFINITY : e == 1 ? norm : NEG_INF;
+        double y = rate * x;
+        if (y >= Double.MIN_NORMAL && y < Double.POSITIVE_INFINITY) {
+            return shape >= 1
+                    ? SpecialFunctions.logPoissonRaw(shape - 1, y) + Math.log(rate)
+                    : SpecialFunctions.logPoissonRaw(shape, y) + Math.log(shape) - Math.log(x);
         }
-        return (a - 1) * Math.log(x) + (b - 1) * Math.log1p(-x) + norm;
+        if (y == Double.POSITIVE_INFINITY) {
+            return NEG_INF;
+        }
+        // rate * x below the normal range: its logarithm from the factors'
+        double logY = Math.log(rate) + Math.log(x);
+        return shape * logY - y - SpecialFunctions.logGamma(shape) - Math.log(x);
+    }
+
+    /** Shapes from which the beta density is computed in Loader's form (large terms cancel algebraically). */
+    private static final double BETA_LOADER_FROM = 15;
+
+    /** The beta log-density on its open support (0, 1). */
+    private static double logBeta(double x, double a, double b) {
+        if (!(x > 0 && x < 1)) {
+            return NEG_INF;
+        }
+        if (a < BETA_LOADER_FROM || b < BETA_LOADER_FROM) {
+            return (a - 1) * Math.log(x) + (b - 1) * Math.log1p(-x) - SpecialFunctions.logBeta(a, b);
+        }
+        // -(bd0(a, s x) + bd0(b, s (1 - x))) + (log a + log b - log s) / 2 - log(x (1 - x)) - log(2 pi) / 2
+        // - the Stirling corrections, with s = a + b; bd0 is homogeneous, so halves avoid overflow of s
+        double scale = a + b < Double.POSITIVE_INFINITY ? 1 : 2;
+        double ah = a / scale;
+        double bh = b / scale;
+        double sh = ah + bh;
+        double dev = scale * (SpecialFunctions.deviancePart(ah, sh * x) + SpecialFunctions.deviancePart(bh, sh * (1 - x)));
+        double big = Math.max(a, b);
+        double logS = Math.log(big) + Math.log1p(Math.min(a, b) / big);
+        return -dev + 0.5 * (Math.log(a) + Math.log(b) - logS) - Math.log(x) - Math.log1p(-x) - HALF_LOG_2PI
+                - SpecialFunctions.stirlingError(a) - SpecialFunctions.stirlingError(b) + stirlingErrorAtSum(a, b);
+    }
+
+    /** The Stirling correction of log Gamma at a + b (0 when the sum is beyond double range, as it is below 1e-300 there). */
+    private static double stirlingErrorAtSum(double a, double b) {
+        double s = a + b;
+        return s < Double.POSITIVE_INFINITY ? SpecialFunctions.stirlingError(s) : 0;
     }
 
     /** The most probable value (a mode; the first one on ties, an edge of the support when unbounded). */
@@ -150,11 +188,11 @@ public final class Families {
             case NORMAL:
                 return p[off];
             case LOGNORMAL:
-                return Math.exp(p[off] - p[off + 1] * p[off + 1]);
+                return Math.min(Math.exp(p[off] - p[off + 1] * p[off + 1]), Double.MAX_VALUE);
             case EXPONENTIAL:
                 return 0;
             case GAMMA:
-                return p[off] > 1 ? (p[off] - 1) / p[off + 1] : 0;
+                return p[off] > 1 ? Math.min((p[off] - 1) / p[off + 1], Double.MAX_VALUE) : 0;
             case BETA: {
                 double a = p[off];
                 double b = p[off + 1];
@@ -167,7 +205,7 @@ public final class Families {
                 return a <= b ? 0 : 1;
             }
             case UNIFORM:
-                return 0.5 * (p[off] + p[off + 1]);
+                return 0.5 * p[off] + 0.5 * p[off + 1];
             case POISSON:
                 return Math.floor(p[off]);
             case BINOMIAL:
@@ -206,9 +244,35 @@ public final class Families {
         return 0;
     }
 
-    /** The log-density at the mode: the largest value the input takes (+inf when unbounded). */
+    /**
+     * The supremum of the log-density: its value at the mode, or its limit when the mode is an open end of
+     * the support (+inf when the density is unbounded there).
+     */
     public static double maxLogDensity(int code, double[] p, int off, int len) {
+        if (code == GAMMA && p[off] <= 1) {
+            return p[off] < 1 ? Double.POSITIVE_INFINITY : Math.log(p[off + 1]);
+        }
+        if (code == BETA) {
+            double m = mode(code, p, off, len);
+            if (m == 0 || m == 1) {
+                double e = m == 0 ? p[off] : p[off + 1];
+                double other = m == 0 ? p[off + 1] : p[off];
+                return e < 1 || other < 1 ? Double.POSITIVE_INFINITY : -SpecialFunctions.logBeta(p[off], p[off + 1]);
+            }
+        }
         return logDensity(code, p, off, len, mode(code, p, off, len));
+    }
+
+    /**
+     * Whether a value drawn by {@link #sample} is one the readers accept for the family's variable: a
+     * finite double, and for a count family a whole number up to {@link #MAX_COUNT}. A draw that is not
+     * has overflowed the double or count range: the sampler stops there and names the input.
+     */
+    public static boolean representable(int code, double value) {
+        if (!Double.isFinite(value)) {
+            return false;
+        }
+        return (code != POISSON && code != BINOMIAL) || value <= MAX_COUNT;
     }
 
     /** One draw (StrictMath only, so the same on every machine). */
@@ -249,8 +313,14 @@ public final class Families {
                 return Variates.gamma(rng, p[off]) / p[off + 1];
             case BETA:
                 return Variates.beta(rng, p[off], p[off + 1]);
-            case UNIFORM:
-                return p[off] + (p[off + 1] - p[off]) * rng.nextDouble();
+            case UNIFORM: {
+                double low = p[off];
+                double high = p[off + 1];
+                double u = rng.nextDouble();
+                double w = high - low;
+                // a width beyond double range is never formed: the two ends are weighted instead
+                return w < Double.POSITIVE_INFINITY ? low + w * u : low * (1 - u) + high * u;
+            }
             case POISSON:
                 return Variates.poisson(rng, p[off]);
             case BINOMIAL:

@@ -21,7 +21,7 @@ public final class ParameterLimits {
         ANY,
         /** A number > 0. */
         POSITIVE,
-        /** A probability: 0 <= x <= 1. */
+        /** A probability: 0 {@literal <=} x {@literal <=} 1. */
         PROBABILITY,
         /** A number >= 0 (each of a categorical's probabilities). */
         NON_NEGATIVE,

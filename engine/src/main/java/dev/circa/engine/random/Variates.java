@@ -12,7 +12,7 @@ public final class Variates {
     private Variates() {
     }
 
-    /** A Gamma(shape, 1) variate (Marsaglia and Tsang, 2000; shape < 1 by the power boost). */
+    /** A Gamma(shape, 1) variate (Marsaglia and Tsang, 2000; shape {@literal <} 1 by the power boost). */
     public static double gamma(Xoshiro256 rng, double shape) {
         if (shape < 1) {
             double g = gamma(rng, shape + 1);
@@ -39,11 +39,35 @@ public final class Variates {
         }
     }
 
-    /** A Beta(a, b) variate as X / (X + Y) with X ~ Gamma(a), Y ~ Gamma(b). */
+    /**
+     * A Beta(a, b) variate as X / (X + Y) with X ~ Gamma(a), Y ~ Gamma(b). Where X + Y leaves double
+     * range (both shapes near the largest double) the ratio is taken of halves; where both underflow to 0
+     * (tiny shapes) it is taken of their logarithms, so the draw is never NaN.
+     */
     public static double beta(Xoshiro256 rng, double a, double b) {
-        double x = gamma(rng, a);
-        double y = gamma(rng, b);
-        return x / (x + y);
+        // drawn as gamma() draws them, keeping the pieces of a shape below 1 for the logarithms
+        double gx = a < 1 ? gamma(rng, a + 1) : gamma(rng, a);
+        double ux = a < 1 ? rng.nextOpenDouble() : 1;
+        double x = a < 1 ? gx * StrictMath.pow(ux, 1 / a) : gx;
+        double gy = b < 1 ? gamma(rng, b + 1) : gamma(rng, b);
+        double uy = b < 1 ? rng.nextOpenDouble() : 1;
+        double y = b < 1 ? gy * StrictMath.pow(uy, 1 / b) : gy;
+        double sum = x + y;
+        if (sum == Double.POSITIVE_INFINITY) {
+            return (0.5 * x) / (0.5 * x + 0.5 * y);
+        }
+        if (x > 0 && y > 0) {
+            return x / sum;
+        }
+        double powX = StrictMath.log(ux) / a;
+        double powY = StrictMath.log(uy) / b;
+        if (Double.isInfinite(powX) || Double.isInfinite(powY)) {
+            // subnormal shapes: the draw is 0 or 1 by which power term is smaller
+            double sign = StrictMath.log(ux) * b - StrictMath.log(uy) * a;
+            return sign < 0 ? 0 : sign > 0 ? 1 : 0.5;
+        }
+        // 1 / (1 + Y / X) from the logarithms
+        return 1 / (1 + StrictMath.exp(StrictMath.log(gy) + powY - StrictMath.log(gx) - powX));
     }
 
     /**

@@ -8,6 +8,9 @@ import dev.circa.format.Variable;
  * count is a non-negative integer; a real is a finite decimal number.
  */
 public final class CellValues {
+    /** The largest count read or written: every whole number up to 2^53 is exactly a double. */
+    public static final long MAX_COUNT = 1L << 53;
+
     private CellValues() {
     }
 
@@ -18,6 +21,13 @@ public final class CellValues {
      * @throws IllegalArgumentException with a sentence saying what was expected, when the cell is not a value of {@code v}
      */
     public static double parse(Variable v, String cell) {
+        if (v.type().isDiscrete() && !v.states().isEmpty()) {
+            // a label is matched exactly as written first: " a" and "a" may be two states
+            int exact = v.stateIndex(cell);
+            if (exact >= 0) {
+                return exact;
+            }
+        }
         String s = cell.strip();
         if (s.isEmpty()) {
             return Double.NaN;
@@ -34,6 +44,10 @@ public final class CellValues {
                 long n = integer(s, v, "a count (0, 1, 2, ...)");
                 if (n < 0) {
                     throw new IllegalArgumentException("\"" + cell + "\" is negative; variable " + v.name() + " is a count (0, 1, 2, ...)");
+                }
+                if (n > MAX_COUNT) {
+                    throw new IllegalArgumentException("\"" + cell + "\" is beyond the counts a double holds exactly; variable "
+                            + v.name() + " is a count from 0 to " + MAX_COUNT);
                 }
                 return n;
             }

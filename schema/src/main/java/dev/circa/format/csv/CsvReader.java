@@ -4,13 +4,11 @@ import dev.circa.format.io.FormatException;
 import dev.circa.format.io.InputFiles;
 import dev.circa.format.io.LimitExceededException;
 import dev.circa.format.io.ReadLimits;
+import dev.circa.format.io.TextDecoding;
 import java.io.IOException;
 import java.io.InputStream;
-import java.io.InputStreamReader;
 import java.io.Reader;
 import java.nio.charset.CharacterCodingException;
-import java.nio.charset.CodingErrorAction;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -44,12 +42,14 @@ public final class CsvReader implements AutoCloseable {
         this.limits = limits;
     }
 
-    /** Opens {@code path} as UTF-8 ({@code .gz} decompressed, {@code -} for standard input). */
+    /**
+     * Opens {@code path} ({@code .gz} decompressed, {@code -} for standard input) as UTF-8, UTF-16 or
+     * UTF-32 with or without a byte-order mark, detected as the JSON reader does ({@link TextDecoding}).
+     */
     public static CsvReader open(Path path, ReadLimits limits) throws FormatException {
         InputStream s = InputFiles.open(path, limits.maxBytes());
-        Reader r = new InputStreamReader(s, StandardCharsets.UTF_8.newDecoder()
-                .onMalformedInput(CodingErrorAction.REPORT).onUnmappableCharacter(CodingErrorAction.REPORT));
-        return new CsvReader(r, InputFiles.displayName(path), limits);
+        String name = InputFiles.displayName(path);
+        return new CsvReader(TextDecoding.reader(s, name), name, limits);
     }
 
     /** The file name used in messages. */
@@ -218,7 +218,7 @@ public final class CsvReader implements AutoCloseable {
             len = in.read(buf, 0, buf.length);
             pos = 0;
         } catch (CharacterCodingException e) {
-            throw new FormatException(file, line, col, null, "not UTF-8 text");
+            throw new FormatException(file, line, col, null, "not valid text: expected UTF-8, UTF-16 or UTF-32");
         } catch (FormatException e) {
             throw e;
         } catch (IOException e) {

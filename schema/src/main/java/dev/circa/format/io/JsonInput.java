@@ -195,11 +195,33 @@ public final class JsonInput implements AutoCloseable {
         if (token() != JsonToken.VALUE_STRING) {
             throw error(pointer, "expected a string, found " + describe(token()));
         }
+        String s;
         try {
-            return parser.getString();
+            s = parser.getString();
         } catch (JacksonException e) {
             throw fail(e);
         }
+        int bad = loneSurrogate(s);
+        if (bad >= 0) {
+            throw error(pointer, String.format(Locale.ROOT, "the string has a lone surrogate \\u%04x at character %d, which is"
+                    + " not a Unicode character (no UTF-8 file or CSV cell can hold it); expected text of whole characters",
+                    (int) s.charAt(bad), bad + 1));
+        }
+        return s;
+    }
+
+    /** The index of the first UTF-16 surrogate without its pair in {@code s}, or -1. */
+    static int loneSurrogate(String s) {
+        int n = s.length();
+        for (int i = 0; i < n; i++) {
+            char c = s.charAt(i);
+            if (Character.isHighSurrogate(c) && i + 1 < n && Character.isLowSurrogate(s.charAt(i + 1))) {
+                i++;
+            } else if (Character.isSurrogate(c)) {
+                return i;
+            }
+        }
+        return -1;
     }
 
     /** The current value as a string, or {@code null} for JSON null. */

@@ -13,6 +13,7 @@ import dev.circa.format.io.InputFiles;
 import dev.circa.format.io.JsonInput;
 import dev.circa.format.io.LimitExceededException;
 import dev.circa.format.io.ReadLimits;
+import dev.circa.format.io.TextDecoding;
 import java.io.BufferedInputStream;
 import java.io.ByteArrayInputStream;
 import java.io.IOException;
@@ -27,12 +28,14 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.Set;
 import org.snakeyaml.engine.v2.api.LoadSettings;
+import org.snakeyaml.engine.v2.schema.CoreSchema;
 import tools.jackson.core.JacksonException;
 import tools.jackson.core.JsonParser;
 import tools.jackson.core.JsonToken;
 import tools.jackson.core.StreamReadFeature;
 import tools.jackson.core.TokenStreamLocation;
 import tools.jackson.dataformat.yaml.YAMLFactory;
+import tools.jackson.dataformat.yaml.YAMLFactoryBuilder;
 import tools.jackson.dataformat.yaml.YAMLMapper;
 import tools.jackson.dataformat.yaml.YAMLReadFeature;
 import tools.jackson.dataformat.yaml.YAMLSchema;
@@ -165,19 +168,43 @@ public final class MixtureReader {
             return JsonInput.fromStream(in, file, limits);
         }
         try {
-            YAMLFactory factory = YAMLFactory.builder()
+            YAMLFactoryBuilder builder = YAMLFactory.builder()
                     .yamlSchema(YAMLSchema.CORE)
                     .disable(YAMLReadFeature.PARSE_OCTAL_NUMBERS)
                     .enable(StreamReadFeature.STRICT_DUPLICATE_DETECTION)
                     .streamReadConstraints(JsonInput.constraints(limits))
                     .loadSettings(LoadSettings.builder().setCodePointLimit(Integer.MAX_VALUE)
-                            .setMaxAliasesForCollections(0).build())
-                    .build();
-            JsonParser p = YAMLMapper.builder(factory).build().createParser(in);
+                            .setSchema(new CoreSchema())
+                            .setMaxAliasesForCollections(0).build());
+            // UTF-8, UTF-16 or UTF-32 with or without a byte-order mark, as JSON text is read
+            JsonParser p = YAMLMapper.builder(new CoreYamlFactory(builder, file)).build()
+                    .createParser(TextDecoding.reader(in, file));
             return new JsonInput(new YamlGuard(p, file), file);
         } catch (JacksonException e) {
             throw JsonInput.translate(e, file);
         }
+    }
+
+    /** The longest model path or pointer kept whole; a longer one keeps its start and its end. */
+    static final int MAX_PATH = 240;
+    private static final int PATH_HEAD = 80;
+    private static final String ELISION = "...";
+
+    /**
+     * The path of a member or element of {@code parent}. Paths are kept for every expression and value,
+     * so their length is bounded: beyond {@link #MAX_PATH} characters the middle is elided, and memory
+     * grows linearly with nesting instead of with its square (20,000 nested mixtures once took gigabytes).
+     */
+    static String child(String parent, String segment) {
+        int total = parent.length() + segment.length();
+        if (total <= MAX_PATH) {
+            return parent + segment;
+        }
+        int keep = MAX_PATH - PATH_HEAD - ELISION.length() - segment.length();
+        if (keep <= 0) {
+            return parent.substring(0, Math.min(parent.length(), PATH_HEAD)) + ELISION + segment;
+        }
+        return parent.substring(0, PATH_HEAD) + ELISION + parent.substring(parent.length() - keep) + segment;
     }
 
     /** Gives a position to limit errors that the parser reported without one. */
@@ -277,7 +304,12 @@ public final class MixtureReader {
                         }
                     }
                     case "version" -> {
-                        version = readScalarText(member);
+                        if (in.isNumber()) {
+                            // one rule for JSON and YAML: 1.0 unquoted is a number, and a number loses "1.10"
+                            throw in.error(member, "version " + in.parser().getText() + " is a number; expected the"
+                                    + " string \"1.0\" (quote it: version: \"1.0\")");
+                        }
+                        version = in.readString(member);
                         DocumentHeader.checkVersion(in, version, member);
                     }
                     case "name" -> name = in.readString(member);
@@ -482,7 +514,7 @@ public final class MixtureReader {
             in.expect(JsonToken.START_OBJECT, "definitions", "an object of named expressions");
             String m;
             while ((m = in.nextProperty()) != null) {
-                String q = ptr + "/" + escape(m);
+                String q = child(ptr, "/" + escape(m));
                 definitionLocations.put(m, here(q));
                 rawDefinitions.put(m, readExpression("definitions." + m, q, false));
             }
@@ -511,8 +543,8 @@ public final class MixtureReader {
             Located vars = null;
             String m;
             while ((m = in.nextProperty()) != null) {
-                String q = ptr + "/" + escape(m);
-                String qp = path + "." + m;
+                String q = child(ptr, "/" + escape(m));
+                String qp = child(path, "." + m);
                 Family family = Family.fromJsonName(m);
                 if (m.equals("label")) {
                     if (!entry) {
@@ -558,7 +590,7 @@ public final class MixtureReader {
                         in.expect(JsonToken.START_ARRAY, qp, "a list of mixture entries");
                         while (in.nextElement()) {
                             int i = r.entries.size();
-                            Raw e = readExpression(qp + "[" + i + "]", q + "/" + i, true);
+                            Raw e = readExpression(child(qp, "[" + i + "]"), child(q, "/" + i), true);
                             r.entries.add(e);
                             r.weights.add(e.weight);
                             r.weightLocations.add(e.weightLocation);
@@ -573,7 +605,7 @@ public final class MixtureReader {
                         in.expect(JsonToken.START_ARRAY, qp, "a list of expressions");
                         while (in.nextElement()) {
                             int i = r.factors.size();
-                            r.factors.add(readExpression(qp + "[" + i + "]", q + "/" + i, false));
+                            r.factors.add(readExpression(child(qp, "[" + i + "]"), child(q, "/" + i), false));
                         }
                         if (r.factors.isEmpty()) {
                             throw at(at, qp, "a product needs at least one factor");
@@ -634,14 +666,14 @@ public final class MixtureReader {
                 Map<String, Located> map = new LinkedHashMap<>();
                 String m;
                 while ((m = in.nextProperty()) != null) {
-                    map.put(m, readLocated(path + "." + m, ptr + "/" + escape(m)));
+                    map.put(m, readLocated(child(path, "." + m), child(ptr, "/" + escape(m))));
                 }
                 return new Located(map, path, loc);
             }
             if (t == JsonToken.START_ARRAY) {
                 List<Located> list = new ArrayList<>();
                 while (in.nextElement()) {
-                    list.add(readLocated(path + "[" + list.size() + "]", ptr + "/" + list.size()));
+                    list.add(readLocated(child(path, "[" + list.size() + "]"), child(ptr, "/" + list.size())));
                 }
                 return new Located(list, path, loc);
             }

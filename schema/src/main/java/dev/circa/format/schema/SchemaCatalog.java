@@ -85,6 +85,13 @@ public final class SchemaCatalog {
     private final SchemaRegistry registry;
     private final Map<Kind, Schema> schemas = new EnumMap<>(Kind.class);
     private final Schema nodeSchema;
+    /**
+     * The sub-schemas a node of each kind must satisfy ({@code input-FAMILY}, {@code productNode},
+     * {@code sumNode}), keyed by family name, "product" and "sum". Each forbids other members, so a node
+     * that satisfies the one its kind names satisfies the whole node schema: checking it alone gives the
+     * same verdict at a fraction of the cost (the node schema tries every kind and family in turn).
+     */
+    private final Map<String, Schema> nodeKindSchemas = new java.util.HashMap<>();
 
     private SchemaCatalog() {
         registry = newRegistry();
@@ -95,6 +102,17 @@ public final class SchemaCatalog {
         }
         nodeSchema = registry.getSchema(SchemaLocation.of(Kind.CIRCUIT.id() + "#/$defs/node"));
         nodeSchema.initializeValidators();
+        for (dev.circa.format.Family f : dev.circa.format.Family.values()) {
+            nodeKindSchemas.put(f.jsonName(), defOf("input-" + f.jsonName()));
+        }
+        nodeKindSchemas.put("product", defOf("productNode"));
+        nodeKindSchemas.put("sum", defOf("sumNode"));
+    }
+
+    private Schema defOf(String name) {
+        Schema s = registry.getSchema(SchemaLocation.of(Kind.CIRCUIT.id() + "#/$defs/" + name));
+        s.initializeValidators();
+        return s;
     }
 
     /** The shared catalog (schemas are loaded once, on first use). */
@@ -188,7 +206,59 @@ public final class SchemaCatalog {
      * @param pointer the node's pointer in its document (e.g. {@code /nodes/41}), prefixed to every violation
      */
     public List<SchemaViolation> validateNode(JsonNode node, String pointer) {
-        return convert(nodeSchema.validate(node), pointer == null ? "" : pointer);
+        String prefix = pointer == null ? "" : pointer;
+        List<SchemaViolation> huge = integersBeyondRange(node, prefix);
+        if (!huge.isEmpty()) {
+            // the schema library compares integer keywords in 64 bits and fails on such numbers; they are
+            // reported here, by member, instead
+            return huge;
+        }
+        Schema kind = kindSchema(node);
+        if (kind != null && kind.validate(node).isEmpty()) {
+            return List.of();
+        }
+        // not valid for its kind (or of no single kind): the whole node schema gives the full account
+        return convert(nodeSchema.validate(node), prefix);
+    }
+
+    /** The sub-schema of the one kind {@code node} names, or {@code null} when it names none or several. */
+    private Schema kindSchema(JsonNode node) {
+        if (node == null || !node.isObject()) {
+            return null;
+        }
+        JsonNode input = node.get("input");
+        boolean product = node.has("product");
+        boolean sum = node.has("sum");
+        if (input != null) {
+            return product || sum || !input.isString() ? null : nodeKindSchemas.get(input.asString());
+        }
+        if (product == sum) {
+            return null;
+        }
+        return nodeKindSchemas.get(product ? "product" : "sum");
+    }
+
+    /** Numbers beyond 2^53 in magnitude are not integers a double holds exactly (nor, past 2^63, a long). */
+    private static final double LARGEST_EXACT_INTEGER = 9.007199254740992E15;
+
+    /**
+     * The members of a node whose integer parameters ({@code trials}, {@code value}) lie beyond the
+     * integers a double holds exactly, each as a violation naming the member.
+     */
+    private static List<SchemaViolation> integersBeyondRange(JsonNode node, String prefix) {
+        List<SchemaViolation> out = new ArrayList<>();
+        if (node == null || !node.isObject()) {
+            return out;
+        }
+        for (String member : new String[] {"trials", "value"}) {
+            JsonNode v = node.get(member);
+            if (v != null && v.isNumber() && Math.abs(v.asDouble()) > LARGEST_EXACT_INTEGER) {
+                out.add(new SchemaViolation(prefix + "/" + member, "maximum", String.format(Locale.ROOT,
+                        "%s is %s, beyond the integers a double holds exactly; expected an integer from %s to %.0f",
+                        member, v.toString(), member.equals("trials") ? "0" : "0 (a state index)", LARGEST_EXACT_INTEGER)));
+            }
+        }
+        return out;
     }
 
     /**

@@ -20,7 +20,11 @@ public final class InputMutator {
             "-", "0", "-0", "1e999999", "-1e999999", "1e-999999", "NaN", "Infinity", "-Infinity", ".inf", ".nan",
             "9223372036854775808", "2147483648", "1.5", "\\u0000", "\\", "\n", "\r\n", "\r", "\t", "#", "\"\"", "''",
             "- ", "&a ", "*a", "!!binary ", "---\n", "...", "\"id\": ", "\"nodes\": ", "\"format\": ", "\"version\": \"2.0\"",
-            "\"$schema\": \"http://127.0.0.1:9/x\"", "-inf", "1e308", "\uFEFF", "\u00e9", "\ud83d\ude00");
+            "\"$schema\": \"http://127.0.0.1:9/x\"", "-inf", "1e308", "\uFEFF", "\u00e9", "\ud83d\ude00",
+            // extreme but valid numbers: the ends of double range, subnormals, integers past 2^53 and 2^63,
+            // YAML 1.2 core-schema spellings, and a lone surrogate escape
+            "1.7976931348623157e308", "-1.7976931348623157e308", "4.9e-324", "2.2250738585072014e-308", "1e19",
+            "-1e300", "9007199254740993", ".5", "-.5", "+1", "0x1F", "0o17", "\\ud800", " a");
     private static final byte[][] BAD_UTF8 = {{(byte) 0xC3, 0x28}, {(byte) 0xFF}, {(byte) 0xED, (byte) 0xA0, (byte) 0x80},
         {(byte) 0xF0, (byte) 0x9F}, {0}};
 

@@ -291,4 +291,20 @@ class SchemaCatalogTest {
         }
         return m;
     }
+
+    @Test
+    void validateCircuit_integerParametersBeyondDoubleIntegers_violationNamesTheMember() throws FormatException {
+        for (String v : new String[] {"1e19", "1e300", "-1e300", "-1e19"}) {
+            String doc = "{\"format\": \"circa.circuit\", \"version\": \"1.0\", \"variables\": [{\"name\": \"c\","
+                    + " \"type\": \"count\"}, {\"name\": \"b\", \"type\": \"binary\"}], \"nodes\": ["
+                    + "{\"id\": 0, \"input\": \"binomial\", \"var\": 0, \"trials\": " + v + ", \"p\": 0.5},"
+                    + "{\"id\": 1, \"input\": \"indicator\", \"var\": 1, \"value\": " + v + "},"
+                    + "{\"id\": 2, \"product\": [0, 1]}], \"outputs\": [{\"name\": \"joint\", \"node\": 2}]}";
+            List<SchemaViolation> found = SchemaCatalog.get().validateCircuit(
+                    new java.io.ByteArrayInputStream(doc.getBytes(StandardCharsets.UTF_8)), "big.json", ReadLimits.DEFAULT);
+            List<String> pointers = found.stream().map(SchemaViolation::pointer).toList();
+            assertTrue(pointers.contains("/nodes/0/trials") && pointers.contains("/nodes/1/value"), v + ": " + found);
+            assertTrue(found.get(0).message().contains("beyond the integers a double holds exactly"), found.toString());
+        }
+    }
 }

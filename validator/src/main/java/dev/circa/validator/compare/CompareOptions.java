@@ -6,7 +6,7 @@ package dev.circa.validator.compare;
  * @param samples points sampled from each circuit per output (each also checked with random variables missing)
  * @param seed seed of the samples and of the choice of missing variables
  * @param atol absolute tolerance on log-densities
- * @param rtol relative tolerance: two log-densities a and b agree when |a - b| <= atol + rtol * max(|a|, |b|)
+ * @param rtol relative tolerance: two log-densities a and b agree when |a - b| {@literal <=} atol + rtol * max(|a|, |b|)
  */
 public record CompareOptions(int samples, long seed, double atol, double rtol) {
     /** The defaults of CLI.md: 1000 samples, seed 0, atol = rtol = 1e-9. */

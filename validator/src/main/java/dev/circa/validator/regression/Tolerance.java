@@ -3,7 +3,7 @@ package dev.circa.validator.regression;
 import dev.circa.format.Checks;
 
 /**
- * The pass rule of a reference case: |computed - expected| <= atol + rtol * |expected|; an
+ * The pass rule of a reference case: |computed - expected| {@literal <=} atol + rtol * |expected|; an
  * expectation of -inf passes only when the computed value is -inf.
  *
  * @param atol absolute tolerance, >= 0

@@ -1,0 +1,217 @@
+package dev.circa.model;
+
+import dev.circa.engine.CompileException;
+import dev.circa.engine.CompiledCircuit;
+import dev.circa.format.CircuitDocument;
+import dev.circa.format.io.CircuitReader;
+import dev.circa.format.io.FormatException;
+import dev.circa.format.io.InputFiles;
+import dev.circa.format.io.ReadLimits;
+import dev.circa.validator.Validator;
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.file.Path;
+import java.util.Objects;
+
+/**
+ * Loads circuits into {@link Model}s: reads one in a single streaming pass under named
+ * {@link ReadLimits}, proves it fit to serve under a {@link Requirement} with the validator, and
+ * compiles it. Immutable: the {@code with...} methods return a copy, and one loader may be shared by
+ * any number of threads. Defaults: {@link ReadLimits#DEFAULT}, {@link Requirement#DEFAULT},
+ * {@link ReadHook#NONE}.
+ *
+ * <pre>{@code
+ * Model model = Model.loader()
+ *         .withLimits(ReadLimits.DEFAULT.withMaxNodes(1_000_000))
+ *         .withRequirement(Requirement.also(Property.DETERMINISTIC))
+ *         .load(Path.of("model.json.gz"));
+ * }</pre>
+ */
+public final class ModelLoader {
+    private static final ModelLoader DEFAULT = new ModelLoader(ReadLimits.DEFAULT, Requirement.DEFAULT, ReadHook.NONE);
+
+    private final ReadLimits limits;
+    private final Requirement requirement;
+    private final ReadHook hook;
+
+    private ModelLoader(ReadLimits limits, Requirement requirement, ReadHook hook) {
+        this.limits = Objects.requireNonNull(limits, "limits");
+        this.requirement = Objects.requireNonNull(requirement, "requirement");
+        this.hook = Objects.requireNonNull(hook, "hook");
+    }
+
+    /** The loader with every default. */
+    static ModelLoader defaults() {
+        return DEFAULT;
+    }
+
+    /**
+     * This loader with other read limits.
+     *
+     * @param l the limits on bytes, nodes, nesting depth, string and number length
+     * @return a new loader
+     */
+    public ModelLoader withLimits(ReadLimits l) {
+        return new ModelLoader(l, requirement, hook);
+    }
+
+    /**
+     * This loader with another requirement.
+     *
+     * @param r what must be proven before the model is served
+     * @return a new loader
+     */
+    public ModelLoader withRequirement(Requirement r) {
+        return new ModelLoader(limits, r, hook);
+    }
+
+    /**
+     * This loader with a hook that sees the stored bytes of each file as they are read.
+     *
+     * @param h the hook
+     * @return a new loader
+     */
+    public ModelLoader withReadHook(ReadHook h) {
+        return new ModelLoader(limits, requirement, h);
+    }
+
+    /**
+     * The read limits.
+     *
+     * @return the limits
+     */
+    public ReadLimits limits() {
+        return limits;
+    }
+
+    /**
+     * The requirement.
+     *
+     * @return what must be proven
+     */
+    public Requirement requirement() {
+        return requirement;
+    }
+
+    /**
+     * The read hook.
+     *
+     * @return the hook, {@link ReadHook#NONE} by default
+     */
+    public ReadHook readHook() {
+        return hook;
+    }
+
+    /**
+     * Loads the circuit file {@code file}: gzip-decompressed when its name ends in {@code .gz},
+     * standard input when it is {@code -}.
+     *
+     * @param file the circuit file
+     * @return the model
+     * @throws ModelException when the file cannot be read, or the circuit is not proven fit to serve
+     */
+    public Model load(Path file) throws ModelException {
+        return accept(check(file));
+    }
+
+    /**
+     * Loads a circuit from {@code in}, gzip-decompressed when {@code source} ends in {@code .gz}. The
+     * stream is read to the end of the document and closed.
+     *
+     * @param in input: the circuit's bytes as stored
+     * @param source the name of the input in messages
+     * @return the model
+     * @throws ModelException when the input cannot be read, or the circuit is not proven fit to serve
+     */
+    public Model load(InputStream in, String source) throws ModelException {
+        return accept(check(in, source));
+    }
+
+    /**
+     * Reads and validates the circuit file {@code file} as {@link #load(Path)} does, without refusing it
+     * when the validator finds errors and without compiling it: for tools that describe a circuit.
+     *
+     * @param file the circuit file
+     * @return the document and the validator's report
+     * @throws ModelException when the file cannot be read
+     */
+    public CheckedCircuit check(Path file) throws ModelException {
+        String name = InputFiles.displayName(file);
+        InputStream stored;
+        try {
+            stored = InputFiles.openStored(file);
+        } catch (FormatException e) {
+            throw ModelException.unreadable(e);
+        }
+        Path fileName = file.getFileName();
+        return validate(name, read(stored, name, fileName != null && InputFiles.isGzipName(fileName.toString())));
+    }
+
+    /**
+     * Reads and validates a circuit from {@code in} as {@link #load(InputStream, String)} does, without
+     * refusing it when the validator finds errors and without compiling it.
+     *
+     * @param in input: the circuit's bytes as stored
+     * @param source the name of the input in messages
+     * @return the document and the validator's report
+     * @throws ModelException when the input cannot be read
+     */
+    public CheckedCircuit check(InputStream in, String source) throws ModelException {
+        return validate(source, read(in, source, InputFiles.isGzipName(source)));
+    }
+
+    /**
+     * Proves a document already in memory (built in code or produced by a converter) fit to serve and
+     * compiles it. The read limits and the read hook do not apply: nothing is read.
+     *
+     * @param doc the document
+     * @return the model
+     * @throws ModelException when the circuit is not proven fit to serve
+     */
+    public Model load(CircuitDocument doc) throws ModelException {
+        return accept(validate(doc.source() == null ? "<document>" : doc.source(), doc));
+    }
+
+    private CircuitDocument read(InputStream stored, String name, boolean gzip) throws ModelException {
+        CircuitDocument doc;
+        InputStream observed = stored;
+        try {
+            observed = hook.wrap(stored, name);
+            try (InputStream in = InputFiles.decoded(observed, name, gzip, limits.maxBytes())) {
+                doc = new CircuitReader(limits).read(in, name);
+            }
+        } catch (FormatException e) {
+            closeAfterFailure(observed);
+            throw ModelException.unreadable(e);
+        } catch (IOException e) {
+            closeAfterFailure(observed);
+            throw ModelException.unreadable(new FormatException(name, 0, 0, null, "cannot be read: " + e.getMessage()));
+        }
+        return doc;
+    }
+
+    private CheckedCircuit validate(String name, CircuitDocument doc) {
+        return new CheckedCircuit(name, doc, new Validator(requirement.validationOptions()).validate(doc));
+    }
+
+    private Model accept(CheckedCircuit checked) throws ModelException {
+        if (!checked.fit()) {
+            throw ModelException.invalid(checked.source(), checked.report(), requirement);
+        }
+        CompiledCircuit circuit;
+        try {
+            circuit = CompiledCircuit.compile(checked.document());
+        } catch (CompileException e) {
+            throw ModelException.unreadable(new FormatException(checked.source(), 0, 0, null, e.getMessage()));
+        }
+        return new Model(checked.source(), checked.document(), checked.report(), circuit, requirement);
+    }
+
+    private static void closeAfterFailure(InputStream in) {
+        try {
+            in.close();
+        } catch (IOException ignored) {
+            // the read already failed with its own message
+        }
+    }
+}

@@ -1,0 +1,77 @@
+package dev.circa.format.io;
+
+import java.io.BufferedInputStream;
+import java.io.IOException;
+import java.io.InputStream;
+import java.io.InputStreamReader;
+import java.io.Reader;
+import java.nio.charset.Charset;
+import java.nio.charset.CodingErrorAction;
+import java.nio.charset.StandardCharsets;
+
+/**
+ * Decodes a text input the way the JSON reader does (RFC 8259 section 8.1, RFC 4627 section 3): UTF-8,
+ * UTF-16 or UTF-32 in either byte order, with or without a byte-order mark. A mark decides; without
+ * one, the pattern of zero bytes among the first four (text that starts with an ASCII character)
+ * does; otherwise UTF-8. The mark is not part of the text. Malformed bytes are reported, never
+ * replaced. Used by the CSV and YAML readers.
+ */
+public final class TextDecoding {
+    private static final Charset UTF_32BE = Charset.forName("UTF-32BE");
+    private static final Charset UTF_32LE = Charset.forName("UTF-32LE");
+
+    private TextDecoding() {
+    }
+
+    /** A reader of {@code in} in its detected encoding, positioned after any byte-order mark. */
+    public static Reader reader(InputStream in, String file) throws FormatException {
+        InputStream b = in.markSupported() ? in : new BufferedInputStream(in);
+        byte[] head = new byte[4];
+        int n;
+        try {
+            b.mark(4);
+            n = b.readNBytes(head, 0, 4);
+            b.reset();
+        } catch (FormatException e) {
+            throw e;
+        } catch (IOException e) {
+            throw new FormatException(file, 0, 0, null, "cannot be read: " + e.getMessage());
+        }
+        int skip = 0;
+        Charset cs = StandardCharsets.UTF_8;
+        int b0 = n > 0 ? head[0] & 0xff : -1;
+        int b1 = n > 1 ? head[1] & 0xff : -1;
+        int b2 = n > 2 ? head[2] & 0xff : -1;
+        int b3 = n > 3 ? head[3] & 0xff : -1;
+        if (b0 == 0 && b1 == 0 && b2 == 0xfe && b3 == 0xff) {
+            cs = UTF_32BE;
+            skip = 4;
+        } else if (b0 == 0xff && b1 == 0xfe && b2 == 0 && b3 == 0) {
+            cs = UTF_32LE;
+            skip = 4;
+        } else if (b0 == 0xef && b1 == 0xbb && b2 == 0xbf) {
+            skip = 3;
+        } else if (b0 == 0xfe && b1 == 0xff) {
+            cs = StandardCharsets.UTF_16BE;
+            skip = 2;
+        } else if (b0 == 0xff && b1 == 0xfe) {
+            cs = StandardCharsets.UTF_16LE;
+            skip = 2;
+        } else if (n == 4 && b0 == 0 && b1 == 0 && b2 == 0 && b3 != 0) {
+            cs = UTF_32BE;
+        } else if (n == 4 && b0 != 0 && b1 == 0 && b2 == 0 && b3 == 0) {
+            cs = UTF_32LE;
+        } else if (n >= 2 && b0 == 0 && b1 != 0) {
+            cs = StandardCharsets.UTF_16BE;
+        } else if (n >= 2 && b0 != 0 && b1 == 0) {
+            cs = StandardCharsets.UTF_16LE;
+        }
+        try {
+            b.skipNBytes(skip);
+        } catch (IOException e) {
+            throw new FormatException(file, 0, 0, null, "cannot be read: " + e.getMessage());
+        }
+        return new InputStreamReader(b, cs.newDecoder()
+                .onMalformedInput(CodingErrorAction.REPORT).onUnmappableCharacter(CodingErrorAction.REPORT));
+    }
+}
