@@ -1,6 +1,7 @@
 package dev.circa.cli;
 
 import dev.circa.format.io.AtomicOutput;
+import dev.circa.model.Model;
 import dev.circa.report.ModelReport;
 import dev.circa.report.ReportOptions;
 import dev.circa.report.ReportSource;
@@ -53,7 +54,7 @@ final class ReportCommand implements Callable<Integer> {
         inputs.add(modelFile);
         Path[] in = inputs.toArray(new Path[0]);
         AtomicOutput.refuseInputs(output, in);
-        LoadedCircuit model = read.load(modelFile);
+        Model model = read.load(modelFile);
         ReportOptions options = options(model);
         ReportSource src = ReportSource.of(modelFile, model.document(), model.circuit());
         write(src, options, output, in);
@@ -63,7 +64,7 @@ final class ReportCommand implements Callable<Integer> {
         return ExitStatus.OK;
     }
 
-    private ReportOptions options(LoadedCircuit model) {
+    private ReportOptions options(Model model) {
         ReportOptions o = ReportOptions.defaults("circa " + Main.VERSION).withReferences(references)
                 .withLimits(read.limits());
         try {
