@@ -17,6 +17,7 @@ import picocli.CommandLine.Command;
             SampleCommand.class,
             InspectCommand.class,
             CheckCommand.class, CompareCommand.class, NormalizeCommand.class, RenderCommand.class,
+            ReportCommand.class,
             DemoCommand.class,
             CertifyCommand.class,
             CommandLine.HelpCommand.class
