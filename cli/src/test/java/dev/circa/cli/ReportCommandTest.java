@@ -73,4 +73,24 @@ class ReportCommandTest {
         assertTrue(r.err().contains("ProductScopesOverlap"), r::describe);
         assertFalse(Files.exists(out));
     }
+
+    @Test
+    void report_withCertificate_verdictSaysTheBytesMatch_andAChangedFileIsRefused() throws Exception {
+        Path model = dir.resolve("model.json");
+        Files.copy(Cli.EXAMPLE, model);
+        Path cert = dir.resolve("model.cert.json");
+        assertEquals(ExitStatus.OK, Cli.run("certify", model.toString(), "-o", cert.toString()).status());
+        Path out = dir.resolve("report.html");
+        Cli.Result r = Cli.run("report", model.toString(), "--certificate", cert.toString(), "-o", out.toString());
+        assertEquals(ExitStatus.OK, r.status(), r::describe);
+        String page = Files.readString(out);
+        assertTrue(page.contains("bytes match the certificate " + cert), "certificate state shown");
+
+        // one more byte of white space at the end: still valid JSON, but no longer the certified file
+        Files.writeString(model, Files.readString(model) + " ");
+        Path out2 = dir.resolve("report2.html");
+        Cli.Result changed = Cli.run("report", model.toString(), "--certificate", cert.toString(), "-o", out2.toString());
+        assertEquals(ExitStatus.UNUSABLE, changed.status(), changed::describe);
+        assertFalse(Files.exists(out2));
+    }
 }
