@@ -27,9 +27,12 @@ final class CheckCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
+    @Mixin
+    CertificateOption certificate;
+
     @Override
     public Integer call() throws FormatException {
-        Model model = read.load(circuitFile);
+        Model model = certificate.load(read, circuitFile);
         RegressionCheck regression = new RegressionCheck(model.circuit(), check.tolerance(model.document().checks()));
         regression.checkEmbedded(model.document());
         for (Path ref : check.references()) {

@@ -7,6 +7,7 @@ import java.io.Writer;
 /** Writes CSV records, quoting fields that need it. */
 final class CsvOut {
     private final Writer w;
+    private long records;
 
     CsvOut(Writer w) {
         this.w = w;
@@ -20,6 +21,21 @@ final class CsvOut {
             w.write(CellValues.quote(fields[i]));
         }
         w.write('\n');
+        records++;
+    }
+
+    /** The records written so far (the header included). */
+    long records() {
+        return records;
+    }
+
+    /** Pushes out what is buffered, ignoring a failure (used on the way out of an error). */
+    void flushQuietly() {
+        try {
+            w.flush();
+        } catch (IOException ignored) {
+            // the error being reported matters more than a failed flush
+        }
     }
 
     void flush() throws IOException {

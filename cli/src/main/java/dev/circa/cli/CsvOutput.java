@@ -1,6 +1,7 @@
 package dev.circa.cli;
 
 import dev.circa.format.io.AtomicOutput;
+import dev.circa.format.io.FormatException;
 import java.io.BufferedWriter;
 import java.io.IOException;
 import java.io.OutputStreamWriter;
@@ -18,12 +19,28 @@ final class CsvOutput {
         void write(CsvOut out) throws IOException;
     }
 
-    /** Writes the rows whole or not at all, refusing to write over one of {@code inputs}. */
+    /**
+     * Writes the rows whole or not at all, refusing to write over one of {@code inputs}. Standard output
+     * cannot be taken back: rows go out as they are made, and an error names how many data rows were
+     * written before it.
+     */
     void write(Rows rows, Path... inputs) throws IOException {
-        AtomicOutput.write(output, stream -> {
-            CsvOut out = new CsvOut(new BufferedWriter(new OutputStreamWriter(stream, StandardCharsets.UTF_8)));
-            rows.write(out);
-            out.flush();
-        }, inputs);
+        CsvOut[] opened = new CsvOut[1];
+        try {
+            AtomicOutput.write(output, stream -> {
+                CsvOut out = new CsvOut(new BufferedWriter(new OutputStreamWriter(stream, StandardCharsets.UTF_8)));
+                opened[0] = out;
+                rows.write(out);
+                out.flush();
+            }, inputs);
+        } catch (FormatException e) {
+            if (!output.toString().equals("-") || opened[0] == null) {
+                throw e;
+            }
+            opened[0].flushQuietly();
+            long rowsOut = Math.max(0, opened[0].records() - 1);
+            throw new FormatException(e.file(), e.line(), e.column(), e.pointer(), e.problem() + " (" + rowsOut
+                    + (rowsOut == 1 ? " data row was" : " data rows were") + " written to standard output before this error)");
+        }
     }
 }

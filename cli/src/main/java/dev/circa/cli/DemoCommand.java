@@ -12,6 +12,9 @@ import dev.circa.format.CircuitDocument;
 import dev.circa.format.io.ReadLimits;
 import dev.circa.format.mixture.MixtureReader;
 import dev.circa.format.regions.RegionGraphReader;
+import dev.circa.report.ReportOptions;
+import dev.circa.report.ReportSource;
+import dev.circa.report.VariablePairs;
 import dev.circa.validator.Diagnostic;
 import dev.circa.validator.Property;
 import dev.circa.validator.SchemaCheck;
@@ -34,7 +37,8 @@ import picocli.CommandLine.Parameters;
         description = {"Runs the pump-station scenario end to end: converts a hand-written regime mixture,",
             "compiles a region-graph model from bundled NumPy parameters, validates both, checks a reference",
             "set computed with NumPy and SciPy, catches a deliberately broken export, and renders the small",
-            "model as Graphviz DOT. Writes every file to DIR (default: circa-demo)."})
+            "model as Graphviz DOT, and writes the HTML report a reviewer reads. Writes every file to DIR",
+            "(default: circa-demo)."})
 final class DemoCommand implements Callable<Integer> {
     private static final ReadLimits LIMITS = ReadLimits.DEFAULT;
 
@@ -100,6 +104,15 @@ final class DemoCommand implements Callable<Integer> {
         String text = DotRenderer.render(CompiledCircuit.compile(mix.circuit()), new RenderOptions(true,
                 RenderOptions.DEFAULT_MAX_NODES));
         f.writeText(text, "regimes.dot", "the regime model as a DOT graph, with scopes");
+
+        f.say("");
+        f.say("7. The page a reviewer reads before signing the region-graph model off: verdict, the reference check,");
+        f.say("   every variable's exact marginal, a pair, the structure (one HTML file, open it in a browser).");
+        Path report = f.file("stations.report.html");
+        ReportCommand.write(ReportSource.of(stationsFile, doc, stations.compiled()), ReportOptions.defaults("circa "
+                + Main.VERSION).withReferences(List.of(ref)).withPairs(VariablePairs.parse("inlet_pressure:motor_current",
+                doc.variables())), report, stationsFile, ref);
+        f.wrote(report, "the model report of stations.circuit.json");
 
         f.say("");
         f.listWritten();

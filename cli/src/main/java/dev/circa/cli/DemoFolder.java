@@ -60,6 +60,12 @@ final class DemoFolder {
         written.add(target + "  (" + what + ")");
     }
 
+    /** Records {@code target}, written by the caller, among the files written. */
+    void wrote(Path target, String what) {
+        written.add(target + "  (" + what + ")");
+        indent("wrote " + target);
+    }
+
     /** Lists the files written. */
     void listWritten() {
         say("Files written:");

@@ -38,9 +38,12 @@ final class EvalCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
+    @Mixin
+    CertificateOption certificate;
+
     @Override
     public Integer call() throws Exception {
-        Model model = read.load(circuitFile);
+        Model model = certificate.load(read, circuitFile);
         CompiledCircuit c = model.circuit();
         int nv = c.variableCount();
         int no = c.outputCount();

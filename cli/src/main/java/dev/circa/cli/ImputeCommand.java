@@ -34,9 +34,12 @@ final class ImputeCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
+    @Mixin
+    CertificateOption certificate;
+
     @Override
     public Integer call() throws Exception {
-        Model model = read.load(circuitFile);
+        Model model = certificate.load(read, circuitFile);
         CompiledCircuit c = model.circuit();
         int outIndex = OutputChoice.index(c, outputName);
         int nv = c.variableCount();

@@ -13,6 +13,8 @@ import dev.circa.validator.Property;
 import dev.circa.model.CheckedCircuit;
 import dev.circa.model.Requirement;
 import dev.circa.validator.ValidationReport;
+import dev.circa.model.Model;
+import dev.circa.validator.Verdict;
 import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.EnumMap;
@@ -33,12 +35,23 @@ final class InspectCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
+    @Mixin
+    CertificateOption certificate;
+
     @Override
     public Integer call() throws Exception {
         // described whatever its verdict: read and validated by the model API's loader, nothing required
-        CheckedCircuit checked = read.loader().withRequirement(Requirement.parse("")).check(circuitFile);
-        CircuitDocument doc = checked.document();
-        ValidationReport report = checked.report();
+        CircuitDocument doc;
+        ValidationReport report;
+        if (certificate.given()) {
+            Model m = certificate.certified(read, circuitFile, Requirement.parse(""));
+            doc = m.document();
+            report = CertificateOption.reportWithLogZ(m);
+        } else {
+            CheckedCircuit checked = read.loader().withRequirement(Requirement.parse("")).check(circuitFile);
+            doc = checked.document();
+            report = checked.report();
+        }
         PrintWriter out = read.out();
         CircuitStats s = report.stats();
         int inputs = 0;
@@ -75,12 +88,14 @@ final class InspectCommand implements Callable<Integer> {
         for (Property p : Property.values()) {
             out.printf(Locale.ROOT, "    %-24s %s%n", p.optionName(), report.property(p).toString().toLowerCase(Locale.ROOT));
         }
-        out.printf(Locale.ROOT, "  variable tree: %s%n", report.variableTree() == null ? "none (not structured-decomposable)"
-                : report.variableTree().toString());
+        out.printf(Locale.ROOT, "  variable tree: %s%n", report.variableTree() != null ? report.variableTree().toString()
+                : report.property(Property.STRUCTURED_DECOMPOSABLE) == Verdict.TRUE ? "not kept in the certificate"
+                : "none (not structured-decomposable)");
         ExactQueries q = report.exactQueries();
         out.printf(Locale.ROOT, "  exact queries: density %s, marginal %s, conditional %s, mpe %s, sampling %s%n",
                 yes(q.density()), yes(q.marginal()), yes(q.conditional()), yes(q.mpe()), yes(q.sampling()));
-        out.printf(Locale.ROOT, "  diagnostics: %d (run circa validate for them)%n", report.diagnostics().size());
+        out.printf(Locale.ROOT, "  diagnostics: %s%n", certificate.given() ? "not looked for again (certified)"
+                : report.diagnostics().size() + " (run circa validate for them)");
         out.flush();
         return ExitStatus.OK;
     }

@@ -17,7 +17,9 @@ import picocli.CommandLine.Command;
             SampleCommand.class,
             InspectCommand.class,
             CheckCommand.class, CompareCommand.class, NormalizeCommand.class, RenderCommand.class,
+            ReportCommand.class,
             DemoCommand.class,
+            CertifyCommand.class,
             CommandLine.HelpCommand.class
         })
 public final class Main implements Runnable {

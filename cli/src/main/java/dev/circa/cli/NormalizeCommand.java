@@ -34,11 +34,14 @@ final class NormalizeCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
+    @Mixin
+    CertificateOption certificate;
+
     @Override
     public Integer call() throws IOException {
         AtomicOutput.refuseInputs(output, circuitFile);
         PrintWriter err = read.err();
-        Model model = read.load(circuitFile);
+        Model model = certificate.load(read, circuitFile);
         NormalizationResult r;
         try {
             r = Renormalizer.normalize(model.document(), model.circuit());

@@ -41,6 +41,9 @@ final class RenderCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
+    @Mixin
+    CertificateOption certificate;
+
     @Override
     public Integer call() throws IOException {
         if (maxNodes < 0) {
@@ -48,7 +51,7 @@ final class RenderCommand implements Callable<Integer> {
         }
         AtomicOutput.refuseInputs(output, circuitFile);
         PrintWriter err = read.err();
-        Model model = read.load(circuitFile);
+        Model model = certificate.load(read, circuitFile);
         RenderOptions options = new RenderOptions(scopes, maxNodes);
         if (DotRenderer.isSummary(model.circuit(), options)) {
             err.println(String.format(Locale.ROOT, "%d nodes is more than --max-render-nodes %d: drawing a summary by scope",

@@ -42,12 +42,15 @@ final class SampleCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
+    @Mixin
+    CertificateOption certificate;
+
     @Override
     public Integer call() throws Exception {
         if (count < 0) {
             throw new UsageException("-n must be >= 0, got " + count);
         }
-        Model model = read.load(circuitFile);
+        Model model = certificate.load(read, circuitFile);
         CompiledCircuit c = model.circuit();
         int outIndex = OutputChoice.index(c, outputName);
         List<Variable> vars = c.variables();

@@ -1,6 +1,7 @@
 package dev.circa.cli;
 
 import dev.circa.format.io.FormatException;
+import dev.circa.model.Requirement;
 import dev.circa.validator.ReportFormat;
 import dev.circa.validator.SchemaCheck;
 import dev.circa.validator.ValidationOptions;
@@ -57,6 +58,9 @@ final class ValidateCommand implements Callable<Integer> {
     @Mixin
     ReadOptions read;
 
+    @Mixin
+    CertificateOption certificate;
+
     @Override
     public Integer call() throws Exception {
         ReportFormat fmt;
@@ -73,6 +77,10 @@ final class ValidateCommand implements Callable<Integer> {
         }
         if (!List.of("auto", "always", "never").contains(schemaCheck)) {
             throw new UsageException("--schema-check must be auto, always or never, got \"" + schemaCheck + "\"");
+        }
+        if (certificate.given()) {
+            boolean asked = read.command.commandLine().getParseResult().hasMatchedOption("--require");
+            return certificate.verify(files, read, asked ? Requirement.parse(require).withTolerance(tolerance) : null);
         }
         PrintWriter out = read.out();
         PrintWriter err = read.err();

@@ -32,7 +32,7 @@ import tools.jackson.databind.ObjectMapper;
 /**
  * No command fetches what a document names (issue 8): a circuit naming a schema and {@code $ref}s on
  * a local server, at the top level, in its variables and in its extensions, is read, evaluated,
- * imputed, sampled, checked, compared, normalised, rendered and validated against the bundled schemas
+ * imputed, sampled, checked, compared, normalised, rendered, reported and validated against the bundled schemas
  * while the server counts zero connections. The server listens on the
  * loopback address only and stops with the test.
  */
@@ -154,6 +154,7 @@ class CliNoNetworkTest {
             runs.add(new String[] {"compare", circuit.toString(), Cli.EXAMPLE.toString(), "--samples", "50"});
             runs.add(new String[] {"normalize", circuit.toString(), "-o", dir.resolve("n.json").toString()});
             runs.add(new String[] {"render", circuit.toString(), "-o", dir.resolve("r.dot").toString()});
+            runs.add(new String[] {"report", circuit.toString(), "-o", dir.resolve("r.html").toString()});
             for (String[] args : runs) {
                 Cli.Result r = Cli.run(args);
                 Cli.assertNoStackTrace(r);

@@ -13,12 +13,12 @@ class DemoCommandTest {
     Path tmp;
 
     @Test
-    void demo_freshFolder_everyStepAsExpectedAndFilesWritten() {
+    void demo_freshFolder_everyStepAsExpectedAndFilesWritten() throws Exception {
         Path dir = tmp.resolve("demo");
         Cli.Result r = Cli.run("demo", dir.toString());
         assertEquals(0, r.status(), r.out() + r.err());
         for (String f : new String[] {"regimes.circuit.json", "stations.circuit.json", "broken-export.circuit.json",
-            "regimes.dot", "station-reference.csv"}) {
+            "regimes.dot", "station-reference.csv", "stations.report.html"}) {
             assertTrue(Files.isRegularFile(dir.resolve(f)), f);
             assertTrue(r.out().contains(dir.resolve(f).toString()), "says where it wrote " + f);
         }
@@ -26,6 +26,9 @@ class DemoCommandTest {
         assertTrue(r.out().contains("PASSED: 6 cases, 0 failures"), r.out());
         assertTrue(r.out().contains("[ProductScopesOverlap]"), r.out());
         assertTrue(r.out().contains("[WeightsNotNormalized]"), r.out());
+        String report = Files.readString(dir.resolve("stations.report.html"));
+        assertTrue(report.startsWith("<!DOCTYPE html>") && report.contains("<h3>station-reference.csv: passed</h3>")
+                && report.contains("data-pair=\"inlet_pressure:motor_current\""), "the report with its check and pair");
         assertEquals(0, Cli.run("validate", dir.resolve("regimes.circuit.json").toString()).status());
         assertEquals(1, Cli.run("validate", dir.resolve("broken-export.circuit.json").toString()).status());
     }

@@ -32,6 +32,25 @@ class EvalCommandTest {
     }
 
     @Test
+    void eval_toStandardOutput_badRowFarDown_saysHowManyRowsWereWritten() throws Exception {
+        StringBuilder csv = new StringBuilder("inlet_pressure,valve\n");
+        for (int i = 0; i < 5000; i++) {
+            csv.append("3.0,open\n");
+        }
+        csv.append("3.0,ajar\n");
+        Path data = tmp.resolve("bad-late.csv");
+        Files.writeString(data, csv.toString());
+        Cli.Result r = Cli.run("eval", EXAMPLE, "--data", data.toString());
+        assertEquals(2, r.status(), r::describe);
+        java.util.regex.Matcher m = java.util.regex.Pattern
+                .compile("\\((\\d+) data rows? (?:was|were) written to standard output before this error\\)").matcher(r.err());
+        assertTrue(m.find(), r::describe);
+        long said = Long.parseLong(m.group(1));
+        // rows go out in batches of the data reader: a whole number of them, all before the bad row
+        assertTrue(said > 0 && said <= 5000, "rows before the bad one: " + said);
+    }
+
+    @Test
     void eval_givenColumn_conditionalEqualsJointMinusMarginal() throws Exception {
         Path data = tmp.resolve("d.csv");
         Files.writeString(data, "inlet_pressure,valve\n3.0,open\n");

@@ -13,9 +13,10 @@ import java.util.StringJoiner;
  * A circuit that a {@link ModelLoader} refused: either unreadable (a located read error: file, line,
  * column, what was expected; no {@linkplain #report() report}) or read but not proven fit to serve
  * under the loader's {@link Requirement} (the validator's report and its error
- * {@linkplain #diagnostics() diagnostics}). On the command line both are exit status 2.
+ * {@linkplain #diagnostics() diagnostics}), or, loaded with a certificate, refused by it
+ * ({@link CertificateMismatchException}). On the command line each is exit status 2.
  */
-public final class ModelException extends FormatException {
+public class ModelException extends FormatException {
     private static final long serialVersionUID = 1L;
     /** Diagnostics quoted in the message; all of them are in {@link #diagnostics()}. */
     private static final int QUOTED = 3;
@@ -34,6 +35,16 @@ public final class ModelException extends FormatException {
         super(file, 0, 0, null, problem);
         this.report = report;
         this.diagnostics = List.copyOf(errors);
+    }
+
+    /** A refusal that is neither a read error nor the validator's (a certificate mismatch). */
+    ModelException(String file, String problem, Throwable cause) {
+        super(file, 0, 0, null, problem);
+        if (cause != null) {
+            initCause(cause);
+        }
+        this.report = null;
+        this.diagnostics = List.of();
     }
 
     /** A read error, kept as it is. */

@@ -172,7 +172,63 @@ public final class ModelLoader {
         return accept(validate(doc.source() == null ? "<document>" : doc.source(), doc));
     }
 
-    private CircuitDocument read(InputStream stored, String name, boolean gzip) throws ModelException {
+    /**
+     * Loads the circuit file {@code file} with its certificate: the file's stored bytes are hashed while
+     * they are read (one pass) and, when they are the certified ones and the certificate is intact and
+     * proves at least this loader's requirement, the circuit is served without validating it again.
+     *
+     * @param file the circuit file ({@code .gz} decompressed)
+     * @param certificate its certificate, written by {@link Certifier}
+     * @return the model, its report rebuilt from the certificate
+     * @throws ModelException when either file cannot be read; a {@link CertificateMismatchException} when
+     *     the certificate was edited, proves less than required, or is not of these bytes
+     */
+    public Model load(Path file, Path certificate) throws ModelException {
+        dev.circa.format.certificate.Certificate cert = CertificateCheck.read(certificate, limits);
+        String certName = InputFiles.displayName(certificate);
+        CertificateCheck.checkSeal(cert, certName);
+        CertificateCheck.checkCovers(cert, requirement, certName);
+        String name = InputFiles.displayName(file);
+        DigestingInputStream d = openDigested(file);
+        CircuitDocument doc;
+        try {
+            doc = read(d, name, isGzip(file));
+        } catch (ModelException e) {
+            try {
+                d.finish(cert.model().bytes());
+            } catch (IOException ignored) {
+                d.abort();
+                throw e;
+            }
+            // a read error in a file that is not the certified one: the mismatch is the reason
+            CertificateCheck.checkBytes(cert, certName, d, file, e);
+            throw e;
+        }
+        try {
+            d.finish(cert.model().bytes());
+        } catch (IOException e) {
+            throw ModelException.unreadable(new FormatException(name, 0, 0, null, "cannot be read: " + e.getMessage()));
+        }
+        CertificateCheck.checkBytes(cert, certName, d, file, null);
+        return new Model(name, doc, CertificateCheck.report(cert, name), compile(name, doc), requirement);
+    }
+
+    /** Opens {@code file}'s stored bytes, hashed as they are read. */
+    static DigestingInputStream openDigested(Path file) throws ModelException {
+        try {
+            return new DigestingInputStream(InputFiles.openStored(file));
+        } catch (FormatException e) {
+            throw ModelException.unreadable(e);
+        }
+    }
+
+    static boolean isGzip(Path file) {
+        Path fileName = file.getFileName();
+        return fileName != null && InputFiles.isGzipName(fileName.toString());
+    }
+
+    /** Reads a circuit from its stored bytes under the limits and the hook; closes {@code stored}. */
+    CircuitDocument read(InputStream stored, String name, boolean gzip) throws ModelException {
         CircuitDocument doc;
         InputStream observed = stored;
         try {
@@ -198,13 +254,16 @@ public final class ModelLoader {
         if (!checked.fit()) {
             throw ModelException.invalid(checked.source(), checked.report(), requirement);
         }
-        CompiledCircuit circuit;
+        return new Model(checked.source(), checked.document(), checked.report(),
+                compile(checked.source(), checked.document()), requirement);
+    }
+
+    static CompiledCircuit compile(String name, CircuitDocument doc) throws ModelException {
         try {
-            circuit = CompiledCircuit.compile(checked.document());
+            return CompiledCircuit.compile(doc);
         } catch (CompileException e) {
-            throw ModelException.unreadable(new FormatException(checked.source(), 0, 0, null, e.getMessage()));
+            throw ModelException.unreadable(new FormatException(name, 0, 0, null, e.getMessage()));
         }
-        return new Model(checked.source(), checked.document(), checked.report(), circuit, requirement);
     }
 
     private static void closeAfterFailure(InputStream in) {

@@ -59,9 +59,20 @@ public final class SparkModel implements Serializable {
      * @throws FormatException when the file cannot be used, with the validator's diagnostics on {@code err}
      */
     public static SparkModel load(Path path, ReadLimits limits, PrintWriter err) throws FormatException {
+        return load(path, null, limits, err);
+    }
+
+    /**
+     * Like {@link #load(Path, ReadLimits, PrintWriter)}, but when {@code certificate} is not {@code null} the
+     * file's bytes are checked against it (SHA-256 and size, hashed while read) instead of validating again.
+     *
+     * @throws FormatException when the file cannot be used or does not match its certificate
+     */
+    public static SparkModel load(Path path, Path certificate, ReadLimits limits, PrintWriter err) throws FormatException {
         Model model;
         try {
-            model = Model.loader().withLimits(limits).load(path);
+            model = certificate == null ? Model.loader().withLimits(limits).load(path)
+                    : Model.loader().withLimits(limits).load(path, certificate);
         } catch (ModelException e) {
             if (e.unreadable()) {
                 throw e;

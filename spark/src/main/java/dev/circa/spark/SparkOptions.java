@@ -19,6 +19,10 @@ public final class SparkOptions {
     @Option(names = "--conf", paramLabel = "KEY=VALUE", description = "A Spark setting (repeatable), as spark-submit takes it.")
     Map<String, String> conf = new LinkedHashMap<>();
 
+    @Option(names = "--certificate", paramLabel = "CERT",
+            description = "A certificate written by circa certify: the model's bytes are checked against it instead of validating again.")
+    Path certificate;
+
     /** The work of a command, given the session and the model as loaded on the driver. */
     interface Work<T> {
         T run(SparkSession spark, SparkModel model) throws FormatException, IOException;
@@ -29,7 +33,7 @@ public final class SparkOptions {
      * the session, runs {@code work}, and stops the session when it opened it.
      */
     <T> T run(Path circuit, ReadOptions read, CommandSpec spec, Work<T> work) throws FormatException {
-        SparkModel model = SparkModel.load(circuit, read.limits(), spec.commandLine().getErr());
+        SparkModel model = SparkModel.load(circuit, certificate, read.limits(), spec.commandLine().getErr());
         Sessions.Opened opened = Sessions.open(master, conf);
         try {
             return work.run(opened.spark(), model);

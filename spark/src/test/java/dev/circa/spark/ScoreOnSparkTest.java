@@ -1,6 +1,7 @@
 package dev.circa.spark;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -72,6 +73,28 @@ class ScoreOnSparkTest {
             }
         }
         spark.conf().unset("spark.sql.files.maxPartitionBytes");
+    }
+
+    @Test
+    void score_withCertificate_sameOutput_changedModelRefusedBeforeAnyWork() throws IOException {
+        Path model = dir.resolve("certified.json");
+        Files.copy(LocalSpark.REGIMES, model);
+        Path cert = dir.resolve("certified.cert.json");
+        LocalSpark.Run certify = LocalSpark.circa("certify", model.toString(), "-o", cert.toString());
+        assertEquals(0, certify.status(), certify.err());
+        Path out = dir.resolve("scored-certified");
+        LocalSpark.Run run = LocalSpark.circaSpark("score", model.toString(), "--certificate", cert.toString(),
+                "--data", data.toString(), "-o", out.toString());
+        assertEquals(0, run.status(), run.err());
+        String[] parts = LocalSpark.parts(out);
+        assertEquals(evalOut, parts[0] + parts[1], "a certified load scores exactly as circa eval");
+
+        Files.writeString(model, Files.readString(model) + " "); // still valid JSON, no longer the certified bytes
+        Path out2 = dir.resolve("scored-changed");
+        LocalSpark.Run changed = LocalSpark.circaSpark("score", model.toString(), "--certificate", cert.toString(),
+                "--data", data.toString(), "-o", out2.toString());
+        assertEquals(2, changed.status(), changed.err());
+        assertFalse(Files.exists(out2), "nothing written");
     }
 
     @Test

@@ -49,7 +49,9 @@ public final class SchemaCatalog {
         /** {@code circa.regions}. */
         REGIONS("regions.schema.json"),
         /** {@code circa.mixture} (JSON or YAML read into the same tree). */
-        MIXTURE("mixture.schema.json");
+        MIXTURE("mixture.schema.json"),
+        /** {@code circa.certificate}. */
+        CERTIFICATE("certificate.schema.json");
 
         private final String fileName;
 
@@ -73,6 +75,7 @@ public final class SchemaCatalog {
                 case "circa.circuit" -> CIRCUIT;
                 case "circa.regions" -> REGIONS;
                 case "circa.mixture" -> MIXTURE;
+                case "circa.certificate" -> CERTIFICATE;
                 default -> null;
             };
         }
@@ -193,7 +196,7 @@ public final class SchemaCatalog {
         Kind kind = f != null && f.isString() ? Kind.ofFormat(f.asString()) : null;
         if (kind == null) {
             return List.of(new SchemaViolation("/format", "const",
-                    "expected \"format\" to be one of circa.circuit, circa.regions or circa.mixture"));
+                    "expected \"format\" to be one of circa.circuit, circa.regions, circa.mixture or circa.certificate"));
         }
         return validate(kind, document);
     }

@@ -45,6 +45,11 @@ public final class RegressionCheck {
 
     /** A check of {@code circuit} with {@code tolerance} (see {@link Tolerance#resolve}). */
     public RegressionCheck(CompiledCircuit circuit, Tolerance tolerance) {
+        this(circuit, tolerance, null);
+    }
+
+    /** A check of {@code circuit} with {@code tolerance} that also hands every case to {@code sink} (may be {@code null}). */
+    public RegressionCheck(CompiledCircuit circuit, Tolerance tolerance, CaseSink sink) {
         this.circuit = circuit;
         this.evaluator = new Evaluator(circuit);
         List<String> names = new ArrayList<>();
@@ -52,7 +57,7 @@ public final class RegressionCheck {
             names.add(circuit.outputName(o));
         }
         this.outputNames = List.copyOf(names);
-        this.report = new ReportBuilder(tolerance, outputNames);
+        this.report = new ReportBuilder(tolerance, outputNames, sink);
         int width = Math.max(1, circuit.variableCount() + circuit.outputCount());
         this.chunk = Math.max(1, Math.min(CHUNK, CHUNK_CELLS / width));
         this.data = new double[chunk * Math.max(1, circuit.variableCount())];

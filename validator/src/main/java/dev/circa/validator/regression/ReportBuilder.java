@@ -13,9 +13,11 @@ final class ReportBuilder {
     private final double[] maxRel;
     private final CaseResult[] worst = new CaseResult[CheckReport.WORST];
     private int worstCount;
+    private final CaseSink sink;
 
-    ReportBuilder(Tolerance tolerance, List<String> outputNames) {
+    ReportBuilder(Tolerance tolerance, List<String> outputNames, CaseSink sink) {
         this.tolerance = tolerance;
+        this.sink = sink;
         this.outputNames = outputNames.toArray(new String[0]);
         int n = this.outputNames.length;
         cases = new long[n];
@@ -33,6 +35,9 @@ final class ReportBuilder {
         boolean passed = tolerance.passes(computed, expected);
         double excess = tolerance.excess(computed, expected);
         cases[output]++;
+        if (sink != null) {
+            sink.accept(output, expected, computed, passed);
+        }
         if (!passed) {
             failures[output]++;
         }
