@@ -55,21 +55,22 @@ final class RegionsCommand implements Runnable {
             if ((vars == null) == (variablesFile == null)) {
                 throw new UsageException("give exactly one of --vars N or --variables FILE.json");
             }
+            if (depth < 0 || repeats < 1) {
+                throw new UsageException("--depth must be >= 0 and --repeats >= 1");
+            }
             List<Variable> variables;
             if (vars != null) {
                 if (vars < 1) {
                     throw new UsageException("--vars must be >= 1, got " + vars);
                 }
+                RandomRegions.checkLimits(vars, depth, repeats, read.limits());
                 variables = RandomRegions.realVariables(vars);
             } else {
                 variables = RandomRegions.readVariables(variablesFile, read.limits());
             }
-            if (depth < 0 || repeats < 1) {
-                throw new UsageException("--depth must be >= 0 and --repeats >= 1");
-            }
             RegionGraph g;
             try {
-                g = RandomRegions.generate(variables, depth, repeats, seed);
+                g = RandomRegions.generate(variables, depth, repeats, seed, read.limits());
             } catch (IllegalArgumentException e) {
                 throw new UsageException(e.getMessage());
             }

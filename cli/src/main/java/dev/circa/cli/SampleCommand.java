@@ -1,6 +1,7 @@
 package dev.circa.cli;
 
 import dev.circa.engine.CompiledCircuit;
+import dev.circa.engine.DrawOverflowException;
 import dev.circa.format.Variable;
 import dev.circa.format.csv.CellValues;
 import dev.circa.model.Model;
@@ -61,7 +62,12 @@ final class SampleCommand implements Callable<Integer> {
             String[] line = new String[nv];
             for (long first = 0; first < count; first += chunk) {
                 int n = (int) Math.min(chunk, count - first);
-                model.sample(outIndex, seed, first, n, buf);
+                try {
+                    model.sample(outIndex, seed, first, n, buf);
+                } catch (DrawOverflowException e) {
+                    throw new UsageException(circuitFile + ": " + e.getMessage().replace("its variable",
+                            "variable " + vars.get(e.variable()).name()) + "; nothing written");
+                }
                 for (int r = 0; r < n; r++) {
                     for (int v = 0; v < nv; v++) {
                         line[v] = CellValues.format(vars.get(v), buf[r * nv + v]);

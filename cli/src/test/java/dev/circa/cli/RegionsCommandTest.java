@@ -2,6 +2,7 @@ package dev.circa.cli;
 
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import dev.circa.format.regions.Partition;
@@ -56,6 +57,29 @@ class RegionsCommandTest {
         Cli.Result r = Cli.run("regions", "random", "--vars", "3", "--variables", "v.json", "--depth", "1",
                 "-o", tmp.resolve("x.json").toString());
         Cli.assertUnusable(r, "--vars", "exactly one of");
+    }
+
+    @Test
+    void random_hundredMillionVariables_refusedBeforeWorkNamingMaxNodes() {
+        // 1e8 variables split to depth 3 hold 1e8 + 3 * 1e8 variable references, past the default --max-nodes.
+        Path out = tmp.resolve("big.json");
+        Cli.Result r = Cli.run("regions", "random", "--vars", "100000000", "--depth", "3", "-o", out.toString());
+        Cli.assertUnusable(r, "--max-nodes", "100000000 variables");
+        assertFalse(Files.exists(out), "nothing written");
+    }
+
+    @Test
+    void random_commandsMaxNodes_boundsTheGraph() throws Exception {
+        // By hand: 100 variables at depth 2 with one repeat hold at most 100 + 1 * 100 * 2 = 300 references.
+        Path out = tmp.resolve("r.json");
+        Cli.Result refused = Cli.run("regions", "random", "--vars", "100", "--depth", "2", "--max-nodes", "299",
+                "-o", out.toString());
+        Cli.assertUnusable(refused, "--max-nodes", "300 variable references");
+        assertFalse(Files.exists(out), "nothing written");
+        Cli.Result ok = Cli.run("regions", "random", "--vars", "100", "--depth", "2", "--max-nodes", "300",
+                "-o", out.toString());
+        assertEquals(ExitStatus.OK, ok.status(), ok::describe);
+        assertEquals(100, new RegionGraphReader().read(out).variables().size());
     }
 
     @Test

@@ -34,6 +34,26 @@ class ValidateCommandTest {
     }
 
     @Test
+    void validate_binomialTrials1e19_schemaCheckNever_locatedDiagnosticNamingTrials() throws Exception {
+        // IEEE 754: 2^53 = 9007199254740992 bounds the integers a double holds exactly; 1e19 is past it.
+        Path f = tmp.resolve("trials.json");
+        Files.writeString(f, """
+            {"format": "circa.circuit", "version": "1.0",
+             "variables": [{"name": "restarts", "type": "count"}],
+             "nodes": [{"id": 0, "input": "binomial", "var": 0, "trials": 1e19, "p": 0.5}],
+             "outputs": [{"name": "joint", "node": 0}]}
+            """);
+        for (String check : new String[] {"never", "always"}) {
+            Cli.Result r = Cli.run("validate", f.toString(), "--schema-check", check);
+            assertEquals(1, r.status(), r::describe);
+            Cli.assertNoStackTrace(r);
+            assertTrue(r.out().contains("/nodes/0/trials") && r.out().contains("(line 3, column 12)"), r::toString);
+        }
+        Cli.Result r = Cli.run("validate", f.toString(), "--schema-check", "never");
+        assertTrue(r.out().contains("trials of binomial node 0 is 1e19; expected an integer from 0 to 2^53"), r::toString);
+    }
+
+    @Test
     void validate_overlappingProduct_status1WithWitnessPointer() throws Exception {
         Path f = tmp.resolve("overlap.json");
         Files.writeString(f, OVERLAP);

@@ -181,11 +181,21 @@ public final class Sampler {
             int d = c.varStart[slot + 1] - vs;
             MvNormal.sample(c.params, off, d, c.factor, c.factorStart[slot], rng, draw);
             for (int a = 0; a < d; a++) {
-                out[rowBase + c.varIndex[vs + a]] = draw[a];
+                out[rowBase + c.varIndex[vs + a]] = checked(slot, code, vs + a, draw[a]);
             }
             return;
         }
-        out[rowBase + c.varIndex[vs]] = Families.sample(code, c.params, off, c.paramStart[slot + 1] - off, rng);
+        out[rowBase + c.varIndex[vs]] = checked(slot, code, vs,
+                Families.sample(code, c.params, off, c.paramStart[slot + 1] - off, rng));
+    }
+
+    /** The draw, or a {@link DrawOverflowException} naming the input when no reader accepts it as a value. */
+    private double checked(int slot, int code, int v, double x) {
+        if (!Families.representable(code, x)) {
+            throw new DrawOverflowException(c.nodeId[c.inputNode[slot]], Families.family(code).jsonName(),
+                    c.varIndex[v], x);
+        }
+        return x;
     }
 
     /** log Z of every node (inputs integrate to 1), with StrictMath so that choices match on every machine. */

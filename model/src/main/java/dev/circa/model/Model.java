@@ -574,6 +574,8 @@ public final class Model {
      * @param n number of rows
      * @param out output: {@code n x variableCount()} cells; variables outside the output's scope are NaN
      * @throws IllegalArgumentException when the output's total mass is 0 or not finite
+     * @throws dev.circa.engine.DrawOverflowException when a draw is not a value of its variable (an input's
+     *     parameters overflow the double or count range when sampled); it names the input node
      */
     public void sample(int output, long seed, long firstRow, int n, double[] out) {
         checkOutput(output);

@@ -25,7 +25,10 @@ public final class ParameterLimits {
         PROBABILITY,
         /** A number >= 0 (each of a categorical's probabilities). */
         NON_NEGATIVE,
-        /** A whole number >= 0 (binomial trials). */
+        /**
+         * A whole number from 0 to 2^53 (binomial trials): the integers a double holds exactly, so a draw
+         * of at most that many trials is a count every reader accepts ({@link Families#MAX_COUNT}).
+         */
         COUNT,
         /** A state index: a whole number >= 0, below the variable's number of states. */
         STATE;
@@ -37,7 +40,7 @@ public final class ParameterLimits {
                 case POSITIVE -> x > 0;
                 case PROBABILITY -> x >= 0 && x <= 1;
                 case NON_NEGATIVE -> x >= 0;
-                case COUNT -> x >= 0 && x == Math.rint(x) && x != Double.POSITIVE_INFINITY;
+                case COUNT -> x >= 0 && x == Math.rint(x) && x <= Families.MAX_COUNT;
                 case STATE -> x >= 0 && x == Math.rint(x) && x < states;
             };
         }

@@ -88,6 +88,11 @@ class ParameterLimitsSchemaTest {
         assertTrue(Limit.PROBABILITY.holds(1, Integer.MAX_VALUE));
         assertFalse(Limit.PROBABILITY.holds(1.0000001, Integer.MAX_VALUE));
         assertFalse(Limit.COUNT.holds(2.5, Integer.MAX_VALUE));
+        // IEEE 754: integers up to 2^53 are exact in a double; 2^53 + 2 is the next double above it
+        assertTrue(Limit.COUNT.holds(9007199254740992.0, Integer.MAX_VALUE));
+        assertFalse(Limit.COUNT.holds(9007199254740994.0, Integer.MAX_VALUE));
+        assertFalse(Limit.COUNT.holds(1e19, Integer.MAX_VALUE));
+        assertFalse(Limit.COUNT.holds(Double.POSITIVE_INFINITY, Integer.MAX_VALUE));
         assertFalse(Limit.STATE.holds(3, 3));
         assertTrue(ParameterLimits.holds(Family.UNIFORM, new double[] {-1, 2}, 0));
         assertFalse(ParameterLimits.holds(Family.UNIFORM, new double[] {2, 2}, 0));
@@ -108,8 +113,11 @@ class ParameterLimitsSchemaTest {
             case POSITIVE -> assertTrue(min == null && Double.valueOf(0).equals(exMin) && max == null, what + ": " + p);
             case PROBABILITY -> assertTrue(Double.valueOf(0).equals(min) && exMin == null && Double.valueOf(1).equals(max),
                     what + ": " + p);
-            case NON_NEGATIVE, COUNT, STATE -> assertTrue(Double.valueOf(0).equals(min) && exMin == null && max == null,
+            case NON_NEGATIVE, STATE -> assertTrue(Double.valueOf(0).equals(min) && exMin == null && max == null,
                     what + ": " + p);
+            // IEEE 754: 2^53 = 9007199254740992, the end of the run of integers a double holds exactly
+            case COUNT -> assertTrue(Double.valueOf(0).equals(min) && exMin == null
+                    && p.get("maximum").isIntegralNumber() && p.get("maximum").asLong() == 9007199254740992L, what + ": " + p);
         }
     }
 

@@ -48,7 +48,8 @@ public final class ParameterOutOfRange extends Rule {
                 case PROBABILITY -> report(ctx, i, name, "%s of %s node %d is %s; expected a probability in [0, 1]",
                         name, fam, in.id(), x);
                 case POSITIVE -> report(ctx, i, name, "%s of %s node %d is %s; expected a number > 0", name, fam, in.id(), x);
-                case COUNT -> report(ctx, i, name, "%s of %s node %d is %s; expected an integer >= 0", name, fam, in.id(), x);
+                case COUNT -> report(ctx, i, name, "%s of %s node %d is %s; expected an integer from 0 to 2^53 = 9007199254740992",
+                        name, fam, in.id(), x);
                 case STATE -> report(ctx, i, name, "%s of %s node %d is %s; expected a state index 0..%d of %s", name, fam,
                         in.id(), x, Parameters.states(var) - 1, var == null ? "its variable" : var.name());
                 default -> report(ctx, i, name, "%s of %s node %d is %s; expected %s", name, fam, in.id(), x,

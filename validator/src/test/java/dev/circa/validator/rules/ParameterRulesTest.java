@@ -72,6 +72,21 @@ class ParameterRulesTest {
     }
 
     @Test
+    void parameterOutOfRange_binomialTrialsPastTwoToThe53_reported() {
+        // IEEE 754: 2^53 = 9007199254740992 is the last of the integers a double holds exactly;
+        // 1e19 and 2^53 + 2 are past it, 2^53 itself is within the limit.
+        for (String trials : new String[] {"1e19", "10000000000000000000", "9007199254740994"}) {
+            circuit("{\"name\": \"restarts\", \"type\": \"count\"}",
+                    "{\"id\": 0, \"input\": \"binomial\", \"var\": 0, \"trials\": " + trials + ", \"p\": 0.1}",
+                    "{\"name\": \"joint\", \"node\": 0}").expect("/nodes/0/trials", "ParameterOutOfRange")
+                    .expect("", "RequiredPropertyUnknown").check();
+        }
+        circuit("{\"name\": \"restarts\", \"type\": \"count\"}",
+                "{\"id\": 0, \"input\": \"binomial\", \"var\": 0, \"trials\": 9007199254740992, \"p\": 0.1}",
+                "{\"name\": \"joint\", \"node\": 0}").check();
+    }
+
+    @Test
     void parameterOutOfRange_indicatorStateMissing_reported() {
         circuit(VALVE, "{\"id\": 0, \"input\": \"indicator\", \"var\": 0, \"value\": 3}",
                 "{\"name\": \"joint\", \"node\": 0}").expect("/nodes/0/value", "ParameterOutOfRange")
