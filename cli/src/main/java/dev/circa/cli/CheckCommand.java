@@ -25,14 +25,11 @@ final class CheckCommand implements Callable<Integer> {
     CheckOptions check;
 
     @Mixin
-    ReadOptions read;
-
-    @Mixin
-    CertificateOption certificate;
+    CircuitReadOptions read;
 
     @Override
     public Integer call() throws FormatException {
-        Model model = certificate.load(read, circuitFile);
+        Model model = read.use(circuitFile);
         RegressionCheck regression = new RegressionCheck(model.circuit(), check.tolerance(model.document().checks()));
         regression.checkEmbedded(model.document());
         for (Path ref : check.references()) {

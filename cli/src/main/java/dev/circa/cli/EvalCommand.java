@@ -36,14 +36,11 @@ final class EvalCommand implements Callable<Integer> {
     CsvOutput output;
 
     @Mixin
-    ReadOptions read;
-
-    @Mixin
-    CertificateOption certificate;
+    CircuitReadOptions read;
 
     @Override
     public Integer call() throws Exception {
-        Model model = certificate.load(read, circuitFile);
+        Model model = read.use(circuitFile);
         CompiledCircuit c = model.circuit();
         int nv = c.variableCount();
         int no = c.outputCount();

@@ -32,14 +32,11 @@ final class ImputeCommand implements Callable<Integer> {
     CsvOutput output;
 
     @Mixin
-    ReadOptions read;
-
-    @Mixin
-    CertificateOption certificate;
+    CircuitReadOptions read;
 
     @Override
     public Integer call() throws Exception {
-        Model model = certificate.load(read, circuitFile);
+        Model model = read.use(circuitFile);
         CompiledCircuit c = model.circuit();
         int outIndex = OutputChoice.index(c, outputName);
         int nv = c.variableCount();

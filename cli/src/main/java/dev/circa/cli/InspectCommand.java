@@ -33,20 +33,17 @@ final class InspectCommand implements Callable<Integer> {
     Path circuitFile;
 
     @Mixin
-    ReadOptions read;
-
-    @Mixin
-    CertificateOption certificate;
+    CircuitReadOptions read;
 
     @Override
     public Integer call() throws Exception {
         // described whatever its verdict: read and validated by the model API's loader, nothing required
         CircuitDocument doc;
         ValidationReport report;
-        if (certificate.given()) {
-            Model m = certificate.certified(read, circuitFile, Requirement.parse(""));
+        if (read.certified()) {
+            Model m = read.loadCertified(circuitFile, Requirement.parse(""));
             doc = m.document();
-            report = CertificateOption.reportWithLogZ(m);
+            report = CircuitReadOptions.reportWithLogZ(m);
         } else {
             CheckedCircuit checked = read.loader().withRequirement(Requirement.parse("")).check(circuitFile);
             doc = checked.document();
@@ -94,7 +91,7 @@ final class InspectCommand implements Callable<Integer> {
         ExactQueries q = report.exactQueries();
         out.printf(Locale.ROOT, "  exact queries: density %s, marginal %s, conditional %s, mpe %s, sampling %s%n",
                 yes(q.density()), yes(q.marginal()), yes(q.conditional()), yes(q.mpe()), yes(q.sampling()));
-        out.printf(Locale.ROOT, "  diagnostics: %s%n", certificate.given() ? "not looked for again (certified)"
+        out.printf(Locale.ROOT, "  diagnostics: %s%n", read.certified() ? "not looked for again (certified)"
                 : report.diagnostics().size() + " (run circa validate for them)");
         out.flush();
         return ExitStatus.OK;

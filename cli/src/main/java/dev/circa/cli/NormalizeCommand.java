@@ -32,16 +32,13 @@ final class NormalizeCommand implements Callable<Integer> {
     Path output;
 
     @Mixin
-    ReadOptions read;
-
-    @Mixin
-    CertificateOption certificate;
+    CircuitReadOptions read;
 
     @Override
     public Integer call() throws IOException {
         AtomicOutput.refuseInputs(output, circuitFile);
         PrintWriter err = read.err();
-        Model model = certificate.load(read, circuitFile);
+        Model model = read.use(circuitFile);
         NormalizationResult r;
         try {
             r = Renormalizer.normalize(model.document(), model.circuit());

@@ -16,7 +16,7 @@ import picocli.CommandLine.Spec;
  * The named read limits of CLI.md, shared by every subcommand that reads a file, with the command's
  * standard output and error and the loading of a circuit under those limits.
  */
-public final class ReadOptions {
+public class ReadOptions {
     @Option(names = "--max-bytes", paramLabel = "N",
             description = "Uncompressed bytes read from one file, gzip included (default: ${DEFAULT-VALUE}).")
     long maxBytes = ReadLimits.DEFAULT.maxBytes();

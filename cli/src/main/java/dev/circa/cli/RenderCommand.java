@@ -39,10 +39,7 @@ final class RenderCommand implements Callable<Integer> {
     int maxNodes = RenderOptions.DEFAULT_MAX_NODES;
 
     @Mixin
-    ReadOptions read;
-
-    @Mixin
-    CertificateOption certificate;
+    CircuitReadOptions read;
 
     @Override
     public Integer call() throws IOException {
@@ -51,7 +48,7 @@ final class RenderCommand implements Callable<Integer> {
         }
         AtomicOutput.refuseInputs(output, circuitFile);
         PrintWriter err = read.err();
-        Model model = certificate.load(read, circuitFile);
+        Model model = read.use(circuitFile);
         RenderOptions options = new RenderOptions(scopes, maxNodes);
         if (DotRenderer.isSummary(model.circuit(), options)) {
             err.println(String.format(Locale.ROOT, "%d nodes is more than --max-render-nodes %d: drawing a summary by scope",

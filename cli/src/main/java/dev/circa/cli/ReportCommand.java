@@ -45,25 +45,22 @@ final class ReportCommand implements Callable<Integer> {
     CheckTolerance tolerance;
 
     @Mixin
-    ReadOptions read;
-
-    @Mixin
-    CertificateOption certificate;
+    CircuitReadOptions read;
 
     @Override
     public Integer call() throws Exception {
         PrintWriter err = read.err();
         List<Path> inputs = new ArrayList<>(references);
         inputs.add(modelFile);
-        if (certificate.given()) {
-            inputs.add(certificate.file);
+        if (read.certified()) {
+            inputs.add(read.certificateFile);
         }
         Path[] in = inputs.toArray(new Path[0]);
         AtomicOutput.refuseInputs(output, in);
-        Model model = certificate.load(read, modelFile);
+        Model model = read.use(modelFile);
         ReportOptions options = options(model);
-        if (certificate.given()) {
-            options = options.withCertificateState("the file's bytes match the certificate " + certificate.file
+        if (read.certified()) {
+            options = options.withCertificateState("the file's bytes match the certificate " + read.certificateFile
                     + " (SHA-256 and size); it proves " + model.requirement() + "; not validated again");
         }
         ReportSource src = ReportSource.of(modelFile, model.document(), model.circuit());

@@ -40,17 +40,14 @@ final class SampleCommand implements Callable<Integer> {
     CsvOutput output;
 
     @Mixin
-    ReadOptions read;
-
-    @Mixin
-    CertificateOption certificate;
+    CircuitReadOptions read;
 
     @Override
     public Integer call() throws Exception {
         if (count < 0) {
             throw new UsageException("-n must be >= 0, got " + count);
         }
-        Model model = certificate.load(read, circuitFile);
+        Model model = read.use(circuitFile);
         CompiledCircuit c = model.circuit();
         int outIndex = OutputChoice.index(c, outputName);
         List<Variable> vars = c.variables();

@@ -56,10 +56,7 @@ final class ValidateCommand implements Callable<Integer> {
     String schemaCheck = "auto";
 
     @Mixin
-    ReadOptions read;
-
-    @Mixin
-    CertificateOption certificate;
+    CircuitReadOptions read;
 
     @Override
     public Integer call() throws Exception {
@@ -78,9 +75,9 @@ final class ValidateCommand implements Callable<Integer> {
         if (!List.of("auto", "always", "never").contains(schemaCheck)) {
             throw new UsageException("--schema-check must be auto, always or never, got \"" + schemaCheck + "\"");
         }
-        if (certificate.given()) {
+        if (read.certified()) {
             boolean asked = read.command.commandLine().getParseResult().hasMatchedOption("--require");
-            return certificate.verify(files, read, asked ? Requirement.parse(require).withTolerance(tolerance) : null);
+            return read.verifyCertificate(files, asked ? Requirement.parse(require).withTolerance(tolerance) : null);
         }
         PrintWriter out = read.out();
         PrintWriter err = read.err();

@@ -14,30 +14,30 @@ import java.util.Map;
 import picocli.CommandLine.Option;
 
 /**
- * {@code --certificate FILE}, shared by every command that reads one circuit: with it, the circuit's
- * bytes are checked against the certificate while they are read, instead of validating the circuit
- * again; a mismatch is exit status 2 with its reason.
+ * The options of every command that reads one circuit to use it: the read limits of {@link ReadOptions}
+ * and {@code --certificate FILE}, with which the circuit's bytes are checked against the certificate
+ * while they are read, instead of validating the circuit again; a mismatch is exit status 2 with its reason.
  */
-public final class CertificateOption {
+public final class CircuitReadOptions extends ReadOptions {
     @Option(names = "--certificate", paramLabel = "FILE",
             description = "A certificate written by circa certify: check the file's bytes against it instead of validating again.")
-    Path file;
+    Path certificateFile;
 
     /** Whether a certificate was given. */
-    boolean given() {
-        return file != null;
+    boolean certified() {
+        return certificateFile != null;
     }
 
     /** Loads {@code circuit} as every command does (smooth and decomposable required), through the certificate when given. */
-    Model load(ReadOptions read, Path circuit) throws FormatException {
-        return file == null ? read.load(circuit) : certified(read, circuit, Requirement.DEFAULT);
+    Model use(Path circuit) throws FormatException {
+        return certificateFile == null ? load(circuit) : loadCertified(circuit, Requirement.DEFAULT);
     }
 
     /** Loads {@code circuit} through the certificate, which must prove {@code r}. */
-    Model certified(ReadOptions read, Path circuit, Requirement r) throws FormatException {
-        Model m = read.loader().withRequirement(r).load(circuit, file);
+    Model loadCertified(Path circuit, Requirement r) throws FormatException {
+        Model m = loader().withRequirement(r).load(circuit, certificateFile);
         if (!m.normalized()) {
-            read.err().println("circa: warning: " + circuit + " is certified but not normalized (log Z = "
+            err().println("circa: warning: " + circuit + " is certified but not normalized (log Z = "
                     + logPartitions(m) + "); densities are those of the unnormalised circuit");
         }
         return m;
@@ -62,21 +62,21 @@ public final class CertificateOption {
      * {@code validate --certificate}: checks the certificate's seal and the bytes of the one file
      * against it (and, when given, that it proves {@code required}) instead of validating again.
      */
-    int verify(List<Path> files, ReadOptions read, Requirement required) throws FormatException {
+    int verifyCertificate(List<Path> files, Requirement required) throws FormatException {
         if (files.size() != 1) {
             throw new UsageException("--certificate checks one file against its certificate; give exactly one FILE");
         }
-        Certificate c = CertificateCheck.verify(files.get(0), file, read.limits(), required);
+        Certificate c = CertificateCheck.verify(files.get(0), certificateFile, limits(), required);
         List<String> proven = new ArrayList<>();
         c.properties().forEach((p, v) -> {
             if (v.equals("true")) {
                 proven.add(p);
             }
         });
-        read.out().println(files.get(0) + ": matches its certificate " + file + " (" + c.model().bytes()
+        out().println(files.get(0) + ": matches its certificate " + certificateFile + " (" + c.model().bytes()
                 + " bytes, SHA-256 " + c.model().sha256() + "); certified by circa " + c.circa() + " at " + c.created()
                 + ", proven: " + String.join(", ", proven) + "; not validated again");
-        read.out().flush();
+        out().flush();
         return ExitStatus.OK;
     }
 }
