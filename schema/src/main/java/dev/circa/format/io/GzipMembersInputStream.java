@@ -12,7 +12,7 @@ import java.util.zip.Inflater;
  * the last member that do not start another one (garbage, NUL padding) are a {@link FormatException}
  * naming their byte offset, where {@link java.util.zip.GZIPInputStream} would silently ignore them.
  */
-final class GzipMembersInputStream extends InputStream {
+final class GzipMembersInputStream extends BulkReadInputStream {
     private static final int MAGIC_1 = 0x1f;
     private static final int MAGIC_2 = 0x8b;
     private static final int DEFLATE = 8;
@@ -54,13 +54,6 @@ final class GzipMembersInputStream extends InputStream {
         }
         g.header();
         return g;
-    }
-
-    @Override
-    public int read() throws IOException {
-        byte[] one = new byte[1];
-        int n = read(one, 0, 1);
-        return n < 0 ? -1 : one[0] & 0xff;
     }
 
     @Override

@@ -80,15 +80,8 @@ final class InputCopy {
         return channel.read(ByteBuffer.wrap(b, off, want), pos);
     }
 
-    private final class Reader extends InputStream {
+    private final class Reader extends BulkReadInputStream {
         private long pos;
-
-        @Override
-        public int read() throws IOException {
-            byte[] one = new byte[1];
-            int n = read(one, 0, 1);
-            return n < 0 ? -1 : one[0] & 0xff;
-        }
 
         @Override
         public int read(byte[] b, int off, int len) throws IOException {
