@@ -104,7 +104,7 @@ public final class DistributedCheck {
         int output = -1;
         StructField[] fields = raw.schema().fields();
         for (int k = 0; k < fields.length; k++) {
-            String name = fields[k].name().strip();
+            String name = fields[k].name();
             if (name.equals(ReferenceSetReader.LOG_DENSITY)) {
                 density = k;
                 if (!fields[k].dataType().equals(DataTypes.DoubleType)) {
