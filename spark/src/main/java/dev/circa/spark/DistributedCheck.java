@@ -69,6 +69,12 @@ public final class DistributedCheck {
         List<CsvStretchCount.Count> counts = new ArrayList<>(
                 Jobs.run(() -> lines.javaRDD().mapPartitions(new CsvStretchCount(model)).collect()));
         counts.sort(Comparator.comparingLong(CsvStretchCount.Count::start));
+        if (counts.stream().anyMatch(CsvStretchCount.Count::oddQuotes)) {
+            // a quoted cell holds a line break: a record may span two splits, so one task reads the file whole
+            WholeFileCheck whole = new WholeFileCheck(shipped, file, tolerance);
+            return Jobs.run(() -> JavaSparkContext.fromSparkContext(spark.sparkContext()).binaryFiles(file, 1)
+                    .mapPartitions(whole).collect());
+        }
         if (counts.isEmpty() || counts.get(0).header() == null) {
             throw new FormatException(file, 1, 1, null,
                     "the file is empty; expected a header of variable names, log_density and optionally output");

@@ -42,6 +42,7 @@ final class LineStretches {
         private String current;
         private int pos;
         private long lines;
+        private boolean oddQuotes;
         private boolean done;
 
         private Stretch(long start, String prefix) {
@@ -52,6 +53,14 @@ final class LineStretches {
         /** Lines of the file read so far (not counting the prefix). */
         long lines() {
             return lines;
+        }
+
+        /**
+         * Whether a line read so far has an odd number of {@code "}: a quoted cell goes on past its end,
+         * so records may span the stretches' boundaries (see {@link DataFiles}).
+         */
+        boolean oddQuotes() {
+            return oddQuotes;
         }
 
         /** Reads to the end of the stretch. */
@@ -67,6 +76,11 @@ final class LineStretches {
                 return false;
             }
             current = (peeked.isNullAt(0) ? "" : peeked.getString(0)) + "\n";
+            int quotes = 0;
+            for (int i = current.indexOf('"'); i >= 0; i = current.indexOf('"', i + 1)) {
+                quotes++;
+            }
+            oddQuotes |= (quotes & 1) == 1;
             pos = 0;
             lines++;
             peeked = rows.hasNext() ? rows.next() : null;
