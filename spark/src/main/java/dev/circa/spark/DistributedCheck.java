@@ -81,10 +81,7 @@ public final class DistributedCheck {
         }
         CsvStretchCount.Count head = counts.get(0);
         CompiledCircuit c = model.compiled();
-        List<String> outputs = new ArrayList<>();
-        for (int o = 0; o < c.outputCount(); o++) {
-            outputs.add(c.outputName(o));
-        }
+        List<String> outputs = model.outputNames();
         // the header is checked here, before any work, with the reader that checks it in circa check
         new ReferenceSetReader(new CsvReader(new StringReader(head.header()), file, model.limits(), head.headerLine()),
                 c.variables(), outputs);

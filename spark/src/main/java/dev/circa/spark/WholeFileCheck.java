@@ -39,10 +39,7 @@ final class WholeFileCheck implements FlatMapFunction<Iterator<Tuple2<String, Po
     public Iterator<PartialReport> call(Iterator<Tuple2<String, PortableDataStream>> files) throws Exception {
         SparkModel m = model.value();
         CompiledCircuit c = m.compiled();
-        List<String> outputs = new ArrayList<>();
-        for (int o = 0; o < c.outputCount(); o++) {
-            outputs.add(c.outputName(o));
-        }
+        List<String> outputs = m.outputNames();
         List<PartialReport> parts = new ArrayList<>();
         while (files.hasNext()) {
             PortableDataStream bytes = files.next()._2();
