@@ -124,6 +124,20 @@ class QuotedLineBreaksOnSparkTest {
     }
 
     @Test
+    void check_fileEndsInsideAQuotedCell_oneLocatedMessageAsCircaCheck() throws IOException {
+        String text = Files.readString(reference);
+        Path cut = LocalSpark.write(dir.resolve("cut.csv"), text.substring(0, text.lastIndexOf("\"half") + 3));
+        LocalSpark.Run single = LocalSpark.circa("check", circuit.toString(), "--reference", cut.toString());
+        LocalSpark.Run spread = LocalSpark.circaSpark("check", circuit.toString(), "--reference", cut.toString(),
+                "--conf", "spark.sql.files.maxPartitionBytes=" + (Files.size(cut) / 3 + 1));
+        assertEquals(2, single.status(), single.err());
+        assertEquals(2, spread.status(), spread.err());
+        assertTrue(single.err().contains("the file ends inside a quoted field"), single.err());
+        assertEquals(single.err().replace("circa:", "circa-spark:"), spread.err());
+        spark.conf().unset("spark.sql.files.maxPartitionBytes");
+    }
+
+    @Test
     void hasQuotedLineBreak_onlyWhenALineOpensAQuotedCell() {
         assertTrue(DataFiles.hasQuotedLineBreak(spark.read().text(data.toString())));
         Path plain = LocalSpark.write(dir.resolve("plain.csv"), "inlet_pressure,valve\n3.0,\"closed\"\n2.5,\"a \"\"b\"\"\"\n");
