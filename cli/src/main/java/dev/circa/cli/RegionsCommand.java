@@ -67,7 +67,11 @@ final class RegionsCommand implements Runnable {
                 if (vars < 1) {
                     throw new UsageException("--vars must be >= 1, got " + vars);
                 }
-                RandomRegions.checkLimits(vars, depth, repeats, read.limits(), maxVars);
+                try {
+                    RandomRegions.checkLimits(vars, depth, repeats, read.limits(), maxVars);
+                } catch (dev.circa.format.io.LimitExceededException e) {
+                    throw new UsageException(e.problem()); // no file to name: the options ask for too much
+                }
                 variables = RandomRegions.realVariables(vars);
             } else {
                 variables = RandomRegions.readVariables(variablesFile, read.limits());
