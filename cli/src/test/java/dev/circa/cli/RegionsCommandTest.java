@@ -81,6 +81,20 @@ class RegionsCommandTest {
     }
 
     @Test
+    void random_variablesFilePastMaxVars_refusedNamingIt() throws Exception {
+        Path vars = Files.writeString(tmp.resolve("v.json"), "[{\"name\": \"inlet_pressure\", \"type\": \"real\"},"
+                + " {\"name\": \"valve\", \"type\": \"binary\"}, {\"name\": \"trips\", \"type\": \"count\"}]");
+        Path out = tmp.resolve("three.json");
+        Cli.Result r = Cli.run("regions", "random", "--variables", vars.toString(), "--depth", "1", "--max-vars", "2",
+                "-o", out.toString());
+        Cli.assertUnusable(r, "--max-vars", "3 variables is more than the limit of 2");
+        assertFalse(Files.exists(out), "nothing written");
+        Cli.Result ok = Cli.run("regions", "random", "--variables", vars.toString(), "--depth", "1", "--max-vars", "3",
+                "-o", out.toString());
+        assertEquals(ExitStatus.OK, ok.status(), ok::describe);
+    }
+
+    @Test
     void random_millionVariablesAtDepthOne_accepted() throws Exception {
         // within the default limits (1e6 <= 1e7 variables, 2e6 references <= 2e8): written whole
         Path out = tmp.resolve("million.json");
