@@ -30,9 +30,9 @@ final class CsvStretchCount implements FlatMapFunction<Iterator<Row>, CsvStretch
      * @param records its records, the header not counted
      * @param header the header line (first split only, else null)
      * @param headerLine the header's line number (first split only)
-     * @param oddQuotes whether a line has an odd number of quotes (a quoted cell holds a line break)
+     * @param readWhole whether the file must be read whole by circa's reader ({@link LineStretches.Stretch#readWhole})
      */
-    record Count(long start, long lines, long records, String header, int headerLine, boolean oddQuotes)
+    record Count(long start, long lines, long records, String header, int headerLine, boolean readWhole)
             implements Serializable {
     }
 
@@ -61,7 +61,7 @@ final class CsvStretchCount implements FlatMapFunction<Iterator<Row>, CsvStretch
                 // the second pass meets the same problem and reports it with the file's line numbers
             }
             text.drain();
-            counts.add(new Count(start, text.lines(), records, header, headerLine, text.oddQuotes()));
+            counts.add(new Count(start, text.lines(), records, header, headerLine, text.readWhole()));
         }
         return counts.iterator();
     }

@@ -69,8 +69,9 @@ public final class DistributedCheck {
         List<CsvStretchCount.Count> counts = new ArrayList<>(
                 Jobs.run(() -> lines.javaRDD().mapPartitions(new CsvStretchCount(model)).collect()));
         counts.sort(Comparator.comparingLong(CsvStretchCount.Count::start));
-        if (counts.stream().anyMatch(CsvStretchCount.Count::oddQuotes)) {
-            // a quoted cell holds a line break: a record may span two splits, so one task reads the file whole
+        if (counts.stream().anyMatch(CsvStretchCount.Count::readWhole)) {
+            // a quoted cell holds a line break (a record may span two splits), or the text is not UTF-8:
+            // one task reads the file whole from its bytes, as circa check does
             WholeFileCheck whole = new WholeFileCheck(shipped, file, tolerance);
             return Jobs.run(() -> JavaSparkContext.fromSparkContext(spark.sparkContext()).binaryFiles(file, 1)
                     .mapPartitions(whole).collect());

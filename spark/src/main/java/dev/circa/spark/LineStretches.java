@@ -42,7 +42,7 @@ final class LineStretches {
         private String current;
         private int pos;
         private long lines;
-        private boolean oddQuotes;
+        private boolean readWhole;
         private boolean done;
 
         private Stretch(long start, String prefix) {
@@ -56,11 +56,14 @@ final class LineStretches {
         }
 
         /**
-         * Whether a line read so far has an odd number of {@code "}: a quoted cell goes on past its end,
-         * so records may span the stretches' boundaries (see {@link DataFiles}).
+         * Whether the file must be read whole, from its bytes, by circa's own reader: a line read so far
+         * has an odd number of {@code "} (a quoted cell goes on past its end, so records may span the
+         * stretches' boundaries; see {@link DataFiles}), or a character the line reader makes of bytes
+         * that are not UTF-8 text (U+FFFD in place of malformed bytes, U+0000 from UTF-16 or UTF-32 text),
+         * which circa's reader decodes or reports at their own line and column.
          */
-        boolean oddQuotes() {
-            return oddQuotes;
+        boolean readWhole() {
+            return readWhole;
         }
 
         /** Reads to the end of the stretch. */
@@ -80,7 +83,7 @@ final class LineStretches {
             for (int i = current.indexOf('"'); i >= 0; i = current.indexOf('"', i + 1)) {
                 quotes++;
             }
-            oddQuotes |= (quotes & 1) == 1;
+            readWhole |= (quotes & 1) == 1 || current.indexOf('\uFFFD') >= 0 || current.indexOf('\u0000') >= 0;
             pos = 0;
             lines++;
             peeked = rows.hasNext() ? rows.next() : null;

@@ -19,7 +19,8 @@ import scala.Tuple2;
 /**
  * A reference CSV checked whole by one task, streamed from its bytes exactly as {@code circa check} reads
  * it (text encodings, {@code .gz}, {@code --max-bytes}); for a file whose records may span the splits
- * of the line reader (a quoted cell holding a line break). Gives one partial report per file.
+ * of the line reader (a quoted cell holding a line break) or whose text is not UTF-8 as the line reader
+ * takes it. Gives one partial report per file.
  */
 final class WholeFileCheck implements FlatMapFunction<Iterator<Tuple2<String, PortableDataStream>>, PartialReport> {
     private static final long serialVersionUID = 1L;

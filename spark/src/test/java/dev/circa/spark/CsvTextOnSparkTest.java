@@ -18,9 +18,11 @@ import org.junit.jupiter.api.io.TempDir;
 /**
  * CSV files whose quoted cells hold line breaks (RFC 4180 section 2, rule 6), split by Spark at line
  * breaks into 1, 3 and 8 partitions: scoring gives {@code circa eval}'s output and the distributed check
- * {@code circa check}'s report and status, both run in-process on the same files.
+ * {@code circa check}'s report and status, both run in-process on the same files. And text that is not
+ * UTF-8 as Spark's line reader takes it (a malformed byte far into the file; UTF-16): the same message or
+ * report as {@code circa check}.
  */
-class QuotedLineBreaksOnSparkTest {
+class CsvTextOnSparkTest {
     /** Valve states whose labels hold a line break, a comma and quotes. */
     private static final String[] LABELS = {"closed", "half\nopen", "open, \"stuck\"\nat the top\n"};
     private static final int[] PARTITIONS = {1, 3, 8};
@@ -134,6 +136,40 @@ class QuotedLineBreaksOnSparkTest {
         assertEquals(2, spread.status(), spread.err());
         assertTrue(single.err().contains("the file ends inside a quoted field"), single.err());
         assertEquals(single.err().replace("circa:", "circa-spark:"), spread.err());
+        spark.conf().unset("spark.sql.files.maxPartitionBytes");
+    }
+
+    @Test
+    void check_malformedByteOnRow500_sameLocatedMessageAsCircaCheck() throws IOException {
+        // 0xFF never occurs in UTF-8 (RFC 3629 section 1): Spark's line reader would make it U+FFFD
+        byte[] text = Files.readAllBytes(reference);
+        String ascii = Files.readString(reference); // ASCII only: character and byte positions agree
+        text[ascii.indexOf("closed", ascii.length() * 4 / 5) + 2] = (byte) 0xFF;
+        Path bad = dir.resolve("malformed.csv");
+        Files.write(bad, text);
+        LocalSpark.Run single = LocalSpark.circa("check", circuit.toString(), "--reference", bad.toString());
+        assertEquals(2, single.status(), single.err());
+        assertTrue(single.err().contains("byte 0xFF is not UTF-8 text"), single.err());
+        for (int n : new int[] {1, 3}) {
+            LocalSpark.Run spread = LocalSpark.circaSpark("check", circuit.toString(), "--reference", bad.toString(),
+                    "--conf", "spark.sql.files.maxPartitionBytes=" + (text.length / n + 1));
+            assertEquals(single.err().replace("circa:", "circa-spark:"), spread.err(), n + " splits");
+            assertEquals(2, spread.status());
+        }
+        spark.conf().unset("spark.sql.files.maxPartitionBytes");
+    }
+
+    @Test
+    void check_utf16WithByteOrderMark_sameReportAsCircaCheck() throws IOException {
+        // the byte-order mark U+FEFF and UTF-16LE (The Unicode Standard, section 23.8), by the JDK's encoder
+        Path utf16 = dir.resolve("reference-utf16.csv");
+        Files.write(utf16, ("\uFEFF" + Files.readString(reference)).getBytes(java.nio.charset.StandardCharsets.UTF_16LE));
+        LocalSpark.Run single = LocalSpark.circa("check", circuit.toString(), "--reference", utf16.toString());
+        assertEquals(1, single.status(), single.err());
+        LocalSpark.Run spread = LocalSpark.circaSpark("check", circuit.toString(), "--reference", utf16.toString(),
+                "--conf", "spark.sql.files.maxPartitionBytes=" + (Files.size(utf16) / 3 + 1));
+        assertEquals(single.status(), spread.status(), spread.err());
+        assertEquals(single.out(), spread.out());
         spark.conf().unset("spark.sql.files.maxPartitionBytes");
     }
 
