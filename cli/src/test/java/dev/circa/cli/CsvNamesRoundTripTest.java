@@ -3,11 +3,9 @@ package dev.circa.cli;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import dev.circa.format.csv.CsvReader;
-import dev.circa.format.io.ReadLimits;
+import dev.circa.format.csv.CsvRecords;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.ArrayList;
 import java.util.List;
 import org.apache.commons.math3.distribution.NormalDistribution;
 import org.junit.jupiter.api.Test;
@@ -98,13 +96,6 @@ class CsvNamesRoundTripTest {
     }
 
     private static List<List<String>> records(Path p) throws Exception {
-        List<List<String>> out = new ArrayList<>();
-        try (CsvReader r = CsvReader.open(p, ReadLimits.DEFAULT)) {
-            List<String> rec;
-            while ((rec = r.next()) != null) {
-                out.add(List.copyOf(rec));
-            }
-        }
-        return out;
+        return CsvRecords.of(p);
     }
 }

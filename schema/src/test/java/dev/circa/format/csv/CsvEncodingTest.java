@@ -5,14 +5,12 @@ import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import dev.circa.format.io.FormatException;
-import dev.circa.format.io.ReadLimits;
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
 import java.nio.charset.Charset;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.ArrayList;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -101,13 +99,6 @@ class CsvEncodingTest {
     }
 
     private static List<List<String>> read(Path p) throws FormatException {
-        List<List<String>> out = new ArrayList<>();
-        try (CsvReader r = CsvReader.open(p, ReadLimits.DEFAULT)) {
-            List<String> rec;
-            while ((rec = r.next()) != null) {
-                out.add(List.copyOf(rec));
-            }
-        }
-        return out;
+        return CsvRecords.of(p);
     }
 }
