@@ -107,6 +107,24 @@ class CsvTextOnSparkTest {
     }
 
     @Test
+    void score_utf8AndUtf16WithByteOrderMark_partFilesEqualCircaEvalOutput() throws IOException {
+        // the byte-order mark U+FEFF in UTF-8 and UTF-16LE (The Unicode Standard, section 23.8), by the JDK's encoders
+        String text = "\uFEFF" + Files.readString(data);
+        for (java.nio.charset.Charset cs : new java.nio.charset.Charset[] {java.nio.charset.StandardCharsets.UTF_8,
+            java.nio.charset.StandardCharsets.UTF_16LE}) {
+            Path marked = dir.resolve("marked-" + cs.name() + ".csv");
+            Files.write(marked, text.getBytes(cs));
+            Path out = dir.resolve("scored-" + cs.name());
+            LocalSpark.Run run = LocalSpark.circaSpark("score", circuit.toString(), "--data", marked.toString(),
+                    "-o", out.toString(), "--conf", "spark.sql.files.maxPartitionBytes=" + (text.length() / 3 + 1));
+            assertEquals(0, run.status(), run.err());
+            String[] parts = LocalSpark.parts(out);
+            assertEquals(evalOut, parts[0] + parts[1], cs.name() + " with a byte-order mark: as circa eval of the plain file");
+        }
+        spark.conf().unset("spark.sql.files.maxPartitionBytes");
+    }
+
+    @Test
     void check_quotedLineBreaksAcrossSplits_reportAndStatusEqualCircaCheck() throws IOException {
         long size = Files.size(reference);
         for (String format : new String[] {"text", "json"}) {

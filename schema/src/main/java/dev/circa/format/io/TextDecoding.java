@@ -43,6 +43,28 @@ public final class TextDecoding {
         } catch (IOException e) {
             throw new FormatException(file, 0, 0, null, "cannot be read: " + e.getMessage());
         }
+        Detected d = detect(head, n);
+        try {
+            b.skipNBytes(d.mark());
+        } catch (IOException e) {
+            throw new FormatException(file, 0, 0, null, "cannot be read: " + e.getMessage());
+        }
+        return new StrictReader(b, d.charset());
+    }
+
+    /**
+     * The encoding of a text that starts with the {@code n} bytes of {@code head} (at most 4 are looked
+     * at), detected as {@link #reader} does; for readers that decode by themselves (Spark's).
+     */
+    public static Charset encoding(byte[] head, int n) {
+        return detect(head, n).charset();
+    }
+
+    /** An encoding and the length of its byte-order mark (0 when there is none). */
+    private record Detected(Charset charset, int mark) {
+    }
+
+    private static Detected detect(byte[] head, int n) {
         int skip = 0;
         Charset cs = StandardCharsets.UTF_8;
         int b0 = n > 0 ? head[0] & 0xff : -1;
@@ -72,12 +94,7 @@ public final class TextDecoding {
         } else if (n >= 2 && b0 != 0 && b1 == 0) {
             cs = StandardCharsets.UTF_16LE;
         }
-        try {
-            b.skipNBytes(skip);
-        } catch (IOException e) {
-            throw new FormatException(file, 0, 0, null, "cannot be read: " + e.getMessage());
-        }
-        return new StrictReader(b, cs);
+        return new Detected(cs, skip);
     }
 
     /**
