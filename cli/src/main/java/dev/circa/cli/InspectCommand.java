@@ -10,6 +10,7 @@ import dev.circa.format.SumNode;
 import dev.circa.validator.CircuitStats;
 import dev.circa.validator.ExactQueries;
 import dev.circa.validator.Property;
+import dev.circa.format.io.FormatException;
 import dev.circa.model.CheckedCircuit;
 import dev.circa.model.Requirement;
 import dev.circa.validator.ValidationReport;
@@ -45,7 +46,12 @@ final class InspectCommand implements Callable<Integer> {
             doc = m.document();
             report = CircuitReadOptions.reportWithLogZ(m);
         } else {
-            CheckedCircuit checked = read.loader().withRequirement(Requirement.parse("")).check(circuitFile);
+            CheckedCircuit checked;
+            try {
+                checked = read.loader().withRequirement(Requirement.parse("")).check(circuitFile);
+            } catch (FormatException e) {
+                throw ConvertibleDocument.explain(circuitFile, e, read.limits());
+            }
             doc = checked.document();
             report = checked.report();
         }

@@ -65,7 +65,7 @@ public class ReadOptions {
             model = loader().load(file);
         } catch (ModelException e) {
             if (e.unreadable()) {
-                throw e;
+                throw ConvertibleDocument.explain(file, e, limits());
             }
             for (Diagnostic d : e.diagnostics().subList(0, Math.min(20, e.diagnostics().size()))) {
                 err().println(file + ": " + d.render());

@@ -86,7 +86,8 @@ final class ValidateCommand implements Callable<Integer> {
             Validator v = new Validator(options, useSchema(f) ? SchemaCheck.BUNDLED : SchemaCheck.NONE);
             try {
                 outcomes.add(ValidationOutcome.of(v.validate(f, read.limits())));
-            } catch (FormatException e) {
+            } catch (FormatException failure) {
+                FormatException e = ConvertibleDocument.explain(f, failure, read.limits());
                 err.println("circa: " + e.getMessage());
                 outcomes.add(ValidationOutcome.failed(f.toString(), e));
             }
