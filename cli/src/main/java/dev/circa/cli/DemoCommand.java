@@ -1,5 +1,6 @@
 package dev.circa.cli;
 
+import dev.circa.format.Counts;
 import dev.circa.converter.mixture.MixtureConverter;
 import dev.circa.converter.mixture.MixtureOptions;
 import dev.circa.converter.regions.CompileOptions;
@@ -68,8 +69,8 @@ final class DemoCommand implements Callable<Integer> {
                 new CompileOptions(3, 2, 1, CompileOptions.defaults().families()), ParameterSource.file(npz),
                 new RegionConverter.Verification(500, 0, 1e-9, 1e-9), LIMITS);
         CircuitDocument doc = stations.circuit();
-        f.indent("compiled with 3 sums per region, 2 input bundles per leaf region: " + doc.nodes().size()
-                + " nodes, " + doc.edgeCount() + " edges\n" + stations.verification().summary());
+        f.indent("compiled with 3 sums per region, 2 input bundles per leaf region: " + Counts.of(doc.nodes().size(), "node")
+                + ", " + Counts.of(doc.edgeCount(), "edge") + "\n" + stations.verification().summary());
         Path stationsFile = f.write(doc, "stations.circuit.json", "the compiled region-graph model");
 
         f.say("");
@@ -134,8 +135,8 @@ final class DemoCommand implements Callable<Integer> {
                 caught++;
             }
         }
-        f.indent("verdict: " + (br.valid() ? "valid (unexpected!)" : "INVALID, as it should be") + " (" + caught
-                + " diagnostics)");
+        f.indent("verdict: " + (br.valid() ? "valid (unexpected!)" : "INVALID, as it should be") + " ("
+                + Counts.of(caught, "diagnostic") + ")");
         return !br.valid();
     }
 
