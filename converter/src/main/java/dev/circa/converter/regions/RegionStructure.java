@@ -58,10 +58,10 @@ public final class RegionStructure {
         int nv = graph.variables().size();
         int nr = regions.size();
         if (nv == 0) {
-            throw fail(graph, SourceLocation.of("/variables"), "a region graph needs at least one variable");
+            throw fail(graph, graph.location("/variables"), "a region graph needs at least one variable");
         }
         if (nr == 0) {
-            throw fail(graph, SourceLocation.of("/regions"), "a region graph needs at least one region (the root)");
+            throw fail(graph, graph.location("/regions"), "a region graph needs at least one region (the root)");
         }
         checkVariables(graph);
         Map<Integer, Integer> byId = new HashMap<>(nr * 2);
@@ -165,7 +165,7 @@ public final class RegionStructure {
             }
         }
         if (root < 0) {
-            throw fail(graph, SourceLocation.of("/regions"),
+            throw fail(graph, graph.location("/regions"),
                     "every region is the part of some partition, so there is no root and the graph has a cycle");
         }
         if (vars[root].length != nv) {
@@ -253,7 +253,7 @@ public final class RegionStructure {
         List<Variable> vars = graph.variables();
         for (int i = 0; i < vars.size(); i++) {
             Variable v = vars.get(i);
-            SourceLocation at = SourceLocation.of("/variables/" + i);
+            SourceLocation at = graph.location("/variables/" + i);
             if (v.name().isEmpty()) {
                 throw fail(graph, at, "variable " + i + " has an empty name; expected a non-empty, unique name");
             }
@@ -266,7 +266,7 @@ public final class RegionStructure {
             boolean unique = new java.util.HashSet<>(v.states()).size() == states;
             if (v.type() == dev.circa.format.VariableType.CATEGORICAL && (states < 2 || !unique)) {
                 throw fail(graph, at, "categorical variable \"" + v.name() + "\" has " + states
-                        + (unique ? "" : " (not unique)") + " states; expected at least 2 unique state labels");
+                        + (unique ? "" : " (not unique)") + (states == 1 ? " state" : " states") + "; expected at least 2 unique state labels");
             }
             if (v.type() == dev.circa.format.VariableType.BINARY && (states != 0 && states != 2 || !unique)) {
                 throw fail(graph, at, "binary variable \"" + v.name() + "\" has " + states
