@@ -36,7 +36,9 @@ public final class Main implements Runnable {
 
     /** Runs the command line and exits with its status. */
     public static void main(String[] args) {
-        System.exit(run(args, new PrintWriter(System.out, true), new PrintWriter(System.err, true)));
+        PrintWriter err = new PrintWriter(System.err, true);
+        Progress.useTerminal(err);
+        System.exit(run(args, new PrintWriter(System.out, true), err));
     }
 
     /** Runs the command line with the given streams and returns the exit status (for tests). */

@@ -82,14 +82,18 @@ final class ValidateCommand implements Callable<Integer> {
         PrintWriter out = read.out();
         PrintWriter err = read.err();
         List<ValidationOutcome> outcomes = new ArrayList<>();
-        for (Path f : files) {
-            Validator v = new Validator(options, useSchema(f) ? SchemaCheck.BUNDLED : SchemaCheck.NONE);
-            try {
-                outcomes.add(ValidationOutcome.of(v.validate(f, read.limits())));
-            } catch (FormatException failure) {
-                FormatException e = ConvertibleDocument.explain(f, failure, read.limits());
-                err.println("circa: " + e.getMessage());
-                outcomes.add(ValidationOutcome.failed(f.toString(), e));
+        try (Progress progress = Progress.start(err, "circa validate")) {
+            for (Path f : files) {
+                progress.phase("circa validate: validating " + f);
+                Validator v = new Validator(options, useSchema(f) ? SchemaCheck.BUNDLED : SchemaCheck.NONE);
+                try {
+                    outcomes.add(ValidationOutcome.of(v.validate(f, read.limits())));
+                } catch (FormatException failure) {
+                    FormatException e = ConvertibleDocument.explain(f, failure, read.limits());
+                    progress.clear();
+                    err.println("circa: " + e.getMessage());
+                    outcomes.add(ValidationOutcome.failed(f.toString(), e));
+                }
             }
         }
         String rendered = fmt.renderOutcomes(outcomes);
