@@ -54,8 +54,9 @@ final class DemoCommand implements Callable<Integer> {
         DemoFolder f = new DemoFolder(dir, spec.commandLine().getOut());
         f.say("circa demo: the pump-station scenario, files in " + dir.toAbsolutePath().normalize());
         f.say("");
-        f.say("1. The regime mixture an engineer wrote by hand (normal operation, cavitation, worn valve),");
-        f.say("   converted into a circuit and proved equal to the mixture at sampled points.");
+        f.say("1. The regime mixture an engineer wrote by hand: three regimes (normal operation, cavitation, a blocked");
+        f.say("   outlet) and a worn-valve definition shared by two of them, converted into a circuit and proved equal");
+        f.say("   to the mixture at sampled points.");
         Path yaml = f.extract("mixtures/pump-station-regimes.yaml", "pump-station-regimes.yaml");
         MixtureConverter.Result mix = MixtureConverter.convert(MixtureReader.read(yaml, LIMITS), MixtureOptions.DEFAULT);
         f.indent(mix.summary());
@@ -101,10 +102,11 @@ final class DemoCommand implements Callable<Integer> {
         ok &= caught(f, validator, f.write(BrokenExport.of(mix.circuit()), "broken-export.circuit.json", "the broken export"));
 
         f.say("");
-        f.say("6. A picture of the small model (Graphviz DOT; draw it with: dot -Tsvg regimes.dot -o regimes.svg).");
+        f.say("6. A picture of the small model as a Graphviz DOT graph.");
         String text = DotRenderer.render(CompiledCircuit.compile(mix.circuit()), new RenderOptions(true,
                 RenderOptions.DEFAULT_MAX_NODES));
         f.writeText(text, "regimes.dot", "the regime model as a DOT graph, with scopes");
+        f.indent("draw it with: dot -Tsvg " + f.file("regimes.dot") + " -o " + f.file("regimes.svg"));
 
         f.say("");
         f.say("7. The page a reviewer reads before signing the region-graph model off: verdict, the reference check,");
