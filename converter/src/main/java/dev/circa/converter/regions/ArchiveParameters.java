@@ -153,10 +153,10 @@ final class ArchiveParameters {
                                     + " expected " + id + ".v<VAR>.probs per variable");
                         }
                     }
-                    shape(sh, new int[] {bundles, g, states}, bundles + " bundles by " + g + " variables by "
-                            + states + " states");
+                    shape(sh, new int[] {bundles, g, states}, Counts.of(bundles, "bundle") + " by " + Counts.of(g, "variable") + " by "
+                            + Counts.of(states, "state"));
                 } else {
-                    shape(sh, new int[] {bundles, g}, bundles + " bundles by " + g + " variables in the order of vars");
+                    shape(sh, new int[] {bundles, g}, Counts.of(bundles, "bundle") + " by " + Counts.of(g, "variable") + " in the order of vars");
                 }
                 for (int gi = 0; gi < g; gi++) {
                     int j = group[gi];
@@ -185,7 +185,7 @@ final class ArchiveParameters {
                                 + NpyArray.shapeText(alt));
                     }
                     used.add(per);
-                    shape(pa, want, probs ? bundles + " bundles by " + want[1] + " states" : bundles + " bundles");
+                    shape(pa, want, probs ? Counts.of(bundles, "bundle") + " by " + Counts.of(want[1], "state") : Counts.of(bundles, "bundle"));
                     values[j][fam[j].parameters().indexOf(q)] = pa.values();
                 }
             }

@@ -1,5 +1,6 @@
 package dev.circa.converter.regions;
 
+import dev.circa.format.Counts;
 import dev.circa.format.SourceLocation;
 import dev.circa.format.Variable;
 import dev.circa.format.io.FormatException;
@@ -111,8 +112,8 @@ public final class RegionStructure {
             }
             int[] parts = part.parts();
             if (parts.length < 2) {
-                throw fail(graph, at, "the partition of region " + part.region() + " has " + parts.length
-                        + " part; expected at least 2");
+                throw fail(graph, at, "the partition of region " + part.region() + " has "
+                        + Counts.of(parts.length, "part") + "; expected at least 2");
             }
             int[] resolved = new int[parts.length];
             int covered = 0;
@@ -145,7 +146,7 @@ public final class RegionStructure {
             }
             if (covered != vars[r].length) {
                 throw fail(graph, at, "the parts of region " + part.region() + " cover " + covered + " of its "
-                        + vars[r].length + " variables; expected parts that together equal the region");
+                        + Counts.of(vars[r].length, "variable") + "; expected parts that together equal the region");
             }
             partitionRegion[p] = r;
             partitionParts[p] = resolved;
