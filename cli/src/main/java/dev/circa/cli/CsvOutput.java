@@ -31,14 +31,24 @@ final class CsvOutput {
      * written before it. Written to a file, the command says on standard error how many rows it wrote where.
      */
     void write(Rows rows, Path... inputs) throws IOException {
+        write(rows, -1, inputs);
+    }
+
+    /** As {@link #write(Rows, Path...)}, {@code total} data rows (or -1 when unknown) shown in the progress line. */
+    void write(Rows rows, long total, Path... inputs) throws IOException {
         CsvOut[] opened = new CsvOut[1];
         try {
-            AtomicOutput.write(output, stream -> {
-                CsvOut out = new CsvOut(new BufferedWriter(new OutputStreamWriter(stream, StandardCharsets.UTF_8)));
-                opened[0] = out;
-                rows.write(out);
-                out.flush();
-            }, inputs);
+            boolean toTerminal = output.toString().equals("-") && Progress.stdoutIsTerminal();
+            try (Progress progress = Progress.start(toTerminal ? null : command.commandLine().getErr(), "circa " + command.name() + ": writing "
+                    + (output.toString().equals("-") ? "rows" : output))) {
+                AtomicOutput.write(output, stream -> {
+                    CsvOut out = new CsvOut(new BufferedWriter(new OutputStreamWriter(stream, StandardCharsets.UTF_8)),
+                            progress, total);
+                    opened[0] = out;
+                    rows.write(out);
+                    out.flush();
+                }, inputs);
+            }
             if (!output.toString().equals("-")) {
                 command.commandLine().getErr().println("circa " + command.name() + ": wrote "
                         + Counts.grouped(Math.max(0, opened[0].records() - 1), "row") + " to " + output);

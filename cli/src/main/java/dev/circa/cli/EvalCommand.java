@@ -55,36 +55,32 @@ final class EvalCommand implements Callable<Integer> {
                 givenMask[cols.variableOf(col)] = true;
             }
             String[] header = cols.header();
-            try (Progress progress = Progress.start(read.err(), "circa eval: scoring " + data.file)) {
-                output.write(out -> {
-                    String[] names = Arrays.copyOf(header, header.length + no);
-                    for (int o = 0; o < no; o++) {
-                        names[header.length + o] = no == 1 ? "log_density" : "log_density:" + c.outputName(o);
+            output.write(out -> {
+                String[] names = Arrays.copyOf(header, header.length + no);
+                for (int o = 0; o < no; o++) {
+                    names[header.length + o] = no == 1 ? "log_density" : "log_density:" + c.outputName(o);
+                }
+                out.record(names);
+                double[] data = new double[CHUNK * nv];
+                double[] result = new double[CHUNK * no];
+                String[][] cells = new String[CHUNK][header.length];
+                String[] line = new String[header.length + no];
+                int rows;
+                while ((rows = cols.readRows(data, cells, CHUNK)) > 0) {
+                    if (given.isEmpty()) {
+                        model.logDensity(data, rows, result);
+                    } else {
+                        model.conditional(data, rows, givenMask, result);
                     }
-                    out.record(names);
-                    double[] data = new double[CHUNK * nv];
-                    double[] result = new double[CHUNK * no];
-                    String[][] cells = new String[CHUNK][header.length];
-                    String[] line = new String[header.length + no];
-                    long done = 0;
-                    int rows;
-                    while ((rows = cols.readRows(data, cells, CHUNK)) > 0) {
-                        if (given.isEmpty()) {
-                            model.logDensity(data, rows, result);
-                        } else {
-                            model.conditional(data, rows, givenMask, result);
+                    for (int r = 0; r < rows; r++) {
+                        System.arraycopy(cells[r], 0, line, 0, header.length);
+                        for (int o = 0; o < no; o++) {
+                            line[header.length + o] = CellValues.formatLogDensity(result[r * no + o]);
                         }
-                        for (int r = 0; r < rows; r++) {
-                            System.arraycopy(cells[r], 0, line, 0, header.length);
-                            for (int o = 0; o < no; o++) {
-                                line[header.length + o] = CellValues.formatLogDensity(result[r * no + o]);
-                            }
-                            out.record(line);
-                        }
-                        progress.count(done += rows, -1, "row");
+                        out.record(line);
                     }
-                }, circuitFile, data.file);
-            }
+                }
+            }, circuitFile, data.file);
         }
         return ExitStatus.OK;
     }

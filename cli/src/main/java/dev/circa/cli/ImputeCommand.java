@@ -43,30 +43,26 @@ final class ImputeCommand implements Callable<Integer> {
         try (CsvReader csv = CsvReader.open(data.file, read.limits())) {
             DataColumns cols = DataColumns.readHeader(csv, c.variables());
             String[] header = cols.header();
-            try (Progress progress = Progress.start(read.err(), "circa impute: filling " + data.file)) {
-                output.write(out -> {
-                    out.record(header);
-                    double[] data = new double[CHUNK * nv];
-                    double[] filled = new double[CHUNK * nv];
-                    double[] logValue = new double[CHUNK];
-                    String[][] cells = new String[CHUNK][header.length];
-                    String[] line = new String[header.length];
-                    long done = 0;
-                    int rows;
-                    while ((rows = cols.readRows(data, cells, CHUNK)) > 0) {
-                        model.impute(data, rows, outIndex, filled, logValue);
-                        for (int r = 0; r < rows; r++) {
-                            for (int col = 0; col < header.length; col++) {
-                                int v = cols.variableOf(col);
-                                line[col] = cells[r][col].isBlank()
-                                        ? CellValues.format(c.variables().get(v), filled[r * nv + v]) : cells[r][col];
-                            }
-                            out.record(line);
+            output.write(out -> {
+                out.record(header);
+                double[] data = new double[CHUNK * nv];
+                double[] filled = new double[CHUNK * nv];
+                double[] logValue = new double[CHUNK];
+                String[][] cells = new String[CHUNK][header.length];
+                String[] line = new String[header.length];
+                int rows;
+                while ((rows = cols.readRows(data, cells, CHUNK)) > 0) {
+                    model.impute(data, rows, outIndex, filled, logValue);
+                    for (int r = 0; r < rows; r++) {
+                        for (int col = 0; col < header.length; col++) {
+                            int v = cols.variableOf(col);
+                            line[col] = cells[r][col].isBlank()
+                                    ? CellValues.format(c.variables().get(v), filled[r * nv + v]) : cells[r][col];
                         }
-                        progress.count(done += rows, -1, "row");
+                        out.record(line);
                     }
-                }, circuitFile, data.file);
-            }
+                }
+            }, circuitFile, data.file);
         }
         read.err().println(model.mpeExact()
                 ? "circa impute: exact (the circuit is deterministic, so max-product gives the most probable explanation)"

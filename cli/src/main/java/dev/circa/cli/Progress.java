@@ -66,8 +66,17 @@ final class Progress implements AutoCloseable {
     }
 
     private static boolean stderrIsTerminal() {
+        return isTerminal(2);
+    }
+
+    /** Whether standard output is a terminal too (rows written there would break the progress line). */
+    static boolean stdoutIsTerminal() {
+        return isTerminal(1);
+    }
+
+    private static boolean isTerminal(int fd) {
         try {
-            String target = Files.readSymbolicLink(Path.of("/proc/self/fd/2")).toString();
+            String target = Files.readSymbolicLink(Path.of("/proc/self/fd/" + fd)).toString();
             return target.startsWith("/dev/pts/") || target.startsWith("/dev/tty");
         } catch (java.io.IOException | UnsupportedOperationException | SecurityException e) {
             return System.console() != null;

@@ -52,30 +52,27 @@ final class SampleCommand implements Callable<Integer> {
         int outIndex = OutputChoice.index(c, outputName);
         List<Variable> vars = c.variables();
         int nv = vars.size();
-        try (Progress progress = Progress.start(read.err(), "circa sample: drawing")) {
-            output.write(out -> {
-                out.record(vars.stream().map(Variable::name).toArray(String[]::new));
-                int chunk = chunkRows(count, nv);
-                double[] buf = new double[Math.multiplyExact(chunk, Math.max(1, nv))];
-                String[] line = new String[nv];
-                for (long first = 0; first < count; first += chunk) {
-                    int n = (int) Math.min(chunk, count - first);
-                    try {
-                        model.sample(outIndex, seed, first, n, buf);
-                    } catch (DrawOverflowException e) {
-                        throw new UsageException(circuitFile + ": " + e.getMessage().replace("its variable",
-                                "variable " + vars.get(e.variable()).name()) + "; nothing written");
-                    }
-                    for (int r = 0; r < n; r++) {
-                        for (int v = 0; v < nv; v++) {
-                            line[v] = CellValues.format(vars.get(v), buf[r * nv + v]);
-                        }
-                        out.record(line);
-                    }
-                    progress.count(first + n, count, "row");
+        output.write(out -> {
+            out.record(vars.stream().map(Variable::name).toArray(String[]::new));
+            int chunk = chunkRows(count, nv);
+            double[] buf = new double[Math.multiplyExact(chunk, Math.max(1, nv))];
+            String[] line = new String[nv];
+            for (long first = 0; first < count; first += chunk) {
+                int n = (int) Math.min(chunk, count - first);
+                try {
+                    model.sample(outIndex, seed, first, n, buf);
+                } catch (DrawOverflowException e) {
+                    throw new UsageException(circuitFile + ": " + e.getMessage().replace("its variable",
+                            "variable " + vars.get(e.variable()).name()) + "; nothing written");
                 }
-            }, circuitFile);
-        }
+                for (int r = 0; r < n; r++) {
+                    for (int v = 0; v < nv; v++) {
+                        line[v] = CellValues.format(vars.get(v), buf[r * nv + v]);
+                    }
+                    out.record(line);
+                }
+            }
+        }, count, circuitFile);
         return ExitStatus.OK;
     }
 
