@@ -68,4 +68,20 @@ class ProgressTest {
         assertEquals("circa validate: validating a.json, 7 s", Progress.line("circa validate: validating a.json", -1, -1, null,
                 7 * SECOND));
     }
+
+    @Test
+    void csvOut_countsDataRowsIntoTheLine() throws Exception {
+        AtomicLong now = new AtomicLong(0);
+        StringWriter sink = new StringWriter();
+        Progress p = new Progress(new PrintWriter(sink), true, now::get, "circa sample: writing s.csv");
+        CsvOut out = new CsvOut(new StringWriter(), p, 5000);
+        out.record("x", "y");
+        for (int r = 0; r < 2047; r++) {
+            out.record("1", "2");
+        }
+        now.addAndGet(3 * SECOND);
+        p.tick();
+        // the header is not a data row: 2,048 records written, 2,047 of them rows
+        assertEquals("\rcirca sample: writing s.csv, 2,047 of 5,000 rows (40%), 3 s", sink.toString());
+    }
 }
