@@ -71,16 +71,4 @@ final class GaussianMath {
         }
         return s;
     }
-
-    /** log(exp(a) + exp(b)) without overflow; -inf + -inf is -inf. */
-    static double logAdd(double a, double b) {
-        if (a == Double.NEGATIVE_INFINITY) {
-            return b;
-        }
-        if (b == Double.NEGATIVE_INFINITY) {
-            return a;
-        }
-        double m = Math.max(a, b);
-        return m + Math.log1p(Math.exp(-Math.abs(a - b)));
-    }
 }

@@ -1,7 +1,7 @@
 package dev.circa.converter.regions;
 
 import dev.circa.engine.CompiledCircuit;
-import dev.circa.engine.Evaluator;
+import dev.circa.engine.BatchRunner;
 import java.util.Locale;
 
 /**
@@ -57,8 +57,9 @@ public final class RegionVerifier {
                     + circuit.outputCount() + " outputs; the region graph compiles to "
                     + params.structure().variables().size() + " and " + params.options().outputs());
         }
-        Evaluator evaluator = new Evaluator(circuit);
-        return verify(params, evaluator::logDensity, sampled, seed, atol, rtol);
+        try (BatchRunner runner = BatchRunner.onAllProcessors(circuit)) {
+            return verify(params, runner::logDensity, sampled, seed, atol, rtol);
+        }
     }
 
     /**
@@ -99,7 +100,7 @@ public final class RegionVerifier {
         }
         double[] direct = new double[rows * c];
         double[] got = new double[rows * c];
-        new RegionTensorEvaluator(params).logDensity(data, rows, direct);
+        new RegionTensorEvaluator(params).logDensity(data, rows, direct, Runtime.getRuntime().availableProcessors());
         circuit.logDensity(data, rows, got);
         return compare(direct, got, rows, c, atol, rtol);
     }
