@@ -28,12 +28,19 @@ public final class RegionTensorEvaluator {
     public static final int CHUNK_ROWS = 64;
     /** Below this a scaled sum has lost too many digits: the row takes the exact per-edge log-sum-exp. */
     private static final double SCALED_FLOOR = 0x1p-900;
+    /** Sums and rows of one register tile of the scaled product. */
+    private static final int TILE = 4;
 
     private final RegionParameters p;
     private final RegionStructure s;
     private final Layout layout;
     private final int[] order;
-    /** Per region with sums: weight / largest weight of its sum, row-major (sums x children); null elsewhere. */
+    /** The family of each variable. */
+    private final Family[] family;
+    /**
+     * Per region with sums: weight / largest weight of its sum, child by child ({@code [j * padded(k) + q]}, the
+     * sums padded with zero weights to a multiple of {@value #TILE}); null elsewhere.
+     */
     private final double[][] scaled;
     /** Per region with sums: log of the largest weight of each sum (NaN when a weight is not usable as scaled). */
     private final double[][] shift;
@@ -42,8 +49,11 @@ public final class RegionTensorEvaluator {
     private final double[] child;
     private final double[] expChild;
     private final double[] vmax;
-    private final double[] acc;
+    /** Scaled sums of the block: {@code [q * CHUNK_ROWS + row]}. */
+    private final double[] dot;
     private final double[] column;
+    /** A leaf region's variables at the block's rows: {@code [j * CHUNK_ROWS + row]}. */
+    private final double[] columns;
     private int[] digit = new int[2];
 
     /** An evaluator of the model that {@code params} define. */
@@ -52,6 +62,10 @@ public final class RegionTensorEvaluator {
         this.s = params.structure();
         this.layout = params.layout();
         this.order = s.order();
+        this.family = new Family[s.variables().size()];
+        for (int v = 0; v < family.length; v++) {
+            family[v] = params.family(v);
+        }
         int nr = s.regionCount();
         this.scaled = new double[nr][];
         this.shift = new double[nr][];
@@ -68,8 +82,17 @@ public final class RegionTensorEvaluator {
         this.child = new double[maxChildren * CHUNK_ROWS];
         this.expChild = new double[maxChildren * CHUNK_ROWS];
         this.vmax = new double[CHUNK_ROWS];
-        this.acc = new double[CHUNK_ROWS];
+        int maxSums = TILE;
+        for (int r = 0; r < nr; r++) {
+            maxSums = Math.max(maxSums, padded(layout.sums(r)));
+        }
+        this.dot = new double[maxSums * CHUNK_ROWS];
         this.column = new double[maxChildren];
+        int maxVars = 1;
+        for (int r = 0; r < nr; r++) {
+            maxVars = Math.max(maxVars, s.isLeaf(r) ? s.vars(r).length : 0);
+        }
+        this.columns = new double[maxVars * CHUNK_ROWS];
     }
 
     private RegionTensorEvaluator(RegionTensorEvaluator shared) {
@@ -77,14 +100,16 @@ public final class RegionTensorEvaluator {
         this.s = shared.s;
         this.layout = shared.layout;
         this.order = shared.order;
+        this.family = shared.family;
         this.scaled = shared.scaled;
         this.shift = shared.shift;
         this.block = new double[s.regionCount()][];
         this.child = new double[shared.child.length];
         this.expChild = new double[shared.expChild.length];
         this.vmax = new double[CHUNK_ROWS];
-        this.acc = new double[CHUNK_ROWS];
+        this.dot = new double[shared.dot.length];
         this.column = new double[shared.column.length];
+        this.columns = new double[shared.columns.length];
     }
 
     /** Another evaluator of the same model that shares this one's scaled weights, for another thread. */
@@ -95,8 +120,9 @@ public final class RegionTensorEvaluator {
     private void scale(int r) {
         int k = layout.sums(r);
         int c = layout.children(r);
+        int kp = padded(k);
         boolean log = p.logWeights(r);
-        double[] sw = new double[k * c];
+        double[] sw = new double[kp * c];
         double[] sh = new double[k];
         for (int q = 0; q < k; q++) {
             double[] w = p.weights(r, q);
@@ -111,11 +137,15 @@ public final class RegionTensorEvaluator {
             sh[q] = usable && max > Double.NEGATIVE_INFINITY ? max : Double.NaN;
             for (int j = 0; j < c; j++) {
                 double lw = log ? w[j] : Math.log(w[j]);
-                sw[q * c + j] = Double.isNaN(sh[q]) ? 0 : Math.exp(lw - max);
+                sw[j * kp + q] = Double.isNaN(sh[q]) ? 0 : Math.exp(lw - max);
             }
         }
         scaled[r] = sw;
         shift[r] = sh;
+    }
+
+    private static int padded(int sums) {
+        return (sums + TILE - 1) / TILE * TILE;
     }
 
     /** Number of outputs (C). */
@@ -226,18 +256,18 @@ public final class RegionTensorEvaluator {
         int[] vars = s.vars(r);
         int nv = s.variables().size();
         int bundles = p.options().inputs();
+        // the region's columns of the block, read once from the row-major data and then by every bundle
+        for (int j = 0; j < vars.length; j++) {
+            for (int row = 0, cell = row0 * nv + vars[j]; row < n; row++, cell += nv) {
+                columns[j * CHUNK_ROWS + row] = data[cell];
+            }
+        }
         for (int i = 0; i < bundles; i++) {
             int at = i * CHUNK_ROWS;
             Arrays.fill(dst, at, at + n, 0);
             for (int j = 0; j < vars.length; j++) {
-                Family f = p.family(vars[j]);
-                double[] params = p.inputParams(r, i, j);
-                for (int row = 0, cell = row0 * nv + vars[j]; row < n; row++, cell += nv) {
-                    double x = data[cell];
-                    if (!Double.isNaN(x)) {
-                        dst[at + row] += ReferenceDensities.logValue(f, params, x);
-                    }
-                }
+                ReferenceDensities.addLogValues(family[vars[j]], p.inputParams(r, i, j), columns, j * CHUNK_ROWS, 1, n,
+                        dst, at);
             }
         }
     }
@@ -281,7 +311,6 @@ public final class RegionTensorEvaluator {
         int c = layout.children(r);
         int k = layout.sums(r);
         double[] sw = scaled[r];
-        double[] sh = shift[r];
         Arrays.fill(vmax, 0, n, Double.NEGATIVE_INFINITY);
         for (int j = 0; j < c; j++) {
             int at = j * CHUNK_ROWS;
@@ -295,26 +324,80 @@ public final class RegionTensorEvaluator {
                 expChild[at + row] = Math.exp(child[at + row] - vmax[row]);
             }
         }
+        product(sw, c, padded(k), (n + TILE - 1) / TILE * TILE);
         for (int q = 0; q < k; q++) {
-            Arrays.fill(acc, 0, n, 0);
-            int wq = q * c;
-            for (int j = 0; j < c; j++) {
-                double w = sw[wq + j];
-                int at = j * CHUNK_ROWS;
-                for (int row = 0; row < n; row++) {
-                    acc[row] += w * expChild[at + row];
+            finish(r, q, n, c, t);
+        }
+    }
+
+    /**
+     * {@code dot[q * CHUNK_ROWS + row] = sum_j sw[j * kp + q] * expChild[j * CHUNK_ROWS + row]} for every
+     * q below kp and row below {@code rows} (both multiples of {@value #TILE}), in tiles of 4 sums by 4 rows
+     * held in registers; each (q, row) adds its products in child order.
+     */
+    private void product(double[] sw, int c, int kp, int rows) {
+        double[] e = expChild;
+        for (int q = 0; q < kp; q += TILE) {
+            for (int row = 0; row < rows; row += TILE) {
+                double a00 = 0, a01 = 0, a02 = 0, a03 = 0;
+                double a10 = 0, a11 = 0, a12 = 0, a13 = 0;
+                double a20 = 0, a21 = 0, a22 = 0, a23 = 0;
+                double a30 = 0, a31 = 0, a32 = 0, a33 = 0;
+                for (int j = 0, x = row, w = q; j < c; j++, x += CHUNK_ROWS, w += kp) {
+                    double x0 = e[x];
+                    double x1 = e[x + 1];
+                    double x2 = e[x + 2];
+                    double x3 = e[x + 3];
+                    double w0 = sw[w];
+                    double w1 = sw[w + 1];
+                    double w2 = sw[w + 2];
+                    double w3 = sw[w + 3];
+                    a00 += w0 * x0;
+                    a01 += w0 * x1;
+                    a02 += w0 * x2;
+                    a03 += w0 * x3;
+                    a10 += w1 * x0;
+                    a11 += w1 * x1;
+                    a12 += w1 * x2;
+                    a13 += w1 * x3;
+                    a20 += w2 * x0;
+                    a21 += w2 * x1;
+                    a22 += w2 * x2;
+                    a23 += w2 * x3;
+                    a30 += w3 * x0;
+                    a31 += w3 * x1;
+                    a32 += w3 * x2;
+                    a33 += w3 * x3;
                 }
+                int o = q * CHUNK_ROWS + row;
+                store(o, a00, a01, a02, a03);
+                store(o + CHUNK_ROWS, a10, a11, a12, a13);
+                store(o + 2 * CHUNK_ROWS, a20, a21, a22, a23);
+                store(o + 3 * CHUNK_ROWS, a30, a31, a32, a33);
             }
-            int out = q * CHUNK_ROWS;
-            for (int row = 0; row < n; row++) {
-                double m = vmax[row];
-                if (m == Double.NEGATIVE_INFINITY) {
-                    t[out + row] = m;
-                } else if (acc[row] >= SCALED_FLOOR && m < Double.POSITIVE_INFINITY && !Double.isNaN(sh[q])) {
-                    t[out + row] = m + sh[q] + Math.log(acc[row]);
-                } else {
-                    t[out + row] = exact(r, q, row, c);
-                }
+        }
+    }
+
+    private void store(int at, double v0, double v1, double v2, double v3) {
+        dot[at] = v0;
+        dot[at + 1] = v1;
+        dot[at + 2] = v2;
+        dot[at + 3] = v3;
+    }
+
+    /** Sum q of region r from its scaled sums in {@link #dot}, at each row, into {@code t}. */
+    private void finish(int r, int q, int n, int c, double[] t) {
+        double sh = shift[r][q];
+        int out = q * CHUNK_ROWS;
+        double[] a = dot;
+        for (int row = 0; row < n; row++) {
+            double m = vmax[row];
+            if (m == Double.NEGATIVE_INFINITY) {
+                t[out + row] = m;
+            } else if (a[out + row] >= SCALED_FLOOR && m < Double.POSITIVE_INFINITY && !Double.isNaN(sh)) {
+                t[out + row] = m + sh + Math.log(a[out + row]);
+            } else {
+                t[out + row] = exact(r, q, row, c);
             }
         }
     }
