@@ -145,7 +145,7 @@ public final class ReferenceDensities {
         double k1 = a - 1;
         double k2 = b - 1;
         double n = a / scale + b / scale - 2 / scale;
-        double dev = scale * (SaddlePoint.deviance(k1 / scale, n * x) + SaddlePoint.deviance(k2 / scale, n * (1 - x)));
+        double dev = scale * (SaddlePoint.devianceAt(k1 / scale, n, x) + SaddlePoint.devianceAt(k2 / scale, n, 1 - x));
         double logN = Math.log(n) + Math.log(scale);
         double lc = SaddlePoint.stirlingError(n * scale) - SaddlePoint.stirlingError(k1) - SaddlePoint.stirlingError(k2) - dev;
         double lf = SaddlePoint.LOG_2PI + Math.log(k1) + Math.log(k2) - logN;
@@ -192,7 +192,7 @@ public final class ReferenceDensities {
             return Double.NEGATIVE_INFINITY;
         }
         double lc = SaddlePoint.stirlingError(n) - SaddlePoint.stirlingError(x) - SaddlePoint.stirlingError(n - x)
-                - SaddlePoint.deviance(x, n * q) - SaddlePoint.deviance(n - x, n * (1 - q));
+                - SaddlePoint.devianceAt(x, n, q) - SaddlePoint.devianceAt(n - x, n, 1 - q);
         double lf = SaddlePoint.LOG_2PI + Math.log(x) + Math.log1p(-x / n);
         return lc - 0.5 * lf;
     }

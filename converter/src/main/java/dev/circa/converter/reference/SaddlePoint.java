@@ -33,13 +33,25 @@ final class SaddlePoint {
      * v = (x - m) / (x + m) when x and m are close, so that it keeps its digits; +inf when m = 0 &lt; x.
      */
     static double deviance(double x, double m) {
+        return deviance(x, m, x - m);
+    }
+
+    /**
+     * {@link #deviance} at m = n p, with x - n p from a fused multiply-add: near x = n p the deviance
+     * depends on that difference, which the rounded product would only give to within its last bit.
+     */
+    static double devianceAt(double x, double n, double p) {
+        double m = n * p;
+        return deviance(x, m, Double.isFinite(m) ? -Math.fma(n, p, -x) : x - m);
+    }
+
+    private static double deviance(double x, double m, double diff) {
         if (x == 0) {
             return m;
         }
         if (m == 0 || x == Double.POSITIVE_INFINITY || m == Double.POSITIVE_INFINITY) {
             return Double.POSITIVE_INFINITY;
         }
-        double diff = x - m;
         double sum = x + m;
         double v = sum < Double.POSITIVE_INFINITY ? diff / sum : (0.5 * x - 0.5 * m) / (0.5 * x + 0.5 * m);
         if (Math.abs(v) < 0.1) {
@@ -59,7 +71,7 @@ final class SaddlePoint {
         double ratio = x / m;
         double logRatio = ratio >= Double.MIN_NORMAL && ratio < Double.POSITIVE_INFINITY
                 ? Math.log(ratio) : Math.log(x) - Math.log(m);
-        return x * logRatio + m - x;
+        return x * logRatio - diff;
     }
 
     /** log(y^k e^-y / Gamma(k + 1)) for real k &gt;= 0 and y &gt; 0: the Poisson mass with a real count. */
