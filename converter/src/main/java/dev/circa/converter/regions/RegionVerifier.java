@@ -13,7 +13,9 @@ import java.util.Locale;
  * 1/2; values outside an input's support must give -inf on both sides), and the point with every
  * variable missing: 3N + 1 rows. A point passes when
  * |circuit - direct| {@literal <=} atol + rtol * |direct| for every output; -inf matches only -inf.
- * Stateless.
+ * Both sides take all rows in one batch on every processor: the engine through a {@link BatchRunner}
+ * (its dense-block fast path), the direct evaluation in blocks of rows on as many threads; neither
+ * side's values depend on the thread count. Stateless.
  */
 public final class RegionVerifier {
     /** A circuit evaluation: {@code out[row * outputs + o]} = log value of output o at row (NaN = missing). */
