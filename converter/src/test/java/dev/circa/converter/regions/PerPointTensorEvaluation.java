@@ -20,7 +20,6 @@ final class PerPointTensorEvaluation {
     private double[] expChild = new double[0];
     private double[][] tensor;
     private int capacity;
-    private int[] digit = new int[2];
 
     PerPointTensorEvaluation(RegionParameters params) {
         this.p = params;
@@ -193,26 +192,24 @@ final class PerPointTensorEvaluation {
         for (int part : s.partitionsOf(r)) {
             int[] parts = s.parts(part);
             int m = parts.length;
-            if (digit.length < m) {
-                digit = new int[m];
+            int[] digit = new int[m];
+            long combos = 1;
+            for (int q : parts) {
+                combos *= layout.size(q);
             }
-            java.util.Arrays.fill(digit, 0, m, 0);
-            boolean more = true;
-            while (more) {
+            // product number i in mixed radix, the last part's digit varying fastest
+            for (long i = 0; i < combos; i++) {
+                long rest = i;
+                for (int t = m - 1; t >= 0; t--) {
+                    digit[t] = (int) (rest % layout.size(parts[t]));
+                    rest /= layout.size(parts[t]);
+                }
                 double v = 0;
                 for (int t = 0; t < m; t++) {
                     int q = parts[t];
                     v += tensor[q][row * layout.size(q) + digit[t]];
                 }
                 child[c++] = v;
-                more = false;
-                for (int t = m - 1; t >= 0; t--) {
-                    if (++digit[t] < layout.size(parts[t])) {
-                        more = true;
-                        break;
-                    }
-                    digit[t] = 0;
-                }
             }
         }
     }
