@@ -9,7 +9,8 @@ import java.util.Arrays;
  * Evaluates a compiled region graph directly from its parameters, region by region, without
  * building or reading a circuit. Written separately from the engine to check it.
  *
- * <p>Rows are taken in blocks of {@value #CHUNK_ROWS}. Each region holds a block of log-values laid out
+ * <p>Rows are taken in blocks of {@value #CHUNK_ROWS}. Each region holds a block of log-values (in a slot
+ * reused once the regions that read it are done, so memory stays small for any number of regions) laid out
  * node by node, the block's rows side by side ({@code [node * CHUNK_ROWS + row]}), filled children first:
  * a leaf's bundles are sums of its inputs' log-densities (a missing value counts 0); a partition's
  * products are sums of its parts' log-values over the cross product (first part varying slowest); a sum
@@ -44,7 +45,11 @@ public final class RegionTensorEvaluator {
     private final double[][] scaled;
     /** Per region with sums: log of the largest weight of each sum (NaN when a weight is not usable as scaled). */
     private final double[][] shift;
-    /** Per region: its block of log-values ({@code size(r) x CHUNK_ROWS}). */
+    /** Per region: the slot that holds its block of log-values while a later region reads it. */
+    private final int[] slot;
+    /** Per slot: the number of nodes of the regions it serves. */
+    private final int[] slotSize;
+    /** Per slot: a block of {@code slotSize x CHUNK_ROWS} log-values, allocated on first use. */
     private final double[][] block;
     private final double[] child;
     private final double[] expChild;
@@ -78,7 +83,9 @@ public final class RegionTensorEvaluator {
         for (int r = 0; r < nr; r++) {
             maxChildren = Math.max(maxChildren, layout.children(r));
         }
-        this.block = new double[nr][];
+        this.slot = new int[nr];
+        this.slotSize = assignSlots(s, layout, slot);
+        this.block = new double[slotSize.length][];
         this.child = new double[maxChildren * CHUNK_ROWS];
         this.expChild = new double[maxChildren * CHUNK_ROWS];
         this.vmax = new double[CHUNK_ROWS];
@@ -103,13 +110,64 @@ public final class RegionTensorEvaluator {
         this.family = shared.family;
         this.scaled = shared.scaled;
         this.shift = shared.shift;
-        this.block = new double[s.regionCount()][];
+        this.slot = shared.slot;
+        this.slotSize = shared.slotSize;
+        this.block = new double[slotSize.length][];
         this.child = new double[shared.child.length];
         this.expChild = new double[shared.expChild.length];
         this.vmax = new double[CHUNK_ROWS];
         this.dot = new double[shared.dot.length];
         this.column = new double[shared.column.length];
         this.columns = new double[shared.columns.length];
+    }
+
+    /**
+     * Gives each region a slot, reused once every region that reads it is done (regions in
+     * {@link RegionStructure#order()}), so that the blocks held at once are few whatever the number of
+     * regions; returns each slot's size in nodes.
+     */
+    private static int[] assignSlots(RegionStructure s, Layout layout, int[] slot) {
+        int nr = s.regionCount();
+        int[] order = s.order();
+        int[] position = new int[nr];
+        for (int i = 0; i < nr; i++) {
+            position[order[i]] = i;
+        }
+        int[] lastUse = new int[nr];
+        Arrays.fill(lastUse, -1);
+        for (int part = 0; part < s.partitionCount(); part++) {
+            int reader = position[s.partitionRegion(part)];
+            for (int q : s.parts(part)) {
+                lastUse[q] = Math.max(lastUse[q], reader);
+            }
+        }
+        // regions whose last reader is at position i, as linked lists
+        int[] first = new int[nr];
+        int[] next = new int[nr];
+        Arrays.fill(first, -1);
+        for (int r = 0; r < nr; r++) {
+            if (lastUse[r] >= 0) {
+                next[r] = first[lastUse[r]];
+                first[lastUse[r]] = r;
+            }
+        }
+        java.util.Map<Integer, java.util.ArrayDeque<Integer>> free = new java.util.HashMap<>();
+        int[] sizes = new int[Math.max(1, nr)];
+        int slots = 0;
+        for (int i = 0; i < nr; i++) {
+            int r = order[i];
+            java.util.ArrayDeque<Integer> same = free.get(layout.size(r));
+            if (same != null && !same.isEmpty()) {
+                slot[r] = same.pop();
+            } else {
+                sizes[slots] = layout.size(r);
+                slot[r] = slots++;
+            }
+            for (int q = first[i]; q >= 0; q = next[q]) {
+                free.computeIfAbsent(layout.size(q), k -> new java.util.ArrayDeque<>()).push(slot[q]);
+            }
+        }
+        return Arrays.copyOf(sizes, slots);
     }
 
     /** Another evaluator of the same model that shares this one's scaled weights, for another thread. */
@@ -226,10 +284,10 @@ public final class RegionTensorEvaluator {
 
     private void evaluateBlock(double[] data, int row0, int n, double[] out) {
         for (int r : order) {
-            double[] t = block[r];
+            double[] t = block[slot[r]];
             if (t == null) {
-                t = new double[layout.size(r) * CHUNK_ROWS];
-                block[r] = t;
+                t = new double[slotSize[slot[r]] * CHUNK_ROWS];
+                block[slot[r]] = t;
             }
             if (s.isLeaf(r)) {
                 // a leaf below the root offers its bundles; the root leaf sums over them
@@ -243,7 +301,7 @@ public final class RegionTensorEvaluator {
             sums(r, n, t);
         }
         int co = outputCount();
-        double[] root = block[s.root()];
+        double[] root = block[slot[s.root()]];
         for (int row = 0; row < n; row++) {
             for (int o = 0; o < co; o++) {
                 out[(row0 + row) * co + o] = root[o * CHUNK_ROWS + row];
@@ -285,9 +343,9 @@ public final class RegionTensorEvaluator {
             boolean more = true;
             while (more) {
                 int at = c * CHUNK_ROWS;
-                System.arraycopy(block[parts[0]], digit[0] * CHUNK_ROWS, child, at, n);
+                System.arraycopy(block[slot[parts[0]]], digit[0] * CHUNK_ROWS, child, at, n);
                 for (int t = 1; t < m; t++) {
-                    double[] src = block[parts[t]];
+                    double[] src = block[slot[parts[t]]];
                     int from = digit[t] * CHUNK_ROWS;
                     for (int row = 0; row < n; row++) {
                         child[at + row] += src[from + row];
