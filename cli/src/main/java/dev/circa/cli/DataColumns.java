@@ -1,5 +1,6 @@
 package dev.circa.cli;
 
+import dev.circa.format.Counts;
 import dev.circa.format.Variable;
 import dev.circa.format.VariableType;
 import dev.circa.format.csv.CellValues;
@@ -98,7 +99,7 @@ final class DataColumns {
             }
             if (rec.size() != header.length) {
                 throw csv.error(Math.min(rec.size(), header.length) - 1 < 0 ? 0 : Math.min(rec.size(), header.length) - 1,
-                        "row has " + rec.size() + " fields; expected " + header.length + " as in the header");
+                        "row has " + Counts.of(rec.size(), "field") + "; expected " + header.length + " as in the header");
             }
             Arrays.fill(data, r * nv, r * nv + nv, Double.NaN);
             String[] row = cells[r];

@@ -1,5 +1,6 @@
 package dev.circa.spark;
 
+import dev.circa.format.Counts;
 import dev.circa.model.Model;
 import dev.circa.model.ModelException;
 import dev.circa.validator.Diagnostic;
@@ -80,8 +81,8 @@ public final class SparkModel implements Serializable {
             for (Diagnostic d : e.diagnostics().subList(0, Math.min(20, e.diagnostics().size()))) {
                 err.println(path + ": " + d.render());
             }
-            throw new FormatException(path.toString(), 0, 0, null, "cannot be used: " + e.diagnostics().size()
-                    + " error(s) found by the validator (listed above; a circuit must at least be smooth and "
+            throw new FormatException(path.toString(), 0, 0, null, "cannot be used: " + Counts.of(e.diagnostics().size(), "error")
+                    + " found by the validator (listed above; a circuit must at least be smooth and "
                     + "decomposable, with valid references and parameters; run circa validate for the full report)");
         }
         try {

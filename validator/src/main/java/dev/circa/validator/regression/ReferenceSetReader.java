@@ -1,5 +1,6 @@
 package dev.circa.validator.regression;
 
+import dev.circa.format.Counts;
 import dev.circa.format.Variable;
 import dev.circa.format.VariableType;
 import dev.circa.format.csv.CellValues;
@@ -161,7 +162,7 @@ public final class ReferenceSetReader implements AutoCloseable {
             }
             if (rec.size() != width) {
                 throw csv.error(Math.max(0, Math.min(rec.size(), width) - 1),
-                        "row " + (rows + 1) + " has " + rec.size() + " fields; expected " + width + " as in the header");
+                        "row " + (rows + 1) + " has " + Counts.of(rec.size(), "field") + "; expected " + width + " as in the header");
             }
             Arrays.fill(data, r * nv, r * nv + nv, Double.NaN);
             output[r] = 0;
