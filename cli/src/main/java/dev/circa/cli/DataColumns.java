@@ -44,7 +44,8 @@ final class DataColumns {
         int[] map = new int[header.length];
         boolean[] seen = new boolean[variables.size()];
         for (int c = 0; c < header.length; c++) {
-            Integer v = byName.get(header[c].strip());
+            // names exactly as written (quoted or not): " a" and "a" may be two variables
+            Integer v = byName.get(header[c]);
             if (v == null) {
                 throw csv.error(c, "unknown column \"" + header[c] + "\"; expected variable names of the circuit ("
                         + String.join(", ", variables.stream().map(Variable::name).toList()) + ")");
@@ -67,11 +68,16 @@ final class DataColumns {
         return variableOfColumn[c];
     }
 
-    /** The column index of variable named {@code name}, or -1. */
+    /**
+     * The column headed exactly {@code name}, else the one headed {@code name} without surrounding white
+     * space (as a comma-separated option gives it: {@code --given "a, b"}), or -1.
+     */
     int columnOf(String name) {
-        for (int c = 0; c < header.length; c++) {
-            if (header[c].strip().equals(name)) {
-                return c;
+        for (String n : new String[] {name, name.strip()}) {
+            for (int c = 0; c < header.length; c++) {
+                if (header[c].equals(n)) {
+                    return c;
+                }
             }
         }
         return -1;

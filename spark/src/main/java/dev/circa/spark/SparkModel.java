@@ -118,6 +118,16 @@ public final class SparkModel implements Serializable {
         return COMPILED.computeIfAbsent(key, k -> compile());
     }
 
+    /** The names of the compiled circuit's outputs, in order (as a reference set's reader takes them). */
+    java.util.List<String> outputNames() {
+        CompiledCircuit c = compiled();
+        java.util.List<String> names = new java.util.ArrayList<>();
+        for (int o = 0; o < c.outputCount(); o++) {
+            names.add(c.outputName(o));
+        }
+        return names;
+    }
+
     private CompiledCircuit compile() {
         try (InputStream in = open()) {
             return CompiledCircuit.compile(new dev.circa.format.io.CircuitReader(limits()).read(in, file));

@@ -83,10 +83,11 @@ public final class ReferenceSetReader implements AutoCloseable {
         int density = -1;
         int output = -1;
         for (int c = 0; c < width; c++) {
-            String name = header.get(c).strip();
+            // names exactly as written (quoted or not): " a" and "a" may be two variables
+            String name = header.get(c);
             if (c == 0 && name.startsWith("\uFEFF")) {
                 // a byte-order mark, as spreadsheet programs write at the start of UTF-8 CSV files
-                name = name.substring(1).strip();
+                name = name.substring(1);
             }
             if (name.equals(LOG_DENSITY) || name.equals(OUTPUT)) {
                 if ((name.equals(LOG_DENSITY) ? density : output) >= 0) {
@@ -206,6 +207,11 @@ public final class ReferenceSetReader implements AutoCloseable {
     }
 
     private int outputOf(String cell, int c) throws FormatException {
+        // an output's name exactly as written first, as a label: " a" and "a" may be two outputs
+        Integer exact = outputByName.get(cell);
+        if (exact != null) {
+            return exact;
+        }
         String s = cell.strip();
         if (s.isEmpty()) {
             return 0;
