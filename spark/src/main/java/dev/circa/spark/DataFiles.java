@@ -1,5 +1,7 @@
 package dev.circa.spark;
 
+import dev.circa.format.io.FormatException;
+
 import dev.circa.format.io.InputFiles;
 import dev.circa.format.io.TextDecoding;
 import java.io.FileNotFoundException;
@@ -45,7 +47,8 @@ public final class DataFiles {
      * with or without a byte-order mark, detected from its first bytes as circa's own readers do (a
      * folder: from its first part file); the mark is not part of the first column's name.
      */
-    public static Dataset<Row> read(SparkSession spark, String path) {
+    public static Dataset<Row> read(SparkSession spark, String path) throws FormatException {
+        requireExists(spark, path);
         if (path.endsWith(".parquet")) {
             return spark.read().parquet(path);
         }
@@ -57,6 +60,26 @@ public final class DataFiles {
                 .option("multiLine", Boolean.toString(multiLine)).csv(path);
         String first = rows.columns().length > 0 ? rows.columns()[0] : "";
         return first.startsWith("\uFEFF") ? rows.withColumnRenamed(first, first.substring(1)) : rows;
+    }
+
+    /**
+     * Refuses a path (no wildcard in it) that names nothing, before Spark is asked to read it: Spark's
+     * own answer is a logged stack trace and a message in its words.
+     */
+    static void requireExists(SparkSession spark, String path) throws FormatException {
+        if (path.chars().anyMatch(ch -> "*?[{".indexOf(ch) >= 0)) {
+            return;
+        }
+        Path p = new Path(path);
+        boolean exists;
+        try {
+            exists = p.getFileSystem(spark.sparkContext().hadoopConfiguration()).exists(p);
+        } catch (IOException e) {
+            throw new FormatException(path, 0, 0, null, "cannot be read (" + e.getMessage() + ")");
+        }
+        if (!exists) {
+            throw new FormatException(path, 0, 0, null, "no such file or folder");
+        }
     }
 
     /** The text encoding of {@code path}'s first bytes (of its first part file for a folder); UTF-8 for gzip. */

@@ -50,6 +50,7 @@ public final class DistributedCheck {
 
     /** Checks every row of the reference set {@code file}. */
     public void checkReference(String file) throws FormatException {
+        DataFiles.requireExists(spark, file);
         List<PartialReport> parts = file.endsWith(".parquet") ? parquet(file) : csv(file);
         List<CheckReport> reports = new ArrayList<>();
         for (PartialReport p : parts) {

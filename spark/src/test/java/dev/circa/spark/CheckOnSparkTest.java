@@ -1,6 +1,7 @@
 package dev.circa.spark;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.IOException;
@@ -127,5 +128,20 @@ class CheckOnSparkTest {
         LocalSpark.Run spread = LocalSpark.circaSpark("check", LocalSpark.REGIMES.toString(), "--reference", bad.toString());
         assertEquals(2, spread.status());
         assertEquals(single.err().replace("circa:", "circa-spark:"), spread.err());
+    }
+
+    @Test
+    void missingInputs_oneMessageInOurWordsBeforeWork() {
+        // what circa's own commands say of a path that names nothing (IoMessages), status 2 (CLI contract)
+        String none = dir.resolve("no-such-reference.csv").toString();
+        LocalSpark.Run check = LocalSpark.circaSpark("check", LocalSpark.REGIMES.toString(), "--reference", none);
+        assertEquals(2, check.status());
+        assertEquals("circa-spark: " + none + ": no such file or folder\n", check.err());
+        String data = dir.resolve("no-such-data.parquet").toString();
+        LocalSpark.Run score = LocalSpark.circaSpark("score", LocalSpark.REGIMES.toString(), "--data", data, "-o",
+                dir.resolve("never-written").toString());
+        assertEquals(2, score.status());
+        assertEquals("circa-spark: " + data + ": no such file or folder\n", score.err());
+        assertFalse(java.nio.file.Files.exists(dir.resolve("never-written")));
     }
 }
