@@ -279,15 +279,17 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             f.reset();
             String m;
             while ((m = in.nextProperty()) != null) {
-                String q = p + "/" + m;
+                // a member's pointer (p + "/" + m) is built only where it is needed, for a message or a finding
                 switch (m) {
-                    case "id" -> f.id = in.readInt(q, 0, Integer.MAX_VALUE);
-                    case "label" -> f.label = in.readString(q);
+                    case "id" -> f.id = intMember(p, m);
+                    case "label" -> f.label = in.readString(p + "/" + m);
                     case "input" -> {
                         f.kinds++;
-                        String fam = in.readString(q);
-                        f.family = Family.fromJsonName(fam);
+                        String written = in.stringOrNull();
+                        f.family = written == null ? null : Family.fromJsonName(written);
                         if (f.family == null) {
+                            String q = p + "/" + m;
+                            String fam = in.readString(q);
                             throw in.error(q, "unknown input family \"" + fam + "\"; expected one of "
                                     + familyNames());
                         }
@@ -295,28 +297,29 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                     case "product" -> {
                         f.kinds++;
                         f.isProduct = true;
-                        f.children = readIds(q);
+                        f.children = readIds(p, m);
                     }
                     case "sum" -> {
                         f.kinds++;
                         f.isSum = true;
-                        f.children = readIds(q);
+                        f.children = readIds(p, m);
                     }
                     case "weights" -> {
                         f.weightForms++;
-                        f.weights = in.readDoubleArray(q);
+                        f.weights = in.readDoubleArray(p, m);
                     }
                     case "logWeights" -> {
                         f.weightForms++;
-                        f.weights = in.readDoubleArray(q);
+                        f.weights = in.readDoubleArray(p, m);
                         f.logWeights = true;
                     }
-                    case "var" -> f.vars = new int[] {in.readInt(q, 0, Integer.MAX_VALUE)};
+                    case "var" -> f.vars = new int[] {intMember(p, m)};
                     case "vars" -> {
                         f.varsArray = true;
-                        f.vars = in.readIntArray(q, 0, Integer.MAX_VALUE);
+                        f.vars = in.readIntArray(p + "/" + m, 0, Integer.MAX_VALUE);
                     }
                     default -> {
+                        String q = p + "/" + m;
                         if (ParamNames.isParameter(m)) {
                             f.paramLocations.put(m, new int[] {in.line(), in.column()});
                             f.params.put(m, readParamValue(q));
@@ -330,14 +333,21 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             return f.build(p, line, col, this);
         }
 
-        private int[] readIds(String q) throws FormatException {
-            in.expect(JsonToken.START_ARRAY, q, "an array of node ids");
+        /** A non-negative int member {@code m} of the node at {@code p}. */
+        private int intMember(String p, String m) throws FormatException {
+            return in.readIntAt(p, m, 0, Integer.MAX_VALUE);
+        }
+
+        private int[] readIds(String p, String m) throws FormatException {
+            if (in.token() != JsonToken.START_ARRAY) {
+                in.expect(JsonToken.START_ARRAY, p + "/" + m, "an array of node ids");
+            }
             int n = 0;
             while (in.nextElement()) {
                 if (n == intBuffer.length) {
                     intBuffer = Arrays.copyOf(intBuffer, n * 2);
                 }
-                intBuffer[n] = in.readInt(q + "/" + n, 0, Integer.MAX_VALUE);
+                intBuffer[n] = in.readIntAt(p, m, n, 0, Integer.MAX_VALUE);
                 n++;
             }
             return Arrays.copyOf(intBuffer, n);

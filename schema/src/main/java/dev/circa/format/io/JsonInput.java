@@ -287,6 +287,82 @@ public final class JsonInput implements AutoCloseable {
         return (int) readLong(pointer, min, max);
     }
 
+    /** The current number token's value (checked by the caller). */
+    private double numberValue() throws FormatException {
+        try {
+            return parser.getDoubleValue();
+        } catch (JacksonException e) {
+            throw fail(e);
+        }
+    }
+
+    /** Whether the current token is an int in [{@code min}, {@code max}] as written (no conversion needed). */
+    private boolean intIn(int min, int max) throws FormatException {
+        if (token() != JsonToken.VALUE_NUMBER_INT) {
+            return false;
+        }
+        try {
+            if (parser.getNumberType() != JsonParser.NumberType.INT) {
+                return false;
+            }
+            int v = parser.getIntValue();
+            return v >= min && v <= max;
+        } catch (JacksonException e) {
+            throw fail(e);
+        }
+    }
+
+    /**
+     * As {@link #readInt(String, int, int)} for element {@code index} of the array at {@code base}, with
+     * the pointer built only for a message (a large array costs no string per element).
+     */
+    public int readIntAt(String base, int index, int min, int max) throws FormatException {
+        return intIn(min, max) ? parser.getIntValue() : readInt(base + "/" + index, min, max);
+    }
+
+    /** As {@link #readInt(String, int, int)} for member {@code member} of {@code parent}, the pointer built only for a message. */
+    public int readIntAt(String parent, String member, int min, int max) throws FormatException {
+        return intIn(min, max) ? parser.getIntValue() : readInt(parent + "/" + member, min, max);
+    }
+
+    /** As {@link #readIntAt(String, int, int, int)} for element {@code index} of member {@code member} of {@code parent}. */
+    public int readIntAt(String parent, String member, int index, int min, int max) throws FormatException {
+        return intIn(min, max) ? parser.getIntValue() : readInt(parent + "/" + member + "/" + index, min, max);
+    }
+
+    /** The current token's text when it is a string, else {@code null}; not checked for lone surrogates. */
+    public String stringOrNull() throws FormatException {
+        if (token() != JsonToken.VALUE_STRING) {
+            return null;
+        }
+        try {
+            return parser.getString();
+        } catch (JacksonException e) {
+            throw fail(e);
+        }
+    }
+
+    /**
+     * Reads the array of finite numbers at member {@code member} of {@code parent} (the current token
+     * must start it); as {@link #readDoubleArray(String)} with the pointer built only for a message.
+     */
+    public double[] readDoubleArray(String parent, String member) throws FormatException {
+        if (token() != JsonToken.START_ARRAY) {
+            return readDoubleArray(parent + "/" + member);
+        }
+        double[] buf = new double[8];
+        int n = 0;
+        while (nextElement()) {
+            if (n == buf.length) {
+                buf = Arrays.copyOf(buf, n * 2);
+            }
+            double v = isNumber() ? numberValue() : Double.NaN;
+            buf[n] = Double.isFinite(v) ? v : readDouble(parent + "/" + member + "/" + n);
+            n++;
+        }
+        return Arrays.copyOf(buf, n);
+    }
+
     /** Reads an array of finite numbers (the current token must start it). */
     public double[] readDoubleArray(String pointer) throws FormatException {
         expect(JsonToken.START_ARRAY, pointer, "an array of numbers");
@@ -296,7 +372,8 @@ public final class JsonInput implements AutoCloseable {
             if (n == buf.length) {
                 buf = Arrays.copyOf(buf, n * 2);
             }
-            buf[n] = readDouble(pointer + "/" + n);
+            double v = isNumber() ? numberValue() : Double.NaN;
+            buf[n] = Double.isFinite(v) ? v : readDouble(pointer + "/" + n);
             n++;
         }
         return Arrays.copyOf(buf, n);
@@ -311,7 +388,7 @@ public final class JsonInput implements AutoCloseable {
             if (n == buf.length) {
                 buf = Arrays.copyOf(buf, n * 2);
             }
-            buf[n] = readInt(pointer + "/" + n, min, max);
+            buf[n] = readIntAt(pointer, n, min, max);
             n++;
         }
         return Arrays.copyOf(buf, n);
