@@ -330,6 +330,15 @@ public final class JsonInput implements AutoCloseable {
         return intIn(min, max) ? parser.getIntValue() : readInt(parent + "/" + member + "/" + index, min, max);
     }
 
+    /** The current token's value when it is a finite number, else NaN (the caller then reads it for the message). */
+    public double finiteOrNaN() throws FormatException {
+        if (!isNumber()) {
+            return Double.NaN;
+        }
+        double v = numberValue();
+        return Double.isFinite(v) ? v : Double.NaN;
+    }
+
     /** The current token's text when it is a string, else {@code null}; not checked for lone surrogates. */
     public String stringOrNull() throws FormatException {
         if (token() != JsonToken.VALUE_STRING) {

@@ -1,6 +1,8 @@
 package dev.circa.validator.rules;
 
 import dev.circa.format.CircuitDocument;
+import dev.circa.format.Node;
+import dev.circa.format.NodeTable;
 import dev.circa.format.SourceLocation;
 import dev.circa.validator.Diagnostic;
 import dev.circa.validator.Property;
@@ -83,7 +85,7 @@ public final class RuleContext {
             String num = end < 0 ? pointer.substring(7) : pointer.substring(7, end);
             try {
                 int i = Integer.parseInt(num);
-                if (i >= 0 && i < doc.nodes().size()) {
+                if (i >= 0 && i < doc.nodeTable().size()) {
                     SourceLocation l = doc.nodeLocation(i);
                     return new SourceLocation(pointer, l.line(), l.column());
                 }
@@ -100,6 +102,15 @@ public final class RuleContext {
             p = p.substring(0, Math.max(0, p.lastIndexOf('/')));
         }
         return SourceLocation.of(pointer);
+    }
+
+    /**
+     * Node {@code i} as a record when it is an input (an {@link dev.circa.format.InputNode}), else {@code null}:
+     * products and sums are read from the table without a record.
+     */
+    public Node input(int i) {
+        NodeTable t = doc.nodeTable();
+        return t.kind(i) == NodeTable.INPUT ? t.node(i) : null;
     }
 
     /** The resolved references. */
@@ -239,13 +250,13 @@ public final class RuleContext {
     public void atNode(Rule rule, Severity s, int index, String member, String message) {
         SourceLocation l = doc.nodeLocation(index);
         String ptr = member == null ? l.pointer() : l.pointer() + "/" + member;
-        emit(rule, new Diagnostic(rule.id(), s, message, ptr, doc.nodes().get(index).id(), l.line(), l.column()));
+        emit(rule, new Diagnostic(rule.id(), s, message, ptr, doc.nodeTable().id(index), l.line(), l.column()));
     }
 
     /** Reports on the member at {@code pointer} (not a node). */
     public void at(Rule rule, Severity s, String pointer, String message) {
         SourceLocation l = doc.location(pointer);
-        if (pointer.isEmpty() && !doc.nodes().isEmpty() && doc.nodeLocation(0).hasLineColumn()) {
+        if (pointer.isEmpty() && doc.nodeTable().size() > 0 && doc.nodeLocation(0).hasLineColumn()) {
             // the document itself starts at the top of the text
             l = new SourceLocation("", 1, 1);
         }
@@ -336,6 +347,6 @@ public final class RuleContext {
 
     /** Short text naming node index {@code i} by its id, e.g. {@code node 7}. */
     public String name(int i) {
-        return "node " + doc.nodes().get(i).id();
+        return "node " + doc.nodeTable().id(i);
     }
 }
