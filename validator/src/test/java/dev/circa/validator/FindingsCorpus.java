@@ -28,7 +28,8 @@ import java.util.stream.Stream;
  * child, a duplicate id, an out-of-range parameter or variable, a missing output, a shared variable
  * in a product). {@code validator/src/test/resources/dev/circa/validator/findings-golden.txt} holds
  * this account as written by the validator before the circuit's nodes moved into flat columns
- * (commit f4e4ced, by {@link #main}); {@code FindingsGoldenTest} requires the same account today.
+ * (commit f4e4ced, by {@link #main}), each
+ * validated from a file as {@code circa validate --schema-check always} does; {@code FindingsGoldenTest} requires the same account today.
  * Uses only API that both versions have.
  */
 final class FindingsCorpus {
@@ -40,13 +41,15 @@ final class FindingsCorpus {
 
     /** Writes the account of the corpus under the fixtures directory {@code args[0]} to {@code args[1]}. */
     public static void main(String[] args) throws IOException {
-        Files.writeString(Path.of(args[1]), account(Path.of(args[0])), StandardCharsets.UTF_8);
+        Files.writeString(Path.of(args[1]), account(Path.of(args[0]), Files.createTempDirectory("findings")),
+                StandardCharsets.UTF_8);
     }
 
-    /** The account of the whole corpus. */
-    static String account(Path fixtures) throws IOException {
+    /** The account of the whole corpus, each document validated from a file in {@code scratch}. */
+    static String account(Path fixtures, Path scratch) throws IOException {
         Validator v = new Validator(ValidationOptions.defaults(), SchemaCheck.BUNDLED);
         StringBuilder out = new StringBuilder();
+        FindingsCorpus.scratch = scratch;
         List<Path> files;
         try (Stream<Path> s = Files.walk(fixtures)) {
             files = s.filter(p -> p.toString().endsWith(".json")).sorted().toList();
@@ -75,13 +78,17 @@ final class FindingsCorpus {
         return out.toString();
     }
 
-    private static void describe(Validator v, String name, String text, StringBuilder out) {
+    private static Path scratch;
+
+    private static void describe(Validator v, String name, String text, StringBuilder out) throws IOException {
         out.append("== ").append(name).append('\n');
+        Path file = scratch.resolve("circuit.json");
+        Files.writeString(file, text, StandardCharsets.UTF_8);
         ValidationReport r;
         try {
-            r = v.validate(text, name);
+            r = v.validate(file);
         } catch (FormatException e) {
-            out.append("unreadable: ").append(e.getMessage()).append('\n');
+            out.append("unreadable: ").append(e.getMessage().replace(file.toString(), "circuit.json")).append('\n');
             return;
         }
         out.append("valid ").append(r.valid()).append(' ').append(r.stats()).append('\n');

@@ -113,6 +113,19 @@ public final class RuleContext {
         return t.kind(i) == NodeTable.INPUT ? t.node(i) : null;
     }
 
+    /**
+     * Computes the shared analyses now (what the rules would compute on first use, with the same
+     * results), so that they can run while something else, such as the schema check, finishes.
+     */
+    public void prepare() {
+        graph();
+        parameters();
+        scopes();
+        logPartition();
+        determinism();
+        tree();
+    }
+
     /** The resolved references. */
     public Graph graph() {
         if (graph == null) {
