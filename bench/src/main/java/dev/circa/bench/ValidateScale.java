@@ -70,14 +70,15 @@ public final class ValidateScale {
         int reps = Integer.getInteger("reps", 2);
         Path tiny = dir.resolve("tiny.json");
         generate(tiny, 2);
-        double[] base = new double[STEPS.length];
+        double[][] base = new double[STEPS.length][];
         for (int s = 0; s < STEPS.length; s++) {
-            base[s] = best(STEPS[s], tiny, xmx, reps + 1)[0];
+            base[s] = best(STEPS[s], tiny, xmx, reps + 1);
         }
-        System.out.printf(Locale.ROOT, "validation beside a bare streaming parse, one JVM per step under -Xmx%s, start-up taken out%n", xmx);
-        System.out.printf(Locale.ROOT, "%11s %8s %8s %8s %10s %10s %10s %8s %8s %9s %9s %9s %s%n", "edges", "file MB",
-                "parse s", "+num s", "validate s", "+schema s", "val/parse", "val/+num", "schema/v",
-                "heap MiB", "RSS MiB", "512m ok", "outcome");
+        System.out.printf(Locale.ROOT, "validation beside a bare streaming parse, one JVM per step under -Xmx%s,"
+                + " JVM start-up taken out (the same step on a 300-edge circuit subtracted); wall clock and CPU time%n", xmx);
+        System.out.printf(Locale.ROOT, "%10s %6s | %7s %7s %8s %8s | %9s %8s %8s | %9s %8s %8s | %5s %5s %5s %4s %s%n",
+                "edges", "MB", "parse s", "+num s", "valid s", "+schem s", "val/parse", "val/+num", "schema/v",
+                "cpu v/par", "v/+num", "schema/v", "live", "heap", "RSS", "512m", "outcome");
         for (long target : targets) {
             int n = (int) Math.max(2, target / (K * K * K + 2 * K * K) + 1);
             Path file = dir.resolve("circuit-" + target + ".json");
@@ -88,29 +89,37 @@ public final class ValidateScale {
                 r[s] = best(STEPS[s], file, xmx, reps);
                 outcome[s] = lastOutcome;
             }
-            double parse = r[0][0] - base[0];
-            double num = r[1][0] - base[1];
-            double validate = r[2][0] - base[2];
-            double schema = r[3][0] - base[3];
+            double[] wall = new double[STEPS.length];
+            double[] cpu = new double[STEPS.length];
+            for (int s = 0; s < STEPS.length; s++) {
+                wall[s] = r[s][0] - base[s][0];
+                cpu[s] = r[s][1] - base[s][1];
+            }
             boolean ok = outcome[2].equals("valid");
-            System.out.printf(Locale.ROOT, "%11d %8.1f %8.3f %8.3f %10.3f %10.3f %10.2f %8.2f %9.2f %9.0f %9.0f %9s %s%n",
-                    size[1], Files.size(file) / 1e6, parse, num, validate, schema, validate / parse, validate / num,
-                    (schema - validate) / validate, r[2][1], r[2][2], ok ? "yes" : "NO", outcome[2]
-                            + (outcome[3].equals(outcome[2]) ? "" : " (+schema: " + outcome[3] + ")"));
+            System.out.printf(Locale.ROOT,
+                    "%10d %6.1f | %7.3f %7.3f %8.3f %8.3f | %9.2f %8.2f %8.2f | %9.2f %8.2f %8.2f | %5.0f %5.0f %5.0f %4s %s%n",
+                    size[1], Files.size(file) / 1e6, wall[0], wall[1], wall[2], wall[3], wall[2] / wall[0],
+                    wall[2] / wall[1], (wall[3] - wall[2]) / wall[2], cpu[2] / cpu[0], cpu[2] / cpu[1],
+                    (cpu[3] - cpu[2]) / cpu[2], r[2][3], r[2][2], r[2][4], ok ? "yes" : "NO",
+                    outcome[2] + (outcome[3].equals(outcome[2]) ? "" : " (+schema: " + outcome[3] + ")"));
+            best("phases", file, xmx, 1);
+            System.out.println("           phases of validate in one JVM (s): " + lastOutcome);
             if (!Boolean.getBoolean("keep")) {
                 Files.delete(file);
             }
         }
         Files.delete(tiny);
-        System.out.println("(seconds: wall clock of the step's JVM minus the same step on a 300-edge circuit; parse: bare token walk;"
-                + " +num: the same decoding every number; validate: read + every rule (--schema-check never);"
-                + " +schema: with the bundled schema check; schema/v: the schema check's extra time over validate;"
-                + " heap: peak of the validating JVM (sum of pool peaks); 512m ok: a verdict under -Xmx" + xmx + ")");
+        System.out.println("(parse: bare token walk; +num: the same decoding every number; valid: read + every rule"
+                + " (--schema-check never); +schem: with the bundled schema check (always), which reads the file on the"
+                + " second core; schema/v: the schema check's extra time over validation; cpu: the same ratios in CPU"
+                + " seconds of the whole process (every thread); live: the validating JVM's largest heap occupancy"
+                + " right after a collection (MiB), heap: its heap pools' peaks (garbage included), RSS: its resident"
+                + " high-water mark; 512m: a verdict under -Xmx" + xmx + ")");
     }
 
     private static String lastOutcome;
 
-    /** The best of {@code reps} runs of {@code step} on {@code file}: {wall seconds, peak heap MiB, peak RSS MiB}. */
+    /** The best of {@code reps} runs of {@code step} on {@code file}: {wall s, CPU s, peak heap, live peak, RSS (MiB)}. */
     private static double[] best(String step, Path file, String xmx, int reps) throws IOException, InterruptedException {
         double[] best = null;
         String jar = Path.of(ValidateScale.class.getProtectionDomain().getCodeSource().getLocation().getPath()).toString();
@@ -124,12 +133,13 @@ public final class ValidateScale {
             int rc = p.waitFor();
             double wall = (System.nanoTime() - t0) / 1e9;
             String[] f = out.isEmpty() ? new String[0] : out.substring(out.lastIndexOf('\n') + 1).split(" ");
-            if (rc != 0 || f.length < 5 || !f[0].equals(step)) {
+            if (rc != 0 || f.length < 7 || !f[0].equals(step)) {
                 lastOutcome = out.contains("OutOfMemoryError") ? "OutOfMemoryError" : "failed (exit " + rc + ")";
-                return new double[] {Double.NaN, Double.NaN, Double.NaN};
+                return new double[] {Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN};
             }
-            lastOutcome = f[4];
-            double[] r = {wall, Double.parseDouble(f[2]), Double.parseDouble(f[3])};
+            lastOutcome = f[6];
+            double[] r = {wall, Double.parseDouble(f[2]), Double.parseDouble(f[3]), Double.parseDouble(f[4]),
+                Double.parseDouble(f[5])};
             if (best == null || r[0] < best[0]) {
                 best = r;
             }
