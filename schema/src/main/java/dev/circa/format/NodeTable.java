@@ -141,6 +141,22 @@ public final class NodeTable {
         return size == 0 ? 0 : childStart[size];
     }
 
+    /** Total number of numbers held (weights and parameters of all nodes). */
+    public long valueCount() {
+        return size == 0 ? 0 : valueStart[size];
+    }
+
+    /**
+     * The bytes of the primitive columns this table holds (array capacities, headers not counted):
+     * what a document's nodes cost in memory, to compare with what they contain.
+     */
+    public long retainedBytes() {
+        long b = (long) kind.length + family.length + flags.length + 4L * id.length;
+        b += 4L * (childStart.length + valueStart.length + varStart.length);
+        b += 4L * children.length + 8L * values.length + 4L * vars.length;
+        return b + (labels == null ? 0 : 4L * labels.length);
+    }
+
     /** Node {@code i} as a record (its arrays are copies). */
     public Node node(int i) {
         int[] ch = Arrays.copyOfRange(children, childStart[i], childStart[i + 1]);

@@ -132,6 +132,7 @@ public final class Validator {
     }
 
     private ValidationReport validate(RuleContext ctx, CircuitDocument doc, List<SchemaFinding> schemaFindings) {
+        ctx.prepare();
         ctx.schemaFindings(schemaFindings);
         for (Rule r : ORDER) {
             r.check(ctx);

@@ -266,8 +266,9 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                     throw LimitExceededException.of(file, in.line(), in.column(), ptr + "/" + index,
                             "the number of nodes", ReadLimits.MAX_NODES, limits.maxNodes());
                 }
-                int line = in.line();
-                int column = in.column();
+                long at = in.position();
+                int line = (int) (at >>> 32);
+                int column = (int) at;
                 nodeLocations.add(line, column);
                 readNode(ptr + "/" + index, line, column);
                 nodeCount++;
@@ -282,7 +283,10 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             while ((m = in.nextProperty()) != null) {
                 // a member's pointer (p + "/" + m) is built only where it is needed, for a message or a finding
                 switch (m) {
-                    case "id" -> f.id = intMember(p, m);
+                    case "id" -> {
+                        f.id = intMember(p, m);
+                        f.hasId = true;
+                    }
                     case "label" -> f.label = in.readString(p + "/" + m);
                     case "input" -> {
                         f.kinds++;
@@ -419,7 +423,8 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
 
     /** The members of the node being read; reused from node to node. */
     private static final class NodeFields {
-        Integer id;
+        int id;
+        boolean hasId;
         String label;
         int kinds;
         Family family;
@@ -433,7 +438,8 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         final Map<String, int[]> paramLocations = new LinkedHashMap<>();
 
         void reset() {
-            id = null;
+            id = 0;
+            hasId = false;
             label = null;
             kinds = 0;
             family = null;
@@ -449,7 +455,7 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
 
         /** Checks the node read and closes it in the table (its child ids and weights are there already). */
         void build(String p, int line, int col, Pass pass) throws FormatException {
-            if (id == null) {
+            if (!hasId) {
                 throw pass.error(p + "/id", line, col, "a node needs an integer \"id\"");
             }
             if (kinds == 0) {

@@ -116,6 +116,12 @@ public final class JsonInput implements AutoCloseable {
         return l == null ? 0 : Math.max(l.getColumnNr(), 0);
     }
 
+    /** Line (high 32 bits) and column (low 32 bits) of the current token, from one location lookup. */
+    public long position() {
+        TokenStreamLocation l = parser.currentTokenLocation();
+        return l == null ? 0 : ((long) Math.max(l.getLineNr(), 0) << 32) | Math.max(l.getColumnNr(), 0);
+    }
+
     /** A located error at the current token. */
     public FormatException error(String pointer, String problem) {
         return new FormatException(file, line(), column(), pointer, problem);

@@ -13,7 +13,7 @@ public final class CovarianceNotPositiveDefinite extends Rule {
     public void check(RuleContext ctx) {
         int count = ctx.document().nodeTable().size();
         for (int i = 0; i < count; i++) {
-            if (ctx.input(i) instanceof InputNode in && in.family() == Family.MVNORMAL && Parameters.firstNonFinite(in) < 0
+            if (ctx.family(i) == Family.MVNORMAL && ctx.input(i) instanceof InputNode in && Parameters.firstNonFinite(in) < 0
                     && Parameters.asymmetry(in, ctx.options().tolerance()) == null && !Parameters.positiveDefinite(in)
                     && !ctx.skip(this, severity())) {
                 ctx.atNode(this, severity(), i, "cov", String.format(Locale.ROOT, "covariance of mvnormal node %d is "

@@ -14,7 +14,7 @@ public final class CovarianceNotSymmetric extends Rule {
     public void check(RuleContext ctx) {
         int count = ctx.document().nodeTable().size();
         for (int i = 0; i < count; i++) {
-            if (ctx.input(i) instanceof InputNode in && in.family() == Family.MVNORMAL && Parameters.firstNonFinite(in) < 0) {
+            if (ctx.family(i) == Family.MVNORMAL && ctx.input(i) instanceof InputNode in && Parameters.firstNonFinite(in) < 0) {
                 double tol = ctx.options().tolerance();
                 int[] rc = Parameters.asymmetry(in, tol);
                 if (rc != null && !ctx.skip(this, severity())) {

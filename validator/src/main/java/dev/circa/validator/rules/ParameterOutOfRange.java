@@ -17,7 +17,7 @@ public final class ParameterOutOfRange extends Rule {
     public void check(RuleContext ctx) {
         int count = ctx.document().nodeTable().size();
         for (int i = 0; i < count; i++) {
-            if (ctx.input(i) instanceof InputNode in && in.family() != Family.MVNORMAL && Parameters.firstNonFinite(in) < 0) {
+            if (ctx.family(i) != null && ctx.family(i) != Family.MVNORMAL && ctx.input(i) instanceof InputNode in && Parameters.firstNonFinite(in) < 0) {
                 if (in.family() == Family.CATEGORICAL) {
                     negativeProbabilities(ctx, i, in);
                 } else {

@@ -14,7 +14,7 @@ public final class ProbabilitiesNotNormalized extends Rule {
     public void check(RuleContext ctx) {
         int count = ctx.document().nodeTable().size();
         for (int i = 0; i < count; i++) {
-            if (ctx.input(i) instanceof InputNode in && in.family() == Family.CATEGORICAL
+            if (ctx.family(i) == Family.CATEGORICAL && ctx.input(i) instanceof InputNode in
                     && Parameters.firstNonFinite(in) < 0 && Parameters.firstNegativeProbability(in, 0) < 0) {
                 double tol = ctx.options().tolerance();
                 double sum = Parameters.probabilityMass(in);

@@ -1,6 +1,7 @@
 package dev.circa.validator.rules;
 
 import dev.circa.format.CircuitDocument;
+import dev.circa.format.Family;
 import dev.circa.format.Node;
 import dev.circa.format.NodeTable;
 import dev.circa.format.SourceLocation;
@@ -22,6 +23,8 @@ import java.util.HashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import java.util.concurrent.CompletableFuture;
+import java.util.concurrent.CompletionException;
 
 /**
  * What the rules see of one validation: the document, the options, the shared analyses (computed
@@ -53,6 +56,7 @@ public final class RuleContext {
     private double[] logZ;
     private boolean logZDone;
     private boolean[] reachable;
+    private boolean prepared;
     private List<SchemaFinding> schemaFindings = List.of();
 
     public RuleContext(CircuitDocument doc, ValidationOptions options) {
@@ -104,6 +108,11 @@ public final class RuleContext {
         return SourceLocation.of(pointer);
     }
 
+    /** The family of node {@code i} when it is an input, else {@code null} (no record made). */
+    public Family family(int i) {
+        return doc.nodeTable().family(i);
+    }
+
     /**
      * Node {@code i} as a record when it is an input (an {@link dev.circa.format.InputNode}), else {@code null}:
      * products and sums are read from the table without a record.
@@ -118,12 +127,36 @@ public final class RuleContext {
      * results), so that they can run while something else, such as the schema check, finishes.
      */
     public void prepare() {
+        if (prepared) {
+            return;
+        }
+        prepared = true;
+        // on two cores: the parameter facts beside the references and scopes, then the variable tree
+        // and log Z beside determinism (each analysis only reads those it depends on, all computed before)
+        CompletableFuture<Void> facts = CompletableFuture.runAsync(this::parameters);
         graph();
-        parameters();
         scopes();
-        logPartition();
+        join(facts);
+        CompletableFuture<Void> treeAndZ = CompletableFuture.runAsync(() -> {
+            tree();
+            logPartition();
+        });
         determinism();
-        tree();
+        join(treeAndZ);
+    }
+
+    private static void join(CompletableFuture<Void> f) {
+        try {
+            f.join();
+        } catch (CompletionException e) {
+            if (e.getCause() instanceof RuntimeException r) {
+                throw r;
+            }
+            if (e.getCause() instanceof Error r) {
+                throw r;
+            }
+            throw e;
+        }
     }
 
     /** The resolved references. */
