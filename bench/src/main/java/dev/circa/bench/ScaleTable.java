@@ -333,7 +333,8 @@ public final class ScaleTable {
         }
     }
 
-    private static long peaks() {
+    /** The sum of the heap pools' peak usage since their last reset (garbage included). */
+    static long peaks() {
         long sum = 0;
         for (MemoryPoolMXBean pool : ManagementFactory.getMemoryPoolMXBeans()) {
             if (pool.getType() == MemoryType.HEAP) {

@@ -58,7 +58,7 @@ public final class ValidateRun {
         double seconds = (System.nanoTime() - t0) / 1e9;
         double cpu = ((com.sun.management.OperatingSystemMXBean) ManagementFactory.getOperatingSystemMXBean())
                 .getProcessCpuTime() / 1e9;
-        System.out.printf(Locale.ROOT, "%s %.3f %.3f %.0f %.0f %.0f %s%n", step, seconds, cpu, peakHeap() / 1048576.0,
+        System.out.printf(Locale.ROOT, "%s %.3f %.3f %.0f %.0f %.0f %s%n", step, seconds, cpu, ScaleTable.peaks() / 1048576.0,
                 LIVE_PEAK.get() / 1048576.0, peakRss() / 1024.0, outcome);
     }
 
@@ -87,16 +87,6 @@ public final class ValidateRun {
                 LIVE_PEAK.accumulateAndGet(used, Math::max);
             }, null, null);
         }
-    }
-
-    private static long peakHeap() {
-        long sum = 0;
-        for (MemoryPoolMXBean pool : ManagementFactory.getMemoryPoolMXBeans()) {
-            if (pool.getType() == MemoryType.HEAP) {
-                sum += pool.getPeakUsage().getUsed();
-            }
-        }
-        return sum;
     }
 
     /** The resident-set high-water mark in KiB, or 0 where /proc is absent. */

@@ -357,27 +357,6 @@ public final class JsonInput implements AutoCloseable {
         }
     }
 
-    /**
-     * Reads the array of finite numbers at member {@code member} of {@code parent} (the current token
-     * must start it); as {@link #readDoubleArray(String)} with the pointer built only for a message.
-     */
-    public double[] readDoubleArray(String parent, String member) throws FormatException {
-        if (token() != JsonToken.START_ARRAY) {
-            return readDoubleArray(parent + "/" + member);
-        }
-        double[] buf = new double[8];
-        int n = 0;
-        while (nextElement()) {
-            if (n == buf.length) {
-                buf = Arrays.copyOf(buf, n * 2);
-            }
-            double v = isNumber() ? numberValue() : Double.NaN;
-            buf[n] = Double.isFinite(v) ? v : readDouble(parent + "/" + member + "/" + n);
-            n++;
-        }
-        return Arrays.copyOf(buf, n);
-    }
-
     /** Reads an array of finite numbers (the current token must start it). */
     public double[] readDoubleArray(String pointer) throws FormatException {
         expect(JsonToken.START_ARRAY, pointer, "an array of numbers");
