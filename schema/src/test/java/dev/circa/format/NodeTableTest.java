@@ -16,7 +16,7 @@ import org.junit.jupiter.api.Test;
 /**
  * The flat node columns: the records they show are the nodes they were made from, member for member,
  * whether built from records in code or read from text; and what they hold in memory is bounded by
- * what the document contains (common practice for a growable array: at most half again its content).
+ * what the document contains: its content plus at most one partly filled block per column.
  */
 class NodeTableTest {
     /** Random nodes of every kind and family, with labels, log forms and any lengths (validity not required). */
@@ -110,8 +110,8 @@ class NodeTableTest {
 
     @Test
     void memoryBoundedByWhatTheDocumentHolds() throws Exception {
-        // a sum-product chain of 300,000 edges read from text: the columns hold the child ids (4 bytes),
-        // the weights (8 bytes) and about 19 bytes per node, with at most half again for growth
+        // a chain of sums with 300,000 edges read from text: the columns hold the child ids (4 bytes), the
+        // weights (8 bytes) and 19 bytes per node, plus at most one partly filled block in each of 12 columns
         StringBuilder json = new StringBuilder("{\"format\": \"circa.circuit\", \"version\": \"1.0\", \"variables\":"
                 + " [{\"name\": \"inlet_pressure\", \"type\": \"real\"}], \"nodes\": [\n");
         json.append("{\"id\": 0, \"input\": \"normal\", \"var\": 0, \"mean\": 1.5, \"sd\": 0.25}");
@@ -142,7 +142,7 @@ class NodeTableTest {
         assertEquals(edges, t.edgeCount());
         assertEquals(values, t.valueCount());
         long content = 4 * edges + 8 * values + 4 + 19L * nodes;
-        assertTrue(t.retainedBytes() <= content * 3 / 2 + 65536,
+        assertTrue(t.retainedBytes() <= content + 12L * 8 * NodeTable.BLOCK,
                 "the columns hold " + t.retainedBytes() + " bytes for " + content + " bytes of content");
     }
 }
