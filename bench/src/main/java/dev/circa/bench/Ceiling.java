@@ -25,6 +25,41 @@ final class Ceiling {
         return PeerTable.cpuRate(r) * scale;
     }
 
+    /**
+     * Wall-clock scaling of the batch-{@code batch} product from one thread to two (rows of A split in two
+     * halves, one per thread): what the machine itself gives a second thread on this work, printed beside
+     * circa's own scaling so that a shared or hyper-threaded pair of processors is not mistaken for circa's.
+     */
+    static double twoThreadScaling(long entries, int batch) throws InterruptedException {
+        int n = (int) Math.max(1, Math.round(Math.sqrt(entries)));
+        int m = (int) Math.max(2, entries / n) & ~1;
+        int h = m / 2;
+        double[] top = PeerTable.rows(h, n, 3);
+        double[] bottom = PeerTable.rows(h, n, 5);
+        double[] x = PeerTable.rows(n, batch, 4);
+        double[] y0 = new double[h * batch];
+        double[] y1 = new double[h * batch];
+        double one = PeerTable.wallRate(() -> {
+            matMat(top, h, n, x, batch, y0);
+            matMat(bottom, h, n, x, batch, y1);
+        });
+        java.util.concurrent.ExecutorService pool = java.util.concurrent.Executors.newSingleThreadExecutor();
+        try {
+            double two = PeerTable.wallRate(() -> {
+                java.util.concurrent.Future<?> f = pool.submit(() -> matMat(bottom, h, n, x, batch, y1));
+                matMat(top, h, n, x, batch, y0);
+                try {
+                    f.get();
+                } catch (java.util.concurrent.ExecutionException | InterruptedException e) {
+                    throw new IllegalStateException(e);
+                }
+            });
+            return two / one;
+        } finally {
+            pool.shutdownNow();
+        }
+    }
+
     /** y = A x, A column-major (m x n). */
     static void matVec(double[] a, int m, int n, double[] x, double[] y) {
         java.util.Arrays.fill(y, 0, m, 0);

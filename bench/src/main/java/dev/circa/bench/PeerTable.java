@@ -73,6 +73,7 @@ public final class PeerTable {
                 wall[threads] = wallRate(() -> runner.logDensity(big, 1024, bigOut)) * edges * 1024;
             }
         }
+        double machineScale = Ceiling.twoThreadScaling(edges, 1024);
         Map<Integer, double[]> peer = new LinkedHashMap<>();
         String peerNote = runPeer(python, cpuScript, peerScript, peerDir, peer);
         double load1 = ManagementFactory.getOperatingSystemMXBean().getSystemLoadAverage();
@@ -96,6 +97,8 @@ public final class PeerTable {
         double scale = wall[2] / wall[1];
         sb.append(String.format(Locale.ROOT, "batch 1024, wall clock: 1 thread %s, 2 threads %s: %.2fx (>=1.7x %s)%n",
                 sci(wall[1]), sci(wall[2]), scale, scale >= 1.7 ? "MET" : "NOT MET"));
+        sb.append(String.format(Locale.ROOT, "  the ceiling's own product on 2 threads (rows split in halves), same run: %.2fx;"
+                + " circa's scaling is %.0f%% of the machine's%n", machineScale, 100 * scale / machineScale));
         if (!peer.isEmpty()) {
             sb.append("peer by wall clock:");
             for (int batch : BATCHES) {
