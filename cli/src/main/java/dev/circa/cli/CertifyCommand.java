@@ -1,5 +1,6 @@
 package dev.circa.cli;
 
+import dev.circa.format.Counts;
 import dev.circa.format.certificate.Certificate;
 import dev.circa.format.certificate.CertificateWriter;
 import dev.circa.format.io.FormatException;
@@ -79,9 +80,9 @@ final class CertifyCommand implements Callable<Integer> {
         }
         new CertificateWriter().write(c.certificate(), output, inputs.toArray(Path[]::new));
         Certificate cert = c.certificate();
-        out.println("certified " + modelFile + " (" + cert.model().bytes() + " bytes, SHA-256 " + cert.model().sha256()
-                + "): " + cert.checks().cases() + " embedded case(s), " + cert.references().size()
-                + " reference set(s); certificate " + output);
+        out.println("certified " + modelFile + " (" + Counts.of(cert.model().bytes(), "byte") + ", SHA-256 "
+                + cert.model().sha256() + "): " + Counts.of(cert.checks().cases(), "embedded case") + ", "
+                + Counts.of(cert.references().size(), "reference set") + "; certificate " + output);
         out.flush();
         return ExitStatus.OK;
     }

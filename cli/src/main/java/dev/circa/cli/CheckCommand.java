@@ -29,11 +29,16 @@ final class CheckCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws FormatException {
-        Model model = read.use(circuitFile);
-        RegressionCheck regression = new RegressionCheck(model.circuit(), check.tolerance(model.document().checks()));
-        regression.checkEmbedded(model.document());
-        for (Path ref : check.references()) {
-            regression.checkReference(ref, read.limits());
+        RegressionCheck regression;
+        try (Progress progress = Progress.start(read.err(), "circa check: reading " + circuitFile)) {
+            Model model = read.use(circuitFile);
+            regression = new RegressionCheck(model.circuit(), check.tolerance(model.document().checks()));
+            progress.phase("circa check: checking the embedded cases");
+            regression.checkEmbedded(model.document());
+            for (Path ref : check.references()) {
+                progress.phase("circa check: checking " + ref);
+                regression.checkReference(ref, read.limits());
+            }
         }
         return check.finish(regression.report(), circuitFile, read.out());
     }

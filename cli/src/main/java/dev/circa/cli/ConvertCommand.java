@@ -110,7 +110,10 @@ final class ConvertCommand implements Callable<Integer> {
         }
         MixtureOptions options = MixtureOptions.DEFAULT.withNormalizeWeights(normalizeWeights)
                 .withVerifyPoints(verify).withTolerances(atol, rtol).withSeed(seed);
-        MixtureConverter.Result result = MixtureConverter.convert(MixtureReader.read(source, limits), options);
+        MixtureConverter.Result result;
+        try (Progress progress = Progress.start(err, "circa convert: converting and verifying " + source)) {
+            result = MixtureConverter.convert(MixtureReader.read(source, limits), options);
+        }
         err.print(result.summary());
         err.println();
         return out.finish(result.circuit(), result.verification().passed(),
@@ -128,9 +131,11 @@ final class ConvertCommand implements Callable<Integer> {
         } catch (IllegalArgumentException e) {
             throw new UsageException(e.getMessage());
         }
-        RegionConverter.Result r = RegionConverter.convert(graph, options,
-                params == null ? ParameterSource.seed(seed) : ParameterSource.file(params),
-                new RegionConverter.Verification(verify, seed, atol, rtol), limits);
+        RegionConverter.Result r;
+        try (Progress progress = Progress.start(err, "circa convert: compiling and verifying " + source)) {
+            r = RegionConverter.convert(graph, options, params == null ? ParameterSource.seed(seed) : ParameterSource.file(params),
+                    new RegionConverter.Verification(verify, seed, atol, rtol), limits);
+        }
         err.println(r.summary());
         return out.finish(r.circuit(), r.verification().passed(), r.validation());
     }

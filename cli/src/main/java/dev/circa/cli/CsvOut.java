@@ -7,10 +7,15 @@ import java.io.Writer;
 /** Writes CSV records, quoting fields that need it. */
 final class CsvOut {
     private final Writer w;
+    private final Progress progress;
+    private final long total;
     private long records;
 
-    CsvOut(Writer w) {
+    /** A writer whose data rows are counted in {@code progress} ({@code total} of them, or -1 when unknown). */
+    CsvOut(Writer w, Progress progress, long total) {
         this.w = w;
+        this.progress = progress;
+        this.total = total;
     }
 
     void record(String... fields) throws IOException {
@@ -21,7 +26,9 @@ final class CsvOut {
             w.write(CellValues.quote(fields[i]));
         }
         w.write('\n');
-        records++;
+        if ((++records & 1023) == 0) {
+            progress.count(records - 1, total, "row");
+        }
     }
 
     /** The records written so far (the header included). */

@@ -1,5 +1,6 @@
 package dev.circa.cli;
 
+import dev.circa.format.Counts;
 import dev.circa.format.Variable;
 import dev.circa.format.VariableType;
 import dev.circa.format.csv.CellValues;
@@ -43,7 +44,8 @@ final class DataColumns {
         int[] map = new int[header.length];
         boolean[] seen = new boolean[variables.size()];
         for (int c = 0; c < header.length; c++) {
-            Integer v = byName.get(header[c].strip());
+            // names exactly as written (quoted or not): " a" and "a" may be two variables
+            Integer v = byName.get(header[c]);
             if (v == null) {
                 throw csv.error(c, "unknown column \"" + header[c] + "\"; expected variable names of the circuit ("
                         + String.join(", ", variables.stream().map(Variable::name).toList()) + ")");
@@ -66,11 +68,16 @@ final class DataColumns {
         return variableOfColumn[c];
     }
 
-    /** The column index of variable named {@code name}, or -1. */
+    /**
+     * The column headed exactly {@code name}, else the one headed {@code name} without surrounding white
+     * space (as a comma-separated option gives it: {@code --given "a, b"}), or -1.
+     */
     int columnOf(String name) {
-        for (int c = 0; c < header.length; c++) {
-            if (header[c].strip().equals(name)) {
-                return c;
+        for (String n : new String[] {name, name.strip()}) {
+            for (int c = 0; c < header.length; c++) {
+                if (header[c].equals(n)) {
+                    return c;
+                }
             }
         }
         return -1;
@@ -92,7 +99,7 @@ final class DataColumns {
             }
             if (rec.size() != header.length) {
                 throw csv.error(Math.min(rec.size(), header.length) - 1 < 0 ? 0 : Math.min(rec.size(), header.length) - 1,
-                        "row has " + rec.size() + " fields; expected " + header.length + " as in the header");
+                        "row has " + Counts.of(rec.size(), "field") + "; expected " + header.length + " as in the header");
             }
             Arrays.fill(data, r * nv, r * nv + nv, Double.NaN);
             String[] row = cells[r];

@@ -1,5 +1,6 @@
 package dev.circa.cli;
 
+import dev.circa.format.Counts;
 import dev.circa.converter.mixture.MixtureConverter;
 import dev.circa.converter.mixture.MixtureOptions;
 import dev.circa.converter.regions.CompileOptions;
@@ -53,8 +54,9 @@ final class DemoCommand implements Callable<Integer> {
         DemoFolder f = new DemoFolder(dir, spec.commandLine().getOut());
         f.say("circa demo: the pump-station scenario, files in " + dir.toAbsolutePath().normalize());
         f.say("");
-        f.say("1. The regime mixture an engineer wrote by hand (normal operation, cavitation, worn valve),");
-        f.say("   converted into a circuit and proved equal to the mixture at sampled points.");
+        f.say("1. The regime mixture an engineer wrote by hand: three regimes (normal operation, cavitation, a blocked");
+        f.say("   outlet) and a worn-valve definition shared by two of them, converted into a circuit and proved equal");
+        f.say("   to the mixture at sampled points.");
         Path yaml = f.extract("mixtures/pump-station-regimes.yaml", "pump-station-regimes.yaml");
         MixtureConverter.Result mix = MixtureConverter.convert(MixtureReader.read(yaml, LIMITS), MixtureOptions.DEFAULT);
         f.indent(mix.summary());
@@ -68,8 +70,8 @@ final class DemoCommand implements Callable<Integer> {
                 new CompileOptions(3, 2, 1, CompileOptions.defaults().families()), ParameterSource.file(npz),
                 new RegionConverter.Verification(500, 0, 1e-9, 1e-9), LIMITS);
         CircuitDocument doc = stations.circuit();
-        f.indent("compiled with 3 sums per region, 2 input bundles per leaf region: " + doc.nodes().size()
-                + " nodes, " + doc.edgeCount() + " edges\n" + stations.verification().summary());
+        f.indent("compiled with 3 sums per region, 2 input bundles per leaf region: " + Counts.of(doc.nodes().size(), "node")
+                + ", " + Counts.of(doc.edgeCount(), "edge") + "\n" + stations.verification().summary());
         Path stationsFile = f.write(doc, "stations.circuit.json", "the compiled region-graph model");
 
         f.say("");
@@ -100,10 +102,11 @@ final class DemoCommand implements Callable<Integer> {
         ok &= caught(f, validator, f.write(BrokenExport.of(mix.circuit()), "broken-export.circuit.json", "the broken export"));
 
         f.say("");
-        f.say("6. A picture of the small model (Graphviz DOT; draw it with: dot -Tsvg regimes.dot -o regimes.svg).");
+        f.say("6. A picture of the small model as a Graphviz DOT graph.");
         String text = DotRenderer.render(CompiledCircuit.compile(mix.circuit()), new RenderOptions(true,
                 RenderOptions.DEFAULT_MAX_NODES));
         f.writeText(text, "regimes.dot", "the regime model as a DOT graph, with scopes");
+        f.indent("draw it with: dot -Tsvg " + f.file("regimes.dot") + " -o " + f.file("regimes.svg"));
 
         f.say("");
         f.say("7. The page a reviewer reads before signing the region-graph model off: verdict, the reference check,");
@@ -134,8 +137,8 @@ final class DemoCommand implements Callable<Integer> {
                 caught++;
             }
         }
-        f.indent("verdict: " + (br.valid() ? "valid (unexpected!)" : "INVALID, as it should be") + " (" + caught
-                + " diagnostics)");
+        f.indent("verdict: " + (br.valid() ? "valid (unexpected!)" : "INVALID, as it should be") + " ("
+                + Counts.of(caught, "diagnostic") + ")");
         return !br.valid();
     }
 

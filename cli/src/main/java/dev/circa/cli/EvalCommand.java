@@ -48,7 +48,7 @@ final class EvalCommand implements Callable<Integer> {
             DataColumns cols = DataColumns.readHeader(csv, c.variables());
             boolean[] givenMask = new boolean[nv];
             for (String g : given) {
-                int col = cols.columnOf(g.strip());
+                int col = cols.columnOf(g);
                 if (col < 0) {
                     throw new UsageException("--given names \"" + g + "\", which is not a column of " + data.file);
                 }

@@ -1,5 +1,6 @@
 package dev.circa.cli;
 
+import dev.circa.format.Counts;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.Family;
 import dev.circa.format.InputNode;
@@ -10,6 +11,7 @@ import dev.circa.format.SumNode;
 import dev.circa.validator.CircuitStats;
 import dev.circa.validator.ExactQueries;
 import dev.circa.validator.Property;
+import dev.circa.format.io.FormatException;
 import dev.circa.model.CheckedCircuit;
 import dev.circa.model.Requirement;
 import dev.circa.validator.ValidationReport;
@@ -45,7 +47,12 @@ final class InspectCommand implements Callable<Integer> {
             doc = m.document();
             report = CircuitReadOptions.reportWithLogZ(m);
         } else {
-            CheckedCircuit checked = read.loader().withRequirement(Requirement.parse("")).check(circuitFile);
+            CheckedCircuit checked;
+            try {
+                checked = read.loader().withRequirement(Requirement.parse("")).check(circuitFile);
+            } catch (FormatException e) {
+                throw ConvertibleDocument.explain(circuitFile, e, read.limits());
+            }
             doc = checked.document();
             report = checked.report();
         }
@@ -67,7 +74,8 @@ final class InspectCommand implements Callable<Integer> {
         }
         out.printf(Locale.ROOT, "%s%s%n", circuitFile, doc.name() == null ? "" : " (" + doc.name() + ")");
         out.printf(Locale.ROOT, "  variables: %d%n", s.variables());
-        out.printf(Locale.ROOT, "  nodes:     %d (%d inputs, %d products, %d sums)%n", s.nodes(), inputs, products, sums);
+        out.printf(Locale.ROOT, "  nodes:     %d (%s, %s, %s)%n", s.nodes(), Counts.of(inputs, "input"),
+                Counts.of(products, "product"), Counts.of(sums, "sum"));
         out.printf(Locale.ROOT, "  edges:     %d%n", s.edges());
         out.printf(Locale.ROOT, "  depth:     %d%n", s.depth());
         StringBuilder fam = new StringBuilder();

@@ -36,12 +36,18 @@ public final class Main implements Runnable {
 
     /** Runs the command line and exits with its status. */
     public static void main(String[] args) {
-        System.exit(run(args, new PrintWriter(System.out, true), new PrintWriter(System.err, true)));
+        PrintWriter err = new PrintWriter(System.err, true);
+        Progress.useTerminal(err);
+        System.exit(run(args, new PrintWriter(System.out, true), err));
     }
 
     /** Runs the command line with the given streams and returns the exit status (for tests). */
     public static int run(String[] args, PrintWriter out, PrintWriter err) {
-        CommandLine cl = new CommandLine(new Main());
+        return run(new CommandLine(new Main()), args, out, err);
+    }
+
+    /** Runs {@code cl} (the command line, or one with subcommands added by a test) as {@link #run(String[], PrintWriter, PrintWriter)}. */
+    static int run(CommandLine cl, String[] args, PrintWriter out, PrintWriter err) {
         for (CommandLine sub : cl.getSubcommands().values()) {
             summarise(sub.getCommandSpec());
         }
@@ -54,23 +60,20 @@ public final class Main implements Runnable {
             c.getErr().println("Try 'circa " + commandPath(c) + "--help' for the options.");
             return ExitStatus.UNUSABLE;
         });
+        LastResort lastResort = new LastResort();
         cl.setExecutionExceptionHandler((ex, c, parsed) -> {
             if (ex instanceof FormatException || ex instanceof UsageException) {
                 c.getErr().println("circa: " + ex.getMessage());
-                if (debug) {
-                    ex.printStackTrace(c.getErr());
-                }
             } else {
-                c.getErr().println("circa: unexpected error: " + ex);
-                if (debug) {
-                    ex.printStackTrace(c.getErr());
-                } else {
-                    c.getErr().println("(run with --debug for the stack trace)");
-                }
+                c.getErr().println(lastResort.internal(debug));
+            }
+            if (debug) {
+                ex.printStackTrace(c.getErr());
             }
             return ExitStatus.UNUSABLE;
         });
         cl.setExecutionStrategy(parsed -> {
+            lastResort.parsed(parsed);
             StandardInputOnce.check(parsed);
             OptionValues.check(parsed);
             OutputTargets.check(parsed);
@@ -79,28 +82,12 @@ public final class Main implements Runnable {
         try {
             return cl.execute(args);
         } catch (StackOverflowError e) {
-            err.println("circa: " + inputsNamed(args) + "the input is nested too deeply to process (stack exhausted)");
+            err.println(lastResort.stackExhausted());
             return ExitStatus.UNUSABLE;
         } catch (OutOfMemoryError e) {
-            err.println("circa: " + inputsNamed(args)
-                    + "out of memory; give Java more heap with CIRCA_JAVA_OPTS=-Xmx... or lower the input size");
+            err.println(lastResort.outOfMemory());
             return ExitStatus.UNUSABLE;
         }
-    }
-
-    /** "a.json, b.csv: " for the arguments that name existing files, so that a last-resort message names the input. */
-    private static String inputsNamed(String[] args) {
-        StringBuilder sb = new StringBuilder();
-        for (String a : args) {
-            try {
-                if (!a.startsWith("-") && java.nio.file.Files.isRegularFile(java.nio.file.Path.of(a))) {
-                    sb.append(sb.length() == 0 ? "" : ", ").append(a);
-                }
-            } catch (java.nio.file.InvalidPathException e) {
-                // not a file name
-            }
-        }
-        return sb.length() == 0 ? "" : sb + ": ";
     }
 
     private static String commandPath(CommandLine c) {

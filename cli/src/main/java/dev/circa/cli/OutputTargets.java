@@ -14,7 +14,7 @@ import picocli.CommandLine.ParseResult;
  * then fail to write is stopped at once (status 2, naming the output).
  */
 final class OutputTargets {
-    private static final Set<String> OUTPUT_OPTIONS = Set.of("-o", "--output", "--to-params");
+    static final Set<String> OUTPUT_OPTIONS = Set.of("-o", "--output", "--to-params");
 
     private OutputTargets() {
     }

@@ -1,5 +1,6 @@
 package dev.circa.cli;
 
+import dev.circa.format.Counts;
 import dev.circa.converter.npz.NpzArchive;
 import dev.circa.converter.regions.RegionConverter;
 import dev.circa.format.CircuitDocument;
@@ -21,7 +22,7 @@ final class ParameterExport {
         RegionGraph graph = new RegionGraphReader(read.limits()).read(regions);
         NpzArchive archive = RegionConverter.exportParameters(circuit, graph);
         archive.write(target, false, circuitFile, regions);
-        read.err().println("wrote " + archive.size() + " arrays to " + target);
+        read.err().println("wrote " + Counts.of(archive.size(), "array") + " to " + target);
         return ExitStatus.OK;
     }
 }

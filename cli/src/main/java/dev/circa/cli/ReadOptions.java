@@ -1,5 +1,6 @@
 package dev.circa.cli;
 
+import dev.circa.format.Counts;
 import dev.circa.format.io.FormatException;
 import dev.circa.format.io.ReadLimits;
 import dev.circa.model.Model;
@@ -65,13 +66,13 @@ public class ReadOptions {
             model = loader().load(file);
         } catch (ModelException e) {
             if (e.unreadable()) {
-                throw e;
+                throw ConvertibleDocument.explain(file, e, limits());
             }
             for (Diagnostic d : e.diagnostics().subList(0, Math.min(20, e.diagnostics().size()))) {
                 err().println(file + ": " + d.render());
             }
-            throw new FormatException(file.toString(), 0, 0, null, "cannot be used: " + e.diagnostics().size()
-                    + " error(s) found by the validator (listed above; a circuit must at least be smooth and "
+            throw new FormatException(file.toString(), 0, 0, null, "cannot be used: " + Counts.of(e.diagnostics().size(), "error")
+                    + " found by the validator (listed above; a circuit must at least be smooth and "
                     + "decomposable, with valid references and parameters; run circa validate for the full report)");
         }
         if (!model.normalized()) {

@@ -1,5 +1,6 @@
 package dev.circa.cli;
 
+import dev.circa.format.Counts;
 import dev.circa.format.regions.RegionGraph;
 import dev.circa.format.regions.RegionGraphWriter;
 import java.io.IOException;
@@ -21,7 +22,7 @@ final class RegionGraphOutput {
     void write(RegionGraph g, Path... inputs) throws IOException {
         new RegionGraphWriter().write(g, output, inputs);
         PrintWriter err = command.commandLine().getErr();
-        err.printf("wrote %s: %d variables, %d regions, %d partitions%n", output,
-                g.variables().size(), g.regions().size(), g.partitions().size());
+        err.printf("wrote %s: %s, %s, %s%n", output, Counts.of(g.variables().size(), "variable"),
+                Counts.of(g.regions().size(), "region"), Counts.of(g.partitions().size(), "partition"));
     }
 }

@@ -44,6 +44,10 @@ final class RegionsCommand implements Runnable {
         @Option(names = "--seed", paramLabel = "S", description = "Seed (default: ${DEFAULT-VALUE}).")
         long seed = 0;
 
+        @Option(names = RandomRegions.MAX_VARIABLES, paramLabel = "N",
+                description = "Most variables generated, checked first (default: ${DEFAULT-VALUE}).")
+        long maxVars = RandomRegions.DEFAULT_MAX_VARIABLES;
+
         @Mixin
         RegionGraphOutput output;
 
@@ -63,14 +67,18 @@ final class RegionsCommand implements Runnable {
                 if (vars < 1) {
                     throw new UsageException("--vars must be >= 1, got " + vars);
                 }
-                RandomRegions.checkLimits(vars, depth, repeats, read.limits());
+                try {
+                    RandomRegions.checkLimits(vars, depth, repeats, read.limits(), maxVars);
+                } catch (dev.circa.format.io.LimitExceededException e) {
+                    throw new UsageException(e.problem()); // no file to name: the options ask for too much
+                }
                 variables = RandomRegions.realVariables(vars);
             } else {
                 variables = RandomRegions.readVariables(variablesFile, read.limits());
             }
             RegionGraph g;
             try {
-                g = RandomRegions.generate(variables, depth, repeats, seed, read.limits());
+                g = RandomRegions.generate(variables, depth, repeats, seed, read.limits(), maxVars);
             } catch (IllegalArgumentException e) {
                 throw new UsageException(e.getMessage());
             }

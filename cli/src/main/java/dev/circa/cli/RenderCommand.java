@@ -1,5 +1,6 @@
 package dev.circa.cli;
 
+import dev.circa.format.Counts;
 import dev.circa.converter.render.DotRenderer;
 import dev.circa.converter.render.RenderOptions;
 import dev.circa.format.io.AtomicOutput;
@@ -51,8 +52,8 @@ final class RenderCommand implements Callable<Integer> {
         Model model = read.use(circuitFile);
         RenderOptions options = new RenderOptions(scopes, maxNodes);
         if (DotRenderer.isSummary(model.circuit(), options)) {
-            err.println(String.format(Locale.ROOT, "%d nodes is more than --max-render-nodes %d: drawing a summary by scope",
-                    model.circuit().nodeCount(), maxNodes));
+            err.println(String.format(Locale.ROOT, "%s is more than --max-render-nodes %d: drawing a summary by scope",
+                    Counts.of(model.circuit().nodeCount(), "node"), maxNodes));
         }
         AtomicOutput.write(output, stream -> {
             BufferedWriter w = new BufferedWriter(new OutputStreamWriter(stream, StandardCharsets.UTF_8));

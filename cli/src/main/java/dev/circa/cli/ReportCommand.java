@@ -1,5 +1,6 @@
 package dev.circa.cli;
 
+import dev.circa.format.Counts;
 import dev.circa.format.io.AtomicOutput;
 import dev.circa.model.Model;
 import dev.circa.report.ModelReport;
@@ -66,8 +67,8 @@ final class ReportCommand implements Callable<Integer> {
         ReportSource src = ReportSource.of(modelFile, model.document(), model.circuit());
         write(src, options, output, in);
         err.println("circa report: wrote " + output + " (" + (src.validation().valid() ? "valid" : "NOT valid")
-                + " model, " + model.circuit().variableCount() + " marginals, " + options.pairs().size() + " pairs, "
-                + references.size() + " reference sets)");
+                + " model, " + Counts.of(model.circuit().variableCount(), "marginal") + ", "
+                + Counts.of(options.pairs().size(), "pair") + ", " + Counts.of(references.size(), "reference set") + ")");
         return ExitStatus.OK;
     }
 

@@ -72,7 +72,7 @@ final class SampleCommand implements Callable<Integer> {
                     out.record(line);
                 }
             }
-        }, circuitFile);
+        }, count, circuitFile);
         return ExitStatus.OK;
     }
 

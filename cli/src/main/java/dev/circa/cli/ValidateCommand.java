@@ -5,7 +5,7 @@ import dev.circa.model.Requirement;
 import dev.circa.validator.ReportFormat;
 import dev.circa.validator.SchemaCheck;
 import dev.circa.validator.ValidationOptions;
-import dev.circa.validator.ValidationReport;
+import dev.circa.validator.ValidationOutcome;
 import dev.circa.validator.Validator;
 import java.io.PrintWriter;
 import java.nio.file.Path;
@@ -76,22 +76,27 @@ final class ValidateCommand implements Callable<Integer> {
         }
         PrintWriter out = read.out();
         PrintWriter err = read.err();
-        List<ValidationReport> reports = new ArrayList<>();
-        int status = 0;
-        for (Path f : files) {
-            Validator v = new Validator(options, useSchema(f) ? SchemaCheck.BUNDLED : SchemaCheck.NONE);
-            try {
-                reports.add(v.validate(f, read.limits()));
-            } catch (FormatException e) {
-                err.println("circa: " + e.getMessage());
-                status = ExitStatus.UNUSABLE;
+        List<ValidationOutcome> outcomes = new ArrayList<>();
+        try (Progress progress = Progress.start(err, "circa validate")) {
+            for (Path f : files) {
+                progress.phase("circa validate: validating " + f);
+                Validator v = new Validator(options, useSchema(f) ? SchemaCheck.BUNDLED : SchemaCheck.NONE);
+                try {
+                    outcomes.add(ValidationOutcome.of(v.validate(f, read.limits())));
+                } catch (FormatException failure) {
+                    FormatException e = ConvertibleDocument.explain(f, failure, read.limits());
+                    progress.clear();
+                    err.println("circa: " + e.getMessage());
+                    outcomes.add(ValidationOutcome.failed(f.toString(), e));
+                }
             }
         }
-        if (!reports.isEmpty()) {
-            out.print(fmt.render(reports));
+        String rendered = fmt.renderOutcomes(outcomes);
+        if (fmt != ReportFormat.TEXT || outcomes.stream().anyMatch(o -> o.report() != null)) {
+            out.print(rendered);
             out.flush();
         }
-        return Math.max(status, ValidationReport.exitStatus(reports));
+        return ValidationOutcome.exitStatus(outcomes);
     }
 
     private boolean useSchema(Path f) {

@@ -78,7 +78,7 @@ class CertifyCommandTest {
         Path cert = dir.resolve("c.json");
         Cli.Result r = Cli.run("certify", model().toString(), "--reference", ref.toString(), "-o", cert.toString());
         assertEquals(1, r.status(), r::describe);
-        assertTrue(r.err().contains("1 of 1 row(s) beyond tolerance"), r::describe);
+        assertTrue(r.err().contains("1 of 1 row beyond tolerance"), r::describe);
         assertFalse(Files.exists(cert));
     }
 

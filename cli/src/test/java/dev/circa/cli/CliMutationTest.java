@@ -87,7 +87,7 @@ class CliMutationTest {
         int s = Main.run(args, new PrintWriter(o, true), new PrintWriter(e, true));
         String err = e.toString();
         Cli.Result r = new Cli.Result(args, s, o.toString(), err);
-        assertFalse(err.contains("unexpected error") || err.contains("\tat ") || err.contains("Exception"),
+        assertFalse(err.contains("unexpected error") || err.contains("internal error") || err.contains("\tat ") || err.contains("Exception"),
                 () -> what + ": " + r.describe());
         if (s == ExitStatus.OK) {
             assertTrue(Files.exists(out), () -> what + ": done without output: " + r.describe());

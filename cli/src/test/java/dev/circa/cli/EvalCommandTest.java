@@ -43,9 +43,9 @@ class EvalCommandTest {
         Cli.Result r = Cli.run("eval", EXAMPLE, "--data", data.toString());
         assertEquals(2, r.status(), r::describe);
         java.util.regex.Matcher m = java.util.regex.Pattern
-                .compile("\\((\\d+) data rows? (?:was|were) written to standard output before this error\\)").matcher(r.err());
+                .compile("\\(([\\d,]+) data rows? (?:was|were) written to standard output before this error\\)").matcher(r.err());
         assertTrue(m.find(), r::describe);
-        long said = Long.parseLong(m.group(1));
+        long said = Long.parseLong(m.group(1).replace(",", ""));
         // rows go out in batches of the data reader: a whole number of them, all before the bad row
         assertTrue(said > 0 && said <= 5000, "rows before the bad one: " + said);
     }

@@ -21,7 +21,7 @@ class InspectCommandTest {
         String out = r.out();
         assertTrue(out.contains("(pump-station-health)"), out);
         assertTrue(out.contains("  variables: 2\n"), out);
-        assertTrue(out.contains("  nodes:     7 (4 inputs, 2 products, 1 sums)\n"), out);
+        assertTrue(out.contains("  nodes:     7 (4 inputs, 2 products, 1 sum)\n"), out);
         assertTrue(out.contains("  edges:     6\n"), out);
         assertTrue(out.contains("  depth:     2\n"), out);
         assertTrue(out.contains("  families:  categorical 2, normal 2\n"), out);

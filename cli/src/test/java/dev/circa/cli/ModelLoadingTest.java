@@ -38,7 +38,7 @@ class ModelLoadingTest {
         runs.add(new String[] {"convert", b, "--to-params", dir.resolve("p.npz").toString(), "--regions", regions.toString()});
         for (String[] args : runs) {
             Cli.Result r = Cli.run(args);
-            Cli.assertUnusable(r, b, "cannot be used: 1 error(s) found by the validator");
+            Cli.assertUnusable(r, b, "cannot be used: 1 error found by the validator");
             assertTrue(r.err().contains(b + ": [ProductScopesOverlap]"), r::describe);
         }
         assertTrue(Files.notExists(dir.resolve("out.json")) && Files.notExists(dir.resolve("p.npz")));

@@ -60,12 +60,48 @@ class RegionsCommandTest {
     }
 
     @Test
-    void random_hundredMillionVariables_refusedBeforeWorkNamingMaxNodes() {
-        // 1e8 variables split to depth 3 hold 1e8 + 3 * 1e8 variable references, past the default --max-nodes.
+    void random_hundredMillionVariables_refusedBeforeWorkNamingMaxVars() {
+        // 1e8 variables took 6.4 GB and 50 s (measured); at any depth they pass the default --max-vars (1e7)
+        // before anything is allocated (Cli.run's guard stops a run that does the work)
+        for (String depth : new String[] {"0", "1", "3"}) {
+            Path out = tmp.resolve("big.json");
+            Cli.Result r = Cli.run("regions", "random", "--vars", "100000000", "--depth", depth, "-o", out.toString());
+            Cli.assertUnusable(r, "--max-vars", "100000000 variables");
+            assertTrue(r.err().startsWith("circa: a random region graph of 100000000 variables is more than the limit of"
+                    + " 10000000 set by --max-vars") && r.err().contains("raise it with --max-vars"), r::describe);
+            assertFalse(Files.exists(out), "nothing written");
+        }
+        // with --max-vars raised, 1e8 variables split to depth 3 hold 1e8 + 3 * 1e8 variable references, past
+        // the default --max-nodes (2e8)
         Path out = tmp.resolve("big.json");
-        Cli.Result r = Cli.run("regions", "random", "--vars", "100000000", "--depth", "3", "-o", out.toString());
+        Cli.Result r = Cli.run("regions", "random", "--vars", "100000000", "--depth", "3", "--max-vars", "100000000",
+                "-o", out.toString());
         Cli.assertUnusable(r, "--max-nodes", "100000000 variables");
         assertFalse(Files.exists(out), "nothing written");
+    }
+
+    @Test
+    void random_variablesFilePastMaxVars_refusedNamingIt() throws Exception {
+        Path vars = Files.writeString(tmp.resolve("v.json"), "[{\"name\": \"inlet_pressure\", \"type\": \"real\"},"
+                + " {\"name\": \"valve\", \"type\": \"binary\"}, {\"name\": \"trips\", \"type\": \"count\"}]");
+        Path out = tmp.resolve("three.json");
+        Cli.Result r = Cli.run("regions", "random", "--variables", vars.toString(), "--depth", "1", "--max-vars", "2",
+                "-o", out.toString());
+        Cli.assertUnusable(r, "--max-vars", "3 variables is more than the limit of 2");
+        assertFalse(Files.exists(out), "nothing written");
+        Cli.Result ok = Cli.run("regions", "random", "--variables", vars.toString(), "--depth", "1", "--max-vars", "3",
+                "-o", out.toString());
+        assertEquals(ExitStatus.OK, ok.status(), ok::describe);
+    }
+
+    @Test
+    void random_millionVariablesAtDepthOne_accepted() throws Exception {
+        // within the default limits (1e6 <= 1e7 variables, 2e6 references <= 2e8): written whole
+        Path out = tmp.resolve("million.json");
+        Cli.Result r = Cli.run("regions", "random", "--vars", "1000000", "--depth", "1", "-o", out.toString());
+        assertEquals(ExitStatus.OK, r.status(), r::describe);
+        assertTrue(r.err().contains("1000000 variables, 3 regions"), r::describe);
+        assertTrue(Files.size(out) > 1_000_000 * 10L, "every variable written");
     }
 
     @Test

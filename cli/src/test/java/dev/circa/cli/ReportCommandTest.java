@@ -19,7 +19,7 @@ class ReportCommandTest {
         Cli.Result r = Cli.run("report", Cli.EXAMPLE.toString(), "--pairs", "inlet_pressure:valve", "-o",
                 out.toString());
         assertEquals(ExitStatus.OK, r.status(), r::describe);
-        assertTrue(r.err().contains("circa report: wrote " + out + " (valid model, 2 marginals, 1 pairs"), r::describe);
+        assertTrue(r.err().contains("circa report: wrote " + out + " (valid model, 2 marginals, 1 pair"), r::describe);
         String page = Files.readString(out);
         assertTrue(page.startsWith("<!DOCTYPE html>") && page.endsWith("</html>\n"));
         for (String id : new String[] {"summary", "verdict", "checks", "marginals", "pairs", "structure"}) {

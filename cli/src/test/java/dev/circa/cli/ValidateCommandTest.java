@@ -127,7 +127,7 @@ class ValidateCommandTest {
     void inspect_formatExample_listsSizesAndTree() {
         Cli.Result r = Cli.run("inspect", EXAMPLE);
         assertEquals(0, r.status(), r.err());
-        assertTrue(r.out().contains("nodes:     7 (4 inputs, 2 products, 1 sums)"), r.out());
+        assertTrue(r.out().contains("nodes:     7 (4 inputs, 2 products, 1 sum)"), r.out());
         assertTrue(r.out().contains("variable tree: [0, 1]"), r.out());
     }
 }

@@ -1,5 +1,6 @@
 package dev.circa.model;
 
+import dev.circa.format.Counts;
 import dev.circa.engine.CompiledCircuit;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.certificate.Certificate;
@@ -82,7 +83,7 @@ public final class Certifier {
         List<String> failures = new ArrayList<>();
         ValidationReport report = new Validator(requirement.validationOptions()).validate(doc);
         if (!report.valid()) {
-            failures.add(name + ": " + report.count(Severity.ERROR) + " error(s) found by the validator");
+            failures.add(name + ": " + Counts.of(report.count(Severity.ERROR), "error") + " found by the validator");
             return new Certification(null, report, null, List.of(), failures);
         }
         CompiledCircuit circuit = ModelLoader.compile(name, doc);
@@ -91,7 +92,7 @@ public final class Certifier {
         embedded.checkEmbedded(doc);
         CheckReport checks = embedded.report();
         if (!checks.passed()) {
-            failures.add(name + ": " + checks.failures() + " of " + checks.cases() + " embedded check case(s) failed");
+            failures.add(name + ": " + checks.failures() + " of " + Counts.of(checks.cases(), "embedded check case") + " failed");
         }
         List<CheckReport> refReports = new ArrayList<>();
         List<Certificate.ReferenceEvidence> evidence = new ArrayList<>();
@@ -108,7 +109,7 @@ public final class Certifier {
             CheckReport r = check.report();
             refReports.add(r);
             if (!r.passed()) {
-                failures.add(refName + ": " + r.failures() + " of " + r.cases() + " row(s) beyond tolerance");
+                failures.add(refName + ": " + r.failures() + " of " + Counts.of(r.cases(), "row") + " beyond tolerance");
             } else if (r.cases() == 0) {
                 failures.add(refName + ": the reference set has no rows");
             }

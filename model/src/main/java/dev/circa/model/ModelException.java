@@ -1,5 +1,6 @@
 package dev.circa.model;
 
+import dev.circa.format.Counts;
 import dev.circa.format.io.FormatException;
 import dev.circa.validator.Diagnostic;
 import dev.circa.validator.Property;
@@ -64,8 +65,8 @@ public class ModelException extends FormatException {
         for (Property p : requirement.properties()) {
             required.add(p.optionName());
         }
-        StringBuilder problem = new StringBuilder("cannot be used: ").append(errors.size())
-                .append(" error(s) found by the validator (required: ")
+        StringBuilder problem = new StringBuilder("cannot be used: ").append(Counts.of(errors.size(), "error"))
+                .append(" found by the validator (required: ")
                 .append(required.length() == 0 ? "no property" : required.toString())
                 .append(", with valid references and parameters)");
         for (int i = 0; i < Math.min(QUOTED, errors.size()); i++) {

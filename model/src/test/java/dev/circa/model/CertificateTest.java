@@ -116,7 +116,7 @@ class CertificateTest {
         assertFalse(c.passed());
         assertNull(c.certificate());
         assertEquals(1, c.failures().size(), c.failures().toString());
-        assertTrue(c.failures().get(0).endsWith("off.csv: 30 of 30 row(s) beyond tolerance"), c.failures().get(0));
+        assertTrue(c.failures().get(0).endsWith("off.csv: 30 of 30 rows beyond tolerance"), c.failures().get(0));
     }
 
     @Test

@@ -12,6 +12,11 @@ public final class Counts {
         return of(n, singular, singular + "s");
     }
 
+    /** {@code n} with thousands separators and {@code singular}, with an "s" unless {@code n} is 1: "1,000 rows". */
+    public static String grouped(long n, String singular) {
+        return String.format(Locale.ROOT, "%,d %s", n, n == 1 ? singular : singular + "s");
+    }
+
     /** {@code n} and {@code singular} or {@code plural}. */
     public static String of(long n, String singular, String plural) {
         return String.format(Locale.ROOT, "%d %s", n, n == 1 ? singular : plural);

@@ -46,9 +46,15 @@ public final class CircuitScorer {
         return new CircuitScorer(model, List.of(), null, true);
     }
 
-    /** The conditional given {@code columns} (each must be a column naming a variable). */
+    /**
+     * The conditional given {@code columns} (each must be a column naming a variable): a name is a
+     * variable's exactly as written, else without surrounding white space (as a comma-separated option
+     * gives it: {@code --given "a, b"}).
+     */
     public CircuitScorer given(List<String> columns) {
-        return new CircuitScorer(model, columns.stream().map(String::strip).toList(), output, allVariables);
+        List<Variable> vars = model.compiled().variables();
+        return new CircuitScorer(model, columns.stream()
+                .map(g -> vars.stream().anyMatch(v -> v.name().equals(g)) ? g : g.strip()).toList(), output, allVariables);
     }
 
     /** Only the output named {@code name}, in a column named {@code log_density}. */

@@ -50,7 +50,7 @@ final class ColumnBinding implements Serializable {
         boolean[] bound = new boolean[vars.size()];
         for (int c = 0; c < fields.length; c++) {
             names[c] = fields[c].name();
-            map[c] = indexOf(vars, fields[c].name().strip());
+            map[c] = indexOf(vars, fields[c].name());
             if (map[c] < 0) {
                 continue;
             }

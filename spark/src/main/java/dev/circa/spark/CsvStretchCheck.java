@@ -45,10 +45,7 @@ final class CsvStretchCheck implements FlatMapFunction<Iterator<Row>, PartialRep
     public Iterator<PartialReport> call(Iterator<Row> rows) throws Exception {
         SparkModel m = model.value();
         CompiledCircuit c = m.compiled();
-        List<String> outputs = new ArrayList<>();
-        for (int o = 0; o < c.outputCount(); o++) {
-            outputs.add(c.outputName(o));
-        }
+        List<String> outputs = m.outputNames();
         List<PartialReport> parts = new ArrayList<>();
         LineStretches stretches = new LineStretches(rows);
         while (stretches.hasNext()) {

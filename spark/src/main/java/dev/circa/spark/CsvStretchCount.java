@@ -30,8 +30,10 @@ final class CsvStretchCount implements FlatMapFunction<Iterator<Row>, CsvStretch
      * @param records its records, the header not counted
      * @param header the header line (first split only, else null)
      * @param headerLine the header's line number (first split only)
+     * @param readWhole whether the file must be read whole by circa's reader ({@link LineStretches.Stretch#readWhole})
      */
-    record Count(long start, long lines, long records, String header, int headerLine) implements Serializable {
+    record Count(long start, long lines, long records, String header, int headerLine, boolean readWhole)
+            implements Serializable {
     }
 
     @Override
@@ -59,7 +61,7 @@ final class CsvStretchCount implements FlatMapFunction<Iterator<Row>, CsvStretch
                 // the second pass meets the same problem and reports it with the file's line numbers
             }
             text.drain();
-            counts.add(new Count(start, text.lines(), records, header, headerLine));
+            counts.add(new Count(start, text.lines(), records, header, headerLine, text.readWhole()));
         }
         return counts.iterator();
     }

@@ -69,16 +69,20 @@ public final class DistributedCheck {
         List<CsvStretchCount.Count> counts = new ArrayList<>(
                 Jobs.run(() -> lines.javaRDD().mapPartitions(new CsvStretchCount(model)).collect()));
         counts.sort(Comparator.comparingLong(CsvStretchCount.Count::start));
+        if (counts.stream().anyMatch(CsvStretchCount.Count::readWhole)) {
+            // a quoted cell holds a line break (a record may span two splits), or the text is not UTF-8:
+            // one task reads the file whole from its bytes, as circa check does
+            WholeFileCheck whole = new WholeFileCheck(shipped, file, tolerance);
+            return Jobs.run(() -> JavaSparkContext.fromSparkContext(spark.sparkContext()).binaryFiles(file, 1)
+                    .mapPartitions(whole).collect());
+        }
         if (counts.isEmpty() || counts.get(0).header() == null) {
             throw new FormatException(file, 1, 1, null,
                     "the file is empty; expected a header of variable names, log_density and optionally output");
         }
         CsvStretchCount.Count head = counts.get(0);
         CompiledCircuit c = model.compiled();
-        List<String> outputs = new ArrayList<>();
-        for (int o = 0; o < c.outputCount(); o++) {
-            outputs.add(c.outputName(o));
-        }
+        List<String> outputs = model.outputNames();
         // the header is checked here, before any work, with the reader that checks it in circa check
         new ReferenceSetReader(new CsvReader(new StringReader(head.header()), file, model.limits(), head.headerLine()),
                 c.variables(), outputs);
@@ -104,7 +108,7 @@ public final class DistributedCheck {
         int output = -1;
         StructField[] fields = raw.schema().fields();
         for (int k = 0; k < fields.length; k++) {
-            String name = fields[k].name().strip();
+            String name = fields[k].name();
             if (name.equals(ReferenceSetReader.LOG_DENSITY)) {
                 density = k;
                 if (!fields[k].dataType().equals(DataTypes.DoubleType)) {

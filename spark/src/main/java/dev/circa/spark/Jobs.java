@@ -15,7 +15,9 @@ final class Jobs {
     static <T> T run(Supplier<T> job) throws FormatException {
         try {
             return job.get();
-        } catch (RuntimeException e) {
+        } catch (Exception e) {
+            // Exception, not RuntimeException: a failed job throws SparkException, a checked exception that
+            // Scala code throws undeclared; rethrown as it came when no input problem caused it
             for (Throwable t = e; t != null; t = t.getCause()) {
                 if (t instanceof FormatException f) {
                     throw f;

@@ -42,6 +42,7 @@ final class LineStretches {
         private String current;
         private int pos;
         private long lines;
+        private boolean readWhole;
         private boolean done;
 
         private Stretch(long start, String prefix) {
@@ -52,6 +53,17 @@ final class LineStretches {
         /** Lines of the file read so far (not counting the prefix). */
         long lines() {
             return lines;
+        }
+
+        /**
+         * Whether the file must be read whole, from its bytes, by circa's own reader: a line read so far
+         * has an odd number of {@code "} (a quoted cell goes on past its end, so records may span the
+         * stretches' boundaries; see {@link DataFiles}), or a character the line reader makes of bytes
+         * that are not UTF-8 text (U+FFFD in place of malformed bytes, U+0000 from UTF-16 or UTF-32 text),
+         * which circa's reader decodes or reports at their own line and column.
+         */
+        boolean readWhole() {
+            return readWhole;
         }
 
         /** Reads to the end of the stretch. */
@@ -67,6 +79,11 @@ final class LineStretches {
                 return false;
             }
             current = (peeked.isNullAt(0) ? "" : peeked.getString(0)) + "\n";
+            int quotes = 0;
+            for (int i = current.indexOf('"'); i >= 0; i = current.indexOf('"', i + 1)) {
+                quotes++;
+            }
+            readWhole |= (quotes & 1) == 1 || current.indexOf('\uFFFD') >= 0 || current.indexOf('\u0000') >= 0;
             pos = 0;
             lines++;
             peeked = rows.hasNext() ? rows.next() : null;

@@ -96,6 +96,9 @@ final class ParquetCheck implements FlatMapFunction<Iterator<Row>, PartialReport
             return 0;
         }
         Object v = r.get(outputColumn);
+        if (v instanceof String && c.outputIndex((String) v) >= 0) {
+            return c.outputIndex((String) v);
+        }
         String s = String.valueOf(v).strip();
         if (s.isEmpty()) {
             return 0;

@@ -1,5 +1,6 @@
 package dev.circa.spark;
 
+import dev.circa.format.Counts;
 import dev.circa.model.Model;
 import dev.circa.model.ModelException;
 import dev.circa.validator.Diagnostic;
@@ -80,8 +81,8 @@ public final class SparkModel implements Serializable {
             for (Diagnostic d : e.diagnostics().subList(0, Math.min(20, e.diagnostics().size()))) {
                 err.println(path + ": " + d.render());
             }
-            throw new FormatException(path.toString(), 0, 0, null, "cannot be used: " + e.diagnostics().size()
-                    + " error(s) found by the validator (listed above; a circuit must at least be smooth and "
+            throw new FormatException(path.toString(), 0, 0, null, "cannot be used: " + Counts.of(e.diagnostics().size(), "error")
+                    + " found by the validator (listed above; a circuit must at least be smooth and "
                     + "decomposable, with valid references and parameters; run circa validate for the full report)");
         }
         try {
@@ -115,6 +116,16 @@ public final class SparkModel implements Serializable {
             return loaded.circuit();
         }
         return COMPILED.computeIfAbsent(key, k -> compile());
+    }
+
+    /** The names of the compiled circuit's outputs, in order (as a reference set's reader takes them). */
+    java.util.List<String> outputNames() {
+        CompiledCircuit c = compiled();
+        java.util.List<String> names = new java.util.ArrayList<>();
+        for (int o = 0; o < c.outputCount(); o++) {
+            names.add(c.outputName(o));
+        }
+        return names;
     }
 
     private CompiledCircuit compile() {

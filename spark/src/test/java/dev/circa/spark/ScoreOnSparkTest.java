@@ -198,7 +198,7 @@ class ScoreOnSparkTest {
         LocalSpark.Run run = LocalSpark.circaSpark("score", LocalSpark.REGIMES.toString(), "--data", bad.toString(),
                 "-o", dir.resolve("bad-out").toString());
         assertEquals(2, run.status());
-        assertTrue(run.err().contains("column valve: \"ajar\" is not a value of valve"), run.err());
+        assertTrue(run.err().startsWith("circa-spark: column valve: \"ajar\" is not a value of valve"), run.err());
         assertTrue(run.err().contains("inlet_pressure=3.1"), run.err());
         assertTrue(Files.notExists(dir.resolve("bad-out").resolve("_SUCCESS")));
     }

@@ -27,10 +27,20 @@ public enum ReportFormat {
 
     /** {@code reports} (one per file, in the order given) in this format, ending with a newline. */
     public String render(List<ValidationReport> reports) {
+        return renderOutcomes(reports.stream().map(ValidationOutcome::of).toList());
+    }
+
+    /**
+     * One entry per file given, in order, ending with a newline. JSON gives a file that could not be
+     * read a status-2 entry with its located message; SARIF puts it among the invocation's tool
+     * execution notifications; the text form leaves it out (its message goes to standard error).
+     */
+    public String renderOutcomes(List<ValidationOutcome> outcomes) {
         return switch (this) {
-            case TEXT -> TextReport.render(reports);
-            case JSON -> JsonReport.render(reports);
-            case SARIF -> SarifReport.render(reports);
+            case TEXT -> TextReport.render(outcomes.stream().filter(o -> o.report() != null)
+                    .map(ValidationOutcome::report).toList());
+            case JSON -> JsonReport.render(outcomes);
+            case SARIF -> SarifReport.render(outcomes);
         };
     }
 }

@@ -254,9 +254,9 @@ final class CheckedModel {
         for (int k = 0; k < limits.size(); k++) {
             Limit limit = limits.get(k);
             String name = f.parameters().get(k);
-            // trials must also fit the sampler's int
-            if (limit == Limit.COUNT && !(limit.holds(p[k], Integer.MAX_VALUE) && p[k] <= Integer.MAX_VALUE)) {
-                throw error(doc, l, path, "binomial trials " + fmt(p[k]) + " is not an integer >= 0");
+            if (limit == Limit.COUNT && !limit.holds(p[k], Integer.MAX_VALUE)) {
+                throw error(doc, l, path, "binomial trials " + fmt(p[k])
+                        + " is not a whole number from 0 to 2^53 (9007199254740992)");
             }
             if (limit == Limit.POSITIVE) {
                 positive(doc, p[k], name, l, path);

@@ -47,17 +47,35 @@ final class GaussianMath {
         return 2 * s;
     }
 
-    /** log N(x; mean, L L^T) with {@code l} the Cholesky factor; {@code work} has length >= d. */
+    /**
+     * log N(x; mean, L L^T) with {@code l} the Cholesky factor; {@code work} has length >= d. The
+     * quadratic form never meets 0 * inf: zero entries of L are skipped, a whitened coordinate beyond
+     * double range gives -inf at once, and when some x - mean overflows while x is finite, everything
+     * is computed on halves (the whitened vector is linear in x - mean) and the form scaled back.
+     */
     static double logDensity(double[] x, double[] mean, double[] l, int d, double logDet, double[] work) {
+        double h = 1;
+        for (int i = 0; i < d; i++) {
+            if (Double.isInfinite(x[i] - mean[i]) && Double.isFinite(x[i]) && Double.isFinite(mean[i])) {
+                h = 0.5;
+            }
+        }
         double q = 0;
         for (int i = 0; i < d; i++) {
-            double t = x[i] - mean[i];
+            double t = h * x[i] - h * mean[i];
             for (int k = 0; k < i; k++) {
-                t -= l[i * d + k] * work[k];
+                double lik = l[i * d + k];
+                if (lik != 0) {
+                    t -= lik * work[k];
+                }
             }
             work[i] = t / l[i * d + i];
+            if (Double.isInfinite(work[i])) {
+                return Double.NEGATIVE_INFINITY;
+            }
             q += work[i] * work[i];
         }
+        q = q / (h * h);
         return -0.5 * (d * LOG_2PI + logDet + q);
     }
 
@@ -70,17 +88,5 @@ final class GaussianMath {
             }
         }
         return s;
-    }
-
-    /** log(exp(a) + exp(b)) without overflow; -inf + -inf is -inf. */
-    static double logAdd(double a, double b) {
-        if (a == Double.NEGATIVE_INFINITY) {
-            return b;
-        }
-        if (b == Double.NEGATIVE_INFINITY) {
-            return a;
-        }
-        double m = Math.max(a, b);
-        return m + Math.log1p(Math.exp(-Math.abs(a - b)));
     }
 }

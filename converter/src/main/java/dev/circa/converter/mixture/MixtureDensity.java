@@ -1,5 +1,6 @@
 package dev.circa.converter.mixture;
 
+import dev.circa.converter.reference.LogSumExp;
 import dev.circa.converter.reference.ReferenceDensities;
 import dev.circa.format.Family;
 import dev.circa.format.io.FormatException;
@@ -127,7 +128,7 @@ public final class MixtureDensity {
                     if (lw == Double.NEGATIVE_INFINITY) {
                         continue;
                     }
-                    v = GaussianMath.logAdd(v, lw + normalVector(data, offset, gm.vars(), gm.means()[c],
+                    v = LogSumExp.add(v, lw + normalVector(data, offset, gm.vars(), gm.means()[c],
                             gm.covariances()[c], 0, fullFactor[i][c], fullLogDet[i][c]));
                 }
             } else if (e instanceof ProductExpr) {
@@ -140,7 +141,7 @@ public final class MixtureDensity {
                 double[] lw = logWeights[i];
                 for (int j = 0; j < kids.length; j++) {
                     if (lw[j] != Double.NEGATIVE_INFINITY) {
-                        v = GaussianMath.logAdd(v, lw[j] + values[kids[j]]);
+                        v = LogSumExp.add(v, lw[j] + values[kids[j]]);
                     }
                 }
             }

@@ -32,10 +32,8 @@ public final class ReferenceDensities {
             }
             case INDICATOR:
                 return x == p[0] ? 0 : Double.NEGATIVE_INFINITY;
-            case NORMAL: {
-                double z = (x - p[0]) / p[1];
-                return -0.5 * z * z - Math.log(p[1]) - HALF_LOG_2PI;
-            }
+            case NORMAL:
+                return normal(x, p[0], p[1], Math.log(p[1]));
             case LOGNORMAL: {
                 if (!(x > 0)) {
                     return Double.NEGATIVE_INFINITY;
@@ -47,16 +45,9 @@ public final class ReferenceDensities {
             case EXPONENTIAL:
                 return x >= 0 ? Math.log(p[0]) - p[0] * x : Double.NEGATIVE_INFINITY;
             case GAMMA:
-                if (!(x > 0)) {
-                    return Double.NEGATIVE_INFINITY;
-                }
-                return p[0] * Math.log(p[1]) + (p[0] - 1) * Math.log(x) - p[1] * x - logGamma(p[0]);
+                return gamma(x, p[0], p[1]);
             case BETA:
-                if (!(x > 0 && x < 1)) {
-                    return Double.NEGATIVE_INFINITY;
-                }
-                return (p[0] - 1) * Math.log(x) + (p[1] - 1) * Math.log1p(-x)
-                        - (logGamma(p[0]) + logGamma(p[1]) - logGamma(p[0] + p[1]));
+                return beta(x, p[0], p[1]);
             case UNIFORM:
                 if (!(x >= p[0] && x <= p[1])) {
                     return Double.NEGATIVE_INFINITY;
@@ -64,26 +55,50 @@ public final class ReferenceDensities {
                 // a width beyond double range: log(high - low) = log(high / 2 - low / 2) + log 2
                 return p[1] - p[0] < Double.POSITIVE_INFINITY ? -Math.log(p[1] - p[0])
                         : -(Math.log(0.5 * p[1] - 0.5 * p[0]) + Math.log(2));
-            case POISSON: {
+            case POISSON:
                 if (!(x >= 0) || x != Math.rint(x)) {
                     return Double.NEGATIVE_INFINITY;
                 }
-                return x * Math.log(p[0]) - p[0] - logGamma(x + 1);
-            }
-            case BINOMIAL: {
-                double n = p[0];
-                double q = p[1];
-                if (!(x >= 0 && x <= n) || x != Math.rint(x)) {
-                    return Double.NEGATIVE_INFINITY;
-                }
-                double c = logGamma(n + 1) - logGamma(x + 1) - logGamma(n - x + 1);
-                double a = x == 0 ? 0 : x * Math.log(q);
-                double b = x == n ? 0 : (n - x) * Math.log1p(-q);
-                return c + a + b;
-            }
+                return x == Double.POSITIVE_INFINITY ? Double.NEGATIVE_INFINITY : SaddlePoint.logPoisson(x, p[0]);
+            case BINOMIAL:
+                return binomial(x, p[0], p[1]);
             default:
                 throw new IllegalArgumentException("not a one-variable family: " + f);
         }
+    }
+
+    /**
+     * Adds the log-value of one input at each of {@code n} cells, {@code data[from + i * stride]}, to
+     * {@code dst[at + i]}; a missing cell (NaN) adds nothing. The same numbers as {@link #logValue} cell by
+     * cell, with what depends on the parameters only computed once.
+     */
+    public static void addLogValues(Family f, double[] p, double[] data, int from, int stride, int n, double[] dst,
+            int at) {
+        if (f == Family.NORMAL) {
+            double mean = p[0];
+            double sd = p[1];
+            double logSd = Math.log(sd);
+            for (int i = 0, cell = from; i < n; i++, cell += stride) {
+                double x = data[cell];
+                if (!Double.isNaN(x)) {
+                    dst[at + i] += normal(x, mean, sd, logSd);
+                }
+            }
+            return;
+        }
+        for (int i = 0, cell = from; i < n; i++, cell += stride) {
+            double x = data[cell];
+            if (!Double.isNaN(x)) {
+                dst[at + i] += logValue(f, p, x);
+            }
+        }
+    }
+
+    /** The normal log-density; a difference x - mean beyond double range is divided term by term. */
+    private static double normal(double x, double mean, double sd, double logSd) {
+        double d = x - mean;
+        double z = Double.isInfinite(d) && Double.isFinite(x) ? x / sd - mean / sd : d / sd;
+        return -0.5 * z * z - logSd - HALF_LOG_2PI;
     }
 
     private static int state(double x, int k) {
@@ -93,10 +108,99 @@ public final class ReferenceDensities {
         return (int) x;
     }
 
-    /** log Gamma(x) for x &gt; 0 (Lanczos approximation, with reflection below 1/2). */
+    /** Shapes from which the beta density is computed in the saddle-point form (common practice: large terms cancel there). */
+    private static final double BETA_SADDLE_FROM = 10;
+
+    /** The gamma log-density (shape a, rate b) on its open support, as a Poisson mass with real count (b x)^(a - 1). */
+    private static double gamma(double x, double a, double b) {
+        if (!(x > 0) || x == Double.POSITIVE_INFINITY) {
+            return Double.NEGATIVE_INFINITY;
+        }
+        double y = b * x;
+        if (y == Double.POSITIVE_INFINITY) {
+            return Double.NEGATIVE_INFINITY;
+        }
+        if (y < Double.MIN_NORMAL) {
+            // b x below the normal range: a log b + (a - 1) log x - b x - log Gamma(a), its logarithm from the factors'
+            double logY = Math.log(b) + Math.log(x);
+            return Math.log(b) + (a - 1) * logY - y - logGamma(a);
+        }
+        return a >= 1 ? Math.log(b) + SaddlePoint.logPoisson(a - 1, y)
+                : Math.log(a) - Math.log(x) + SaddlePoint.logPoisson(a, y);
+    }
+
+    /**
+     * The beta log-density on its open support (0, 1): for both shapes from {@value #BETA_SADDLE_FROM} as
+     * (a + b - 1) times the binomial mass of a - 1 in a + b - 2 trials at x, in the saddle-point form
+     * (halving every size when a + b overflows: the deviance is homogeneous); otherwise from log B(a, b).
+     */
+    private static double beta(double x, double a, double b) {
+        if (!(x > 0 && x < 1)) {
+            return Double.NEGATIVE_INFINITY;
+        }
+        if (a < BETA_SADDLE_FROM || b < BETA_SADDLE_FROM) {
+            return (a - 1) * Math.log(x) + (b - 1) * Math.log1p(-x) - logBeta(a, b);
+        }
+        double scale = a + b < Double.POSITIVE_INFINITY ? 1 : 2;
+        double k1 = a - 1;
+        double k2 = b - 1;
+        double n = a / scale + b / scale - 2 / scale;
+        double dev = scale * (SaddlePoint.devianceAt(k1 / scale, n, x) + SaddlePoint.devianceAt(k2 / scale, n, 1 - x));
+        double logN = Math.log(n) + Math.log(scale);
+        double lc = SaddlePoint.stirlingError(n * scale) - SaddlePoint.stirlingError(k1) - SaddlePoint.stirlingError(k2) - dev;
+        double lf = SaddlePoint.LOG_2PI + Math.log(k1) + Math.log(k2) - logN;
+        double logSize = Math.log(a / scale + b / scale - 1 / scale) + Math.log(scale);
+        return logSize + lc - 0.5 * lf;
+    }
+
+    /** log B(a, b); when one shape is large, log Gamma of it and of the sum are taken together (they nearly cancel). */
+    static double logBeta(double a, double b) {
+        double lo = Math.min(a, b);
+        double hi = Math.max(a, b);
+        if (hi < BETA_SADDLE_FROM) {
+            return logGamma(lo) + logGamma(hi) - logGamma(lo + hi);
+        }
+        if (lo >= BETA_SADDLE_FROM) {
+            // both large: log Gamma(z) = stirling(z) + (z - 1/2) log z - z + log sqrt(2 pi), the z log z terms taken together
+            double s = lo + hi;
+            double logS = s < Double.POSITIVE_INFINITY ? Math.log(s) : Math.log(0.5 * lo + 0.5 * hi) + Math.log(2);
+            return SaddlePoint.stirlingError(lo) + SaddlePoint.stirlingError(hi) - SaddlePoint.stirlingError(s)
+                    + SaddlePoint.HALF_LOG_2PI - lo * Math.log1p(hi / lo) - hi * Math.log1p(lo / hi)
+                    - 0.5 * (Math.log(lo) + Math.log(hi) - logS);
+        }
+        // log Gamma(hi) - log Gamma(lo + hi) = stirling(hi) - stirling(lo + hi) - (hi - 1/2) log(1 + lo / hi) - lo log(lo + hi) + lo
+        double s = lo + hi;
+        return logGamma(lo) + SaddlePoint.stirlingError(hi) - SaddlePoint.stirlingError(s)
+                - (hi - 0.5) * Math.log1p(lo / hi) - lo * Math.log(s) + lo;
+    }
+
+    /** The binomial log-mass of x successes in n trials with success probability q, in the saddle-point form. */
+    private static double binomial(double x, double n, double q) {
+        if (!(x >= 0 && x <= n) || x != Math.rint(x)) {
+            return Double.NEGATIVE_INFINITY;
+        }
+        if (n == 0) {
+            return 0;
+        }
+        if (x == 0) {
+            return n * Math.log1p(-q);
+        }
+        if (x == n) {
+            return n * Math.log(q);
+        }
+        if (q == 0 || q == 1) {
+            return Double.NEGATIVE_INFINITY;
+        }
+        double lc = SaddlePoint.stirlingError(n) - SaddlePoint.stirlingError(x) - SaddlePoint.stirlingError(n - x)
+                - SaddlePoint.devianceAt(x, n, q) - SaddlePoint.devianceAt(n - x, n, 1 - q);
+        double lf = SaddlePoint.LOG_2PI + Math.log(x) + Math.log1p(-x / n);
+        return lc - 0.5 * lf;
+    }
+
+    /** log Gamma(x) for x &gt; 0 (Lanczos approximation; below 1/2 from log Gamma(x + 1) - log x). */
     public static double logGamma(double x) {
         if (x < 0.5) {
-            return Math.log(Math.PI / Math.abs(Math.sin(Math.PI * x))) - logGamma(1 - x);
+            return logGamma(x + 1) - Math.log(x);
         }
         double y = x - 1;
         double a = LANCZOS[0];

@@ -1,5 +1,7 @@
 package dev.circa.converter.regions;
 
+import dev.circa.format.Counts;
+import dev.circa.validator.ValidationOptions;
 import dev.circa.converter.npz.NpyArray;
 import dev.circa.converter.npz.NpzArchive;
 import dev.circa.engine.family.ParameterLimits;
@@ -62,11 +64,11 @@ final class ArchiveParameters {
                 int c = layout.children(r);
                 if (wa == null && la == null) {
                     throw fail(lin, "missing: region " + s.id(r) + " needs " + lin + " (or " + log + ") of shape "
-                            + NpyArray.shapeText(new int[] {k, c}) + " (" + k + " sums by " + c + " children)");
+                            + NpyArray.shapeText(new int[] {k, c}) + " (" + Counts.of(k, "sum") + " by " + Counts.of(c, "child", "children") + ")");
                 }
                 NpyArray arr = wa != null ? wa : la;
                 logw[r] = wa == null;
-                shape(arr, new int[] {k, c}, k + " sums by " + c + " children");
+                shape(arr, new int[] {k, c}, Counts.of(k, "sum") + " by " + Counts.of(c, "child", "children"));
                 used.add(arr.name());
                 w[r] = new double[k][];
                 for (int t = 0; t < k; t++) {
@@ -86,6 +88,7 @@ final class ArchiveParameters {
                         }
                         row[j] = x;
                     }
+                    checkAddsToOne(arr.name(), t, row, logw[r]);
                     w[r][t] = row;
                 }
             }
@@ -150,10 +153,10 @@ final class ArchiveParameters {
                                     + " expected " + id + ".v<VAR>.probs per variable");
                         }
                     }
-                    shape(sh, new int[] {bundles, g, states}, bundles + " bundles by " + g + " variables by "
-                            + states + " states");
+                    shape(sh, new int[] {bundles, g, states}, Counts.of(bundles, "bundle") + " by " + Counts.of(g, "variable") + " by "
+                            + Counts.of(states, "state"));
                 } else {
-                    shape(sh, new int[] {bundles, g}, bundles + " bundles by " + g + " variables in the order of vars");
+                    shape(sh, new int[] {bundles, g}, Counts.of(bundles, "bundle") + " by " + Counts.of(g, "variable") + " in the order of vars");
                 }
                 for (int gi = 0; gi < g; gi++) {
                     int j = group[gi];
@@ -182,7 +185,7 @@ final class ArchiveParameters {
                                 + NpyArray.shapeText(alt));
                     }
                     used.add(per);
-                    shape(pa, want, probs ? bundles + " bundles by " + want[1] + " states" : bundles + " bundles");
+                    shape(pa, want, probs ? Counts.of(bundles, "bundle") + " by " + Counts.of(want[1], "state") : Counts.of(bundles, "bundle"));
                     values[j][fam[j].parameters().indexOf(q)] = pa.values();
                 }
             }
@@ -253,10 +256,41 @@ final class ArchiveParameters {
         return a.contains(per) ? per : "r" + s.id(r) + "." + param;
     }
 
+    /**
+     * Refuses a sum whose weights do not add to 1 (log-weights: whose log-sum-exp is not 0) within the
+     * validator's default tolerance, naming the array and the row, before a circuit is made of them.
+     */
+    private void checkAddsToOne(String array, int row, double[] x, boolean log) throws FormatException {
+        double total;
+        if (log) {
+            double m = Double.NEGATIVE_INFINITY;
+            for (double v : x) {
+                m = Math.max(m, v);
+            }
+            double acc = 0;
+            for (double v : x) {
+                acc += Math.exp(v - m);
+            }
+            total = m + Math.log(acc);
+        } else {
+            total = 0;
+            for (double v : x) {
+                total += v;
+            }
+        }
+        double off = log ? Math.abs(total) : Math.abs(total - 1);
+        if (!(off <= ValidationOptions.DEFAULT_TOLERANCE)) {
+            throw fail(array, String.format(Locale.ROOT, "row [%d, :] (the weights of sum %d of its region) %s %s; "
+                    + "expected %s within %s", row, row, log ? "has log-sum-exp" : "adds to", total,
+                    log ? "0 (weights adding to 1)" : "1", ValidationOptions.DEFAULT_TOLERANCE));
+        }
+    }
+
     private void shape(NpyArray arr, int[] want, String meaning) throws FormatException {
         if (!Arrays.equals(arr.shape(), want)) {
             throw fail(arr.name(), "has shape " + arr.shapeText() + "; expected " + NpyArray.shapeText(want) + " ("
-                    + meaning + ")");
+                    + meaning + ", compiling with K=" + o.sums() + ", I=" + o.inputs() + ", C=" + o.outputs()
+                    + "); check that --sums, --inputs and --outputs match those the archive was written for");
         }
     }
 

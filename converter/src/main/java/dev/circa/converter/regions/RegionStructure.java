@@ -1,5 +1,6 @@
 package dev.circa.converter.regions;
 
+import dev.circa.format.Counts;
 import dev.circa.format.SourceLocation;
 import dev.circa.format.Variable;
 import dev.circa.format.io.FormatException;
@@ -58,10 +59,10 @@ public final class RegionStructure {
         int nv = graph.variables().size();
         int nr = regions.size();
         if (nv == 0) {
-            throw fail(graph, SourceLocation.of("/variables"), "a region graph needs at least one variable");
+            throw fail(graph, graph.location("/variables"), "a region graph needs at least one variable");
         }
         if (nr == 0) {
-            throw fail(graph, SourceLocation.of("/regions"), "a region graph needs at least one region (the root)");
+            throw fail(graph, graph.location("/regions"), "a region graph needs at least one region (the root)");
         }
         checkVariables(graph);
         Map<Integer, Integer> byId = new HashMap<>(nr * 2);
@@ -111,8 +112,8 @@ public final class RegionStructure {
             }
             int[] parts = part.parts();
             if (parts.length < 2) {
-                throw fail(graph, at, "the partition of region " + part.region() + " has " + parts.length
-                        + " part; expected at least 2");
+                throw fail(graph, at, "the partition of region " + part.region() + " has "
+                        + Counts.of(parts.length, "part") + "; expected at least 2");
             }
             int[] resolved = new int[parts.length];
             int covered = 0;
@@ -145,7 +146,7 @@ public final class RegionStructure {
             }
             if (covered != vars[r].length) {
                 throw fail(graph, at, "the parts of region " + part.region() + " cover " + covered + " of its "
-                        + vars[r].length + " variables; expected parts that together equal the region");
+                        + Counts.of(vars[r].length, "variable") + "; expected parts that together equal the region");
             }
             partitionRegion[p] = r;
             partitionParts[p] = resolved;
@@ -165,7 +166,7 @@ public final class RegionStructure {
             }
         }
         if (root < 0) {
-            throw fail(graph, SourceLocation.of("/regions"),
+            throw fail(graph, graph.location("/regions"),
                     "every region is the part of some partition, so there is no root and the graph has a cycle");
         }
         if (vars[root].length != nv) {
@@ -253,7 +254,7 @@ public final class RegionStructure {
         List<Variable> vars = graph.variables();
         for (int i = 0; i < vars.size(); i++) {
             Variable v = vars.get(i);
-            SourceLocation at = SourceLocation.of("/variables/" + i);
+            SourceLocation at = graph.location("/variables/" + i);
             if (v.name().isEmpty()) {
                 throw fail(graph, at, "variable " + i + " has an empty name; expected a non-empty, unique name");
             }
@@ -266,7 +267,7 @@ public final class RegionStructure {
             boolean unique = new java.util.HashSet<>(v.states()).size() == states;
             if (v.type() == dev.circa.format.VariableType.CATEGORICAL && (states < 2 || !unique)) {
                 throw fail(graph, at, "categorical variable \"" + v.name() + "\" has " + states
-                        + (unique ? "" : " (not unique)") + " states; expected at least 2 unique state labels");
+                        + (unique ? "" : " (not unique)") + (states == 1 ? " state" : " states") + "; expected at least 2 unique state labels");
             }
             if (v.type() == dev.circa.format.VariableType.BINARY && (states != 0 && states != 2 || !unique)) {
                 throw fail(graph, at, "binary variable \"" + v.name() + "\" has " + states

@@ -1,33 +1,64 @@
 package dev.circa.converter.regions;
 
+import dev.circa.converter.reference.LogSumExp;
 import dev.circa.converter.reference.ReferenceDensities;
 import dev.circa.format.Family;
+import java.util.Arrays;
 
 /**
  * Evaluates a compiled region graph directly from its parameters, region by region, without
- * building or reading a circuit: each region holds a tensor of shape (rows, its node count) of
- * log-values (bundles of a leaf, sums of an inner region), filled children first; a partition's
- * products are sums of its parts' log-values over the cross product (first part varying slowest)
- * and a sum is a log-sum-exp of weight plus child (as a scaled dot product, falling back to a
- * per-edge log-sum-exp when that underflows; the scaled form cut the time per row about threefold
- * on a 10^7-edge circuit). Rows are taken {@value #CHUNK_ROWS} at a time.
- * Written separately from the engine to check it.
+ * building or reading a circuit. Written separately from the engine to check it.
  *
- * <p>Not thread-safe (it keeps its tensors between calls).
+ * <p>Rows are taken in blocks of {@value #CHUNK_ROWS}. Each region holds a block of log-values (in a slot
+ * reused once the regions that read it are done, so memory stays small for any number of regions) laid out
+ * node by node, the block's rows side by side ({@code [node * CHUNK_ROWS + row]}), filled children first:
+ * a leaf's bundles are sums of its inputs' log-densities (a missing value counts 0); a partition's
+ * products are sums of its parts' log-values over the cross product (first part varying slowest); a sum
+ * is the log-sum-exp of weight plus child, computed for all rows of the block at once as a scaled
+ * product in linear space, {@code vmax + log(wmax) + log(sum_j (w_j / wmax) e^(v_j - vmax))} with
+ * {@code vmax} the row's largest child. A row whose scaled sum underflows (below 2^-900), whose
+ * largest child is not finite, or that meets a non-finite weight falls back to the exact per-edge
+ * log-sum-exp ({@link LogSumExp}). Each row is summed in one fixed order (children in layout order,
+ * parts in partition order), so a row's value does not depend on the other rows of the call.
+ *
+ * <p>The scaled weights are computed once and shared by the evaluators made with {@link #sharing()};
+ * each evaluator owns its blocks and reuses them on every call. Not thread-safe: one evaluator per thread.
  */
 public final class RegionTensorEvaluator {
-    /** Rows evaluated together: the tensors hold this many rows, whatever the number of rows asked for. */
+    /** Rows evaluated together: the blocks hold this many rows, whatever the number of rows asked for. */
     public static final int CHUNK_ROWS = 64;
+    /** Below this a scaled sum has lost too many digits: the row takes the exact per-edge log-sum-exp. */
+    private static final double SCALED_FLOOR = 0x1p-900;
+    /** Sums and rows of one register tile of the scaled product. */
+    private static final int TILE = 4;
 
     private final RegionParameters p;
     private final RegionStructure s;
     private final Layout layout;
-    private final double[][] logw;
+    private final int[] order;
+    /** The family of each variable. */
+    private final Family[] family;
+    /**
+     * Per region with sums: weight / largest weight of its sum, child by child ({@code [j * padded(k) + q]}, the
+     * sums padded with zero weights to a multiple of {@value #TILE}); null elsewhere.
+     */
     private final double[][] scaled;
+    /** Per region with sums: log of the largest weight of each sum (NaN when a weight is not usable as scaled). */
     private final double[][] shift;
-    private double[] expChild = new double[0];
-    private double[][] tensor;
-    private int capacity;
+    /** Per region: the slot that holds its block of log-values while a later region reads it. */
+    private final int[] slot;
+    /** Per slot: the number of nodes of the regions it serves. */
+    private final int[] slotSize;
+    /** Per slot: a block of {@code slotSize x CHUNK_ROWS} log-values, allocated on first use. */
+    private final double[][] block;
+    private final double[] child;
+    private final double[] expChild;
+    private final double[] vmax;
+    /** Scaled sums of the block: {@code [q * CHUNK_ROWS + row]}. */
+    private final double[] dot;
+    private final double[] column;
+    /** A leaf region's variables at the block's rows: {@code [j * CHUNK_ROWS + row]}. */
+    private final double[] columns;
     private int[] digit = new int[2];
 
     /** An evaluator of the model that {@code params} define. */
@@ -35,34 +66,144 @@ public final class RegionTensorEvaluator {
         this.p = params;
         this.s = params.structure();
         this.layout = params.layout();
+        this.order = s.order();
+        this.family = new Family[s.variables().size()];
+        for (int v = 0; v < family.length; v++) {
+            family[v] = params.family(v);
+        }
         int nr = s.regionCount();
-        this.logw = new double[nr][];
         this.scaled = new double[nr][];
         this.shift = new double[nr][];
         for (int r = 0; r < nr; r++) {
             if (layout.hasSums(r)) {
-                int k = layout.sums(r);
-                int c = layout.children(r);
-                double[] lw = new double[k * c];
-                double[] sw = new double[k * c];
-                double[] sh = new double[k];
-                for (int t = 0; t < k; t++) {
-                    double[] w = params.weights(r, t);
-                    double max = Double.NEGATIVE_INFINITY;
-                    for (int j = 0; j < c; j++) {
-                        lw[t * c + j] = params.logWeights(r) ? w[j] : Math.log(w[j]);
-                        max = Math.max(max, lw[t * c + j]);
-                    }
-                    sh[t] = max;
-                    for (int j = 0; j < c; j++) {
-                        sw[t * c + j] = max == Double.NEGATIVE_INFINITY ? 0 : Math.exp(lw[t * c + j] - max);
-                    }
-                }
-                logw[r] = lw;
-                scaled[r] = sw;
-                shift[r] = sh;
+                scale(r);
             }
         }
+        int maxChildren = 1;
+        for (int r = 0; r < nr; r++) {
+            maxChildren = Math.max(maxChildren, layout.children(r));
+        }
+        this.slot = new int[nr];
+        this.slotSize = assignSlots(s, layout, slot);
+        this.block = new double[slotSize.length][];
+        this.child = new double[maxChildren * CHUNK_ROWS];
+        this.expChild = new double[maxChildren * CHUNK_ROWS];
+        this.vmax = new double[CHUNK_ROWS];
+        int maxSums = TILE;
+        for (int r = 0; r < nr; r++) {
+            maxSums = Math.max(maxSums, padded(layout.sums(r)));
+        }
+        this.dot = new double[maxSums * CHUNK_ROWS];
+        this.column = new double[maxChildren];
+        int maxVars = 1;
+        for (int r = 0; r < nr; r++) {
+            maxVars = Math.max(maxVars, s.isLeaf(r) ? s.vars(r).length : 0);
+        }
+        this.columns = new double[maxVars * CHUNK_ROWS];
+    }
+
+    private RegionTensorEvaluator(RegionTensorEvaluator shared) {
+        this.p = shared.p;
+        this.s = shared.s;
+        this.layout = shared.layout;
+        this.order = shared.order;
+        this.family = shared.family;
+        this.scaled = shared.scaled;
+        this.shift = shared.shift;
+        this.slot = shared.slot;
+        this.slotSize = shared.slotSize;
+        this.block = new double[slotSize.length][];
+        this.child = new double[shared.child.length];
+        this.expChild = new double[shared.expChild.length];
+        this.vmax = new double[CHUNK_ROWS];
+        this.dot = new double[shared.dot.length];
+        this.column = new double[shared.column.length];
+        this.columns = new double[shared.columns.length];
+    }
+
+    /**
+     * Gives each region a slot, reused once every region that reads it is done (regions in
+     * {@link RegionStructure#order()}), so that the blocks held at once are few whatever the number of
+     * regions; returns each slot's size in nodes.
+     */
+    private static int[] assignSlots(RegionStructure s, Layout layout, int[] slot) {
+        int nr = s.regionCount();
+        int[] order = s.order();
+        int[] position = new int[nr];
+        for (int i = 0; i < nr; i++) {
+            position[order[i]] = i;
+        }
+        int[] lastUse = new int[nr];
+        Arrays.fill(lastUse, -1);
+        for (int part = 0; part < s.partitionCount(); part++) {
+            int reader = position[s.partitionRegion(part)];
+            for (int q : s.parts(part)) {
+                lastUse[q] = Math.max(lastUse[q], reader);
+            }
+        }
+        // regions whose last reader is at position i, as linked lists
+        int[] first = new int[nr];
+        int[] next = new int[nr];
+        Arrays.fill(first, -1);
+        for (int r = 0; r < nr; r++) {
+            if (lastUse[r] >= 0) {
+                next[r] = first[lastUse[r]];
+                first[lastUse[r]] = r;
+            }
+        }
+        java.util.Map<Integer, java.util.ArrayDeque<Integer>> free = new java.util.HashMap<>();
+        int[] sizes = new int[Math.max(1, nr)];
+        int slots = 0;
+        for (int i = 0; i < nr; i++) {
+            int r = order[i];
+            java.util.ArrayDeque<Integer> same = free.get(layout.size(r));
+            if (same != null && !same.isEmpty()) {
+                slot[r] = same.pop();
+            } else {
+                sizes[slots] = layout.size(r);
+                slot[r] = slots++;
+            }
+            for (int q = first[i]; q >= 0; q = next[q]) {
+                free.computeIfAbsent(layout.size(q), k -> new java.util.ArrayDeque<>()).push(slot[q]);
+            }
+        }
+        return Arrays.copyOf(sizes, slots);
+    }
+
+    /** Another evaluator of the same model that shares this one's scaled weights, for another thread. */
+    public RegionTensorEvaluator sharing() {
+        return new RegionTensorEvaluator(this);
+    }
+
+    private void scale(int r) {
+        int k = layout.sums(r);
+        int c = layout.children(r);
+        int kp = padded(k);
+        boolean log = p.logWeights(r);
+        double[] sw = new double[kp * c];
+        double[] sh = new double[k];
+        for (int q = 0; q < k; q++) {
+            double[] w = p.weights(r, q);
+            double max = Double.NEGATIVE_INFINITY;
+            boolean usable = true;
+            for (int j = 0; j < c; j++) {
+                double lw = log ? w[j] : Math.log(w[j]);
+                usable &= lw < Double.POSITIVE_INFINITY;
+                max = Math.max(max, lw);
+            }
+            // a weight of +inf or NaN (or all weights zero) has no scaled form: every row takes the exact path
+            sh[q] = usable && max > Double.NEGATIVE_INFINITY ? max : Double.NaN;
+            for (int j = 0; j < c; j++) {
+                double lw = log ? w[j] : Math.log(w[j]);
+                sw[j * kp + q] = Double.isNaN(sh[q]) ? 0 : Math.exp(lw - max);
+            }
+        }
+        scaled[r] = sw;
+        shift[r] = sh;
+    }
+
+    private static int padded(int sums) {
+        return (sums + TILE - 1) / TILE * TILE;
     }
 
     /** Number of outputs (C). */
@@ -78,126 +219,119 @@ public final class RegionTensorEvaluator {
      * @param out output: {@code out[row * outputCount() + o]}
      */
     public void logDensity(double[] data, int rows, double[] out) {
-        int nv = s.variables().size();
-        int co = outputCount();
-        double[] chunkData = new double[Math.min(rows, CHUNK_ROWS) * nv];
-        double[] chunkOut = new double[Math.min(rows, CHUNK_ROWS) * co];
-        for (int from = 0; from < rows; from += CHUNK_ROWS) {
-            int n = Math.min(CHUNK_ROWS, rows - from);
-            System.arraycopy(data, from * nv, chunkData, 0, n * nv);
-            chunk(chunkData, n, chunkOut);
-            System.arraycopy(chunkOut, 0, out, from * co, n * co);
+        logDensity(data, 0, rows, out);
+    }
+
+    /**
+     * {@link #logDensity} spread over {@code threads} threads (this evaluator and others {@link #sharing()}
+     * its weights), each on its own range of whole blocks; the values are the same as on one thread.
+     */
+    public void logDensity(double[] data, int rows, double[] out, int threads) {
+        int blocks = (rows + CHUNK_ROWS - 1) / CHUNK_ROWS;
+        int parts = Math.max(1, Math.min(threads, blocks));
+        if (parts == 1) {
+            logDensity(data, 0, rows, out);
+            return;
+        }
+        Thread[] workers = new Thread[parts - 1];
+        Throwable[] failure = new Throwable[parts - 1];
+        for (int t = 0; t < parts - 1; t++) {
+            int from = (int) ((long) blocks * t / parts) * CHUNK_ROWS;
+            int to = (int) ((long) blocks * (t + 1) / parts) * CHUNK_ROWS;
+            RegionTensorEvaluator e = sharing();
+            int slot = t;
+            workers[t] = new Thread(() -> {
+                try {
+                    e.logDensity(data, from, to, out);
+                } catch (RuntimeException | Error ex) {
+                    failure[slot] = ex;
+                }
+            }, "circa-region-tensors-" + (t + 1));
+            workers[t].setDaemon(true);
+            workers[t].start();
+        }
+        logDensity(data, (int) ((long) blocks * (parts - 1) / parts) * CHUNK_ROWS, rows, out);
+        boolean interrupted = false;
+        for (int t = 0; t < workers.length; t++) {
+            while (true) {
+                try {
+                    workers[t].join();
+                    break;
+                } catch (InterruptedException ex) {
+                    interrupted = true;
+                }
+            }
+        }
+        if (interrupted) {
+            Thread.currentThread().interrupt();
+        }
+        for (Throwable f : failure) {
+            if (f instanceof RuntimeException re) {
+                throw re;
+            }
+            if (f instanceof Error er) {
+                throw er;
+            }
         }
     }
 
-    private void chunk(double[] data, int rows, double[] out) {
-        int nv = s.variables().size();
-        int nr = s.regionCount();
-        if (tensor == null || capacity < rows) {
-            tensor = new double[nr][];
-            capacity = rows;
+    /** {@link #logDensity} on rows {@code from .. to-1} of {@code data}, written to the same rows of {@code out}. */
+    public void logDensity(double[] data, int from, int to, double[] out) {
+        for (int row0 = from; row0 < to; row0 += CHUNK_ROWS) {
+            evaluateBlock(data, row0, Math.min(CHUNK_ROWS, to - row0), out);
         }
-        double[] child = new double[0];
-        for (int r : s.order()) {
-            int size = layout.size(r);
-            double[] t = tensor[r];
-            if (t == null || t.length < rows * size) {
-                t = new double[capacity * size];
-                tensor[r] = t;
+    }
+
+    private void evaluateBlock(double[] data, int row0, int n, double[] out) {
+        for (int r : order) {
+            double[] t = block[slot[r]];
+            if (t == null) {
+                t = new double[slotSize[slot[r]] * CHUNK_ROWS];
+                block[slot[r]] = t;
             }
-            double[] base;
-            int baseSize;
             if (s.isLeaf(r)) {
-                int[] vars = s.vars(r);
-                int bundles = p.options().inputs();
-                base = r == s.root() ? new double[rows * bundles] : t;
-                baseSize = bundles;
-                for (int row = 0; row < rows; row++) {
-                    for (int i = 0; i < bundles; i++) {
-                        double sum = 0;
-                        for (int j = 0; j < vars.length; j++) {
-                            double x = data[row * nv + vars[j]];
-                            if (!Double.isNaN(x)) {
-                                Family f = p.family(vars[j]);
-                                sum += ReferenceDensities.logValue(f, p.inputParams(r, i, j), x);
-                            }
-                        }
-                        base[row * bundles + i] = sum;
-                    }
-                }
+                // a leaf below the root offers its bundles; the root leaf sums over them
+                bundles(r, data, row0, n, r == s.root() ? child : t);
                 if (r != s.root()) {
                     continue;
                 }
             } else {
-                base = null;
-                baseSize = 0;
+                products(r, n);
             }
-            int c = layout.children(r);
-            if (child.length < c) {
-                child = new double[c];
-            }
-            int k = layout.sums(r);
-            double[] lw = logw[r];
-            for (int row = 0; row < rows; row++) {
-                if (base != null) {
-                    System.arraycopy(base, row * baseSize, child, 0, baseSize);
-                } else {
-                    fillProducts(r, row, child);
-                }
-                // fast path: log(sum_j w_j e^(v_j)) = vmax + shift + log(sum_j (w_j / wmax) e^(v_j - vmax)); the
-                // exact per-edge log-sum-exp below is used when the scaled sum underflows
-                double vmax = Double.NEGATIVE_INFINITY;
-                for (int j = 0; j < c; j++) {
-                    vmax = Math.max(vmax, child[j]);
-                }
-                if (expChild.length < c) {
-                    expChild = new double[c];
-                }
-                if (vmax != Double.NEGATIVE_INFINITY) {
-                    for (int j = 0; j < c; j++) {
-                        expChild[j] = Math.exp(child[j] - vmax);
-                    }
-                }
-                double[] sw = scaled[r];
-                double[] sh = shift[r];
-                for (int q = 0; q < k; q++) {
-                    if (vmax == Double.NEGATIVE_INFINITY) {
-                        t[row * size + q] = vmax;
-                        continue;
-                    }
-                    double dot = 0;
-                    for (int j = 0, at = q * c; j < c; j++, at++) {
-                        dot += sw[at] * expChild[j];
-                    }
-                    if (dot >= 0x1p-900) {
-                        t[row * size + q] = vmax + sh[q] + Math.log(dot);
-                        continue;
-                    }
-                    double m = Double.NEGATIVE_INFINITY;
-                    for (int j = 0; j < c; j++) {
-                        double v = lw[q * c + j] + child[j];
-                        if (v > m) {
-                            m = v;
-                        }
-                    }
-                    double acc = 0;
-                    if (m != Double.NEGATIVE_INFINITY) {
-                        for (int j = 0; j < c; j++) {
-                            acc += Math.exp(lw[q * c + j] + child[j] - m);
-                        }
-                    }
-                    t[row * size + q] = m == Double.NEGATIVE_INFINITY ? m : m + Math.log(acc);
-                }
-            }
+            sums(r, n, t);
         }
-        int root = s.root();
         int co = outputCount();
-        for (int row = 0; row < rows; row++) {
-            System.arraycopy(tensor[root], row * co, out, row * co, co);
+        double[] root = block[slot[s.root()]];
+        for (int row = 0; row < n; row++) {
+            for (int o = 0; o < co; o++) {
+                out[(row0 + row) * co + o] = root[o * CHUNK_ROWS + row];
+            }
         }
     }
 
-    private void fillProducts(int r, int row, double[] child) {
+    /** Bundle i of leaf r at each row: the sum of its inputs' log-values, variables in the region's order. */
+    private void bundles(int r, double[] data, int row0, int n, double[] dst) {
+        int[] vars = s.vars(r);
+        int nv = s.variables().size();
+        int bundles = p.options().inputs();
+        // the region's columns of the block, read once from the row-major data and then by every bundle
+        for (int j = 0; j < vars.length; j++) {
+            for (int row = 0, cell = row0 * nv + vars[j]; row < n; row++, cell += nv) {
+                columns[j * CHUNK_ROWS + row] = data[cell];
+            }
+        }
+        for (int i = 0; i < bundles; i++) {
+            int at = i * CHUNK_ROWS;
+            Arrays.fill(dst, at, at + n, 0);
+            for (int j = 0; j < vars.length; j++) {
+                ReferenceDensities.addLogValues(family[vars[j]], p.inputParams(r, i, j), columns, j * CHUNK_ROWS, 1, n,
+                        dst, at);
+            }
+        }
+    }
+
+    /** The products of inner region r, in layout order, into {@link #child}. */
+    private void products(int r, int n) {
         int c = 0;
         for (int part : s.partitionsOf(r)) {
             int[] parts = s.parts(part);
@@ -205,15 +339,19 @@ public final class RegionTensorEvaluator {
             if (digit.length < m) {
                 digit = new int[m];
             }
-            java.util.Arrays.fill(digit, 0, m, 0);
+            Arrays.fill(digit, 0, m, 0);
             boolean more = true;
             while (more) {
-                double v = 0;
-                for (int t = 0; t < m; t++) {
-                    int q = parts[t];
-                    v += tensor[q][row * layout.size(q) + digit[t]];
+                int at = c * CHUNK_ROWS;
+                System.arraycopy(block[slot[parts[0]]], digit[0] * CHUNK_ROWS, child, at, n);
+                for (int t = 1; t < m; t++) {
+                    double[] src = block[slot[parts[t]]];
+                    int from = digit[t] * CHUNK_ROWS;
+                    for (int row = 0; row < n; row++) {
+                        child[at + row] += src[from + row];
+                    }
                 }
-                child[c++] = v;
+                c++;
                 more = false;
                 for (int t = m - 1; t >= 0; t--) {
                     if (++digit[t] < layout.size(parts[t])) {
@@ -224,5 +362,109 @@ public final class RegionTensorEvaluator {
                 }
             }
         }
+    }
+
+    /** The sums of region r over the children in {@link #child}, into {@code t}. */
+    private void sums(int r, int n, double[] t) {
+        int c = layout.children(r);
+        int k = layout.sums(r);
+        double[] sw = scaled[r];
+        Arrays.fill(vmax, 0, n, Double.NEGATIVE_INFINITY);
+        for (int j = 0; j < c; j++) {
+            int at = j * CHUNK_ROWS;
+            for (int row = 0; row < n; row++) {
+                vmax[row] = Math.max(vmax[row], child[at + row]);
+            }
+        }
+        for (int j = 0; j < c; j++) {
+            int at = j * CHUNK_ROWS;
+            for (int row = 0; row < n; row++) {
+                expChild[at + row] = Math.exp(child[at + row] - vmax[row]);
+            }
+        }
+        product(sw, c, padded(k), (n + TILE - 1) / TILE * TILE);
+        for (int q = 0; q < k; q++) {
+            finish(r, q, n, c, t);
+        }
+    }
+
+    /**
+     * {@code dot[q * CHUNK_ROWS + row] = sum_j sw[j * kp + q] * expChild[j * CHUNK_ROWS + row]} for every
+     * q below kp and row below {@code rows} (both multiples of {@value #TILE}), in tiles of 4 sums by 4 rows
+     * held in registers; each (q, row) adds its products in child order.
+     */
+    private void product(double[] sw, int c, int kp, int rows) {
+        double[] e = expChild;
+        for (int q = 0; q < kp; q += TILE) {
+            for (int row = 0; row < rows; row += TILE) {
+                double a00 = 0, a01 = 0, a02 = 0, a03 = 0;
+                double a10 = 0, a11 = 0, a12 = 0, a13 = 0;
+                double a20 = 0, a21 = 0, a22 = 0, a23 = 0;
+                double a30 = 0, a31 = 0, a32 = 0, a33 = 0;
+                for (int j = 0, x = row, w = q; j < c; j++, x += CHUNK_ROWS, w += kp) {
+                    double x0 = e[x];
+                    double x1 = e[x + 1];
+                    double x2 = e[x + 2];
+                    double x3 = e[x + 3];
+                    double w0 = sw[w];
+                    double w1 = sw[w + 1];
+                    double w2 = sw[w + 2];
+                    double w3 = sw[w + 3];
+                    a00 += w0 * x0;
+                    a01 += w0 * x1;
+                    a02 += w0 * x2;
+                    a03 += w0 * x3;
+                    a10 += w1 * x0;
+                    a11 += w1 * x1;
+                    a12 += w1 * x2;
+                    a13 += w1 * x3;
+                    a20 += w2 * x0;
+                    a21 += w2 * x1;
+                    a22 += w2 * x2;
+                    a23 += w2 * x3;
+                    a30 += w3 * x0;
+                    a31 += w3 * x1;
+                    a32 += w3 * x2;
+                    a33 += w3 * x3;
+                }
+                int o = q * CHUNK_ROWS + row;
+                store(o, a00, a01, a02, a03);
+                store(o + CHUNK_ROWS, a10, a11, a12, a13);
+                store(o + 2 * CHUNK_ROWS, a20, a21, a22, a23);
+                store(o + 3 * CHUNK_ROWS, a30, a31, a32, a33);
+            }
+        }
+    }
+
+    private void store(int at, double v0, double v1, double v2, double v3) {
+        dot[at] = v0;
+        dot[at + 1] = v1;
+        dot[at + 2] = v2;
+        dot[at + 3] = v3;
+    }
+
+    /** Sum q of region r from its scaled sums in {@link #dot}, at each row, into {@code t}. */
+    private void finish(int r, int q, int n, int c, double[] t) {
+        double sh = shift[r][q];
+        int out = q * CHUNK_ROWS;
+        double[] a = dot;
+        for (int row = 0; row < n; row++) {
+            double m = vmax[row];
+            if (m == Double.NEGATIVE_INFINITY) {
+                t[out + row] = m;
+            } else if (a[out + row] >= SCALED_FLOOR && m < Double.POSITIVE_INFINITY && !Double.isNaN(sh)) {
+                t[out + row] = m + sh + Math.log(a[out + row]);
+            } else {
+                t[out + row] = exact(r, q, row, c);
+            }
+        }
+    }
+
+    /** Sum q of region r at one row by the per-edge log-sum-exp. */
+    private double exact(int r, int q, int row, int c) {
+        for (int j = 0; j < c; j++) {
+            column[j] = child[j * CHUNK_ROWS + row];
+        }
+        return LogSumExp.weighted(p.weights(r, q), p.logWeights(r), column, c);
     }
 }

@@ -1,7 +1,7 @@
 package dev.circa.converter.regions;
 
 import dev.circa.engine.CompiledCircuit;
-import dev.circa.engine.Evaluator;
+import dev.circa.engine.BatchRunner;
 import java.util.Locale;
 
 /**
@@ -13,7 +13,9 @@ import java.util.Locale;
  * 1/2; values outside an input's support must give -inf on both sides), and the point with every
  * variable missing: 3N + 1 rows. A point passes when
  * |circuit - direct| {@literal <=} atol + rtol * |direct| for every output; -inf matches only -inf.
- * Stateless.
+ * Both sides take all rows in one batch on every processor: the engine through a {@link BatchRunner}
+ * (its dense-block fast path), the direct evaluation in blocks of rows on as many threads; neither
+ * side's values depend on the thread count. Stateless.
  */
 public final class RegionVerifier {
     /** A circuit evaluation: {@code out[row * outputs + o]} = log value of output o at row (NaN = missing). */
@@ -57,8 +59,9 @@ public final class RegionVerifier {
                     + circuit.outputCount() + " outputs; the region graph compiles to "
                     + params.structure().variables().size() + " and " + params.options().outputs());
         }
-        Evaluator evaluator = new Evaluator(circuit);
-        return verify(params, evaluator::logDensity, sampled, seed, atol, rtol);
+        try (BatchRunner runner = BatchRunner.onAllProcessors(circuit)) {
+            return verify(params, runner::logDensity, sampled, seed, atol, rtol);
+        }
     }
 
     /**
@@ -99,7 +102,7 @@ public final class RegionVerifier {
         }
         double[] direct = new double[rows * c];
         double[] got = new double[rows * c];
-        new RegionTensorEvaluator(params).logDensity(data, rows, direct);
+        new RegionTensorEvaluator(params).logDensity(data, rows, direct, Runtime.getRuntime().availableProcessors());
         circuit.logDensity(data, rows, got);
         return compare(direct, got, rows, c, atol, rtol);
     }

@@ -11,13 +11,13 @@ import dev.circa.format.regions.Region;
 import dev.circa.format.regions.RegionGraph;
 import org.junit.jupiter.api.Test;
 
-/** Random region generation is bounded by {@code --max-nodes}, checked before any work. */
+/** Random region generation is bounded by {@code --max-vars} and {@code --max-nodes}, checked before any work. */
 class RandomRegionsLimitsTest {
     @Test
     void checkLimits_hundredMillionVariablesOrManyRepeats_refusedNamingMaxNodes() {
         // the two requests that once ran for 50 s to 6.4 GB
         LimitExceededException a = assertThrows(LimitExceededException.class,
-                () -> RandomRegions.checkLimits(100_000_000, 2, 1, ReadLimits.DEFAULT));
+                () -> RandomRegions.checkLimits(100_000_000, 2, 1, ReadLimits.DEFAULT, 100_000_000));
         assertEquals(ReadLimits.MAX_NODES, a.option());
         assertTrue(a.getMessage().contains("set by --max-nodes"), a.getMessage());
         LimitExceededException b = assertThrows(LimitExceededException.class,
@@ -28,6 +28,26 @@ class RandomRegionsLimitsTest {
                 () -> RandomRegions.generate(RandomRegions.realVariables(100), 20, 100_000, 0));
         assertTrue(g.getMessage().contains("--max-nodes"), g.getMessage());
         assertDoesNotThrow(() -> RandomRegions.checkLimits(1000, 10, 10, ReadLimits.DEFAULT));
+    }
+
+    @Test
+    void checkLimits_variablesPastMaxVars_refusedAtAnyDepth_theDefaultItselfAccepted() {
+        for (int depth : new int[] {0, 1}) {
+            LimitExceededException e = assertThrows(LimitExceededException.class,
+                    () -> RandomRegions.checkLimits(100_000_000, depth, 1, ReadLimits.DEFAULT));
+            assertEquals(RandomRegions.MAX_VARIABLES, e.option());
+            assertTrue(e.getMessage().contains("100000000 variables is more than the limit of 10000000 set by --max-vars"),
+                    e.getMessage());
+            assertThrows(LimitExceededException.class,
+                    () -> RandomRegions.checkLimits(RandomRegions.DEFAULT_MAX_VARIABLES + 1, depth, 1, ReadLimits.DEFAULT));
+            assertDoesNotThrow(() -> RandomRegions.checkLimits(RandomRegions.DEFAULT_MAX_VARIABLES, depth, 1,
+                    ReadLimits.DEFAULT));
+        }
+        // a raised --max-vars passes on to generate
+        assertEquals(3, RandomRegions.generate(RandomRegions.realVariables(3), 1, 1, 0, ReadLimits.DEFAULT, 3)
+                .variables().size());
+        assertThrows(IllegalArgumentException.class,
+                () -> RandomRegions.generate(RandomRegions.realVariables(3), 1, 1, 0, ReadLimits.DEFAULT, 2));
     }
 
     @Test

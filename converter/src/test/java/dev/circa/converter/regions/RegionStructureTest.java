@@ -113,6 +113,28 @@ class RegionStructureTest {
                     () -> RegionStructure.of(new RegionGraphReader().readString(doc, "v.json")));
             assertTrue(e.getMessage().contains(c.fragment()), e.getMessage());
             assertEquals(c.pointer(), e.pointer());
+            // the variable's own line and column: where its object starts in the one-line document
+            int at = doc.indexOf("[{") + 1;
+            if (c.pointer().endsWith("/1")) {
+                at = doc.indexOf("}, {", at) + 3;
+            }
+            assertEquals(1, e.line(), e.getMessage());
+            assertEquals(at + 1, e.column(), e.getMessage());
+            assertTrue(e.getMessage().startsWith("v.json:1:" + (at + 1) + ": "), e.getMessage());
         }
+    }
+
+    @Test
+    void of_noRegionsOrNoVariables_locatedAtTheArray() {
+        String noRegions = "{\"format\": \"circa.regions\", \"version\": \"1.0\",\n"
+                + "\"variables\": [{\"name\": \"x\", \"type\": \"real\"}],\n\"regions\": []}";
+        FormatException e = assertThrows(FormatException.class,
+                () -> RegionStructure.of(new RegionGraphReader().readString(noRegions, "r.json")));
+        assertTrue(e.getMessage().startsWith("r.json:3:12: a region graph needs at least one region"), e.getMessage());
+        String noVariables = "{\"format\": \"circa.regions\", \"version\": \"1.0\",\n"
+                + "\"variables\": [],\n\"regions\": [{\"id\": 0, \"vars\": []}]}";
+        FormatException v = assertThrows(FormatException.class,
+                () -> RegionStructure.of(new RegionGraphReader().readString(noVariables, "r.json")));
+        assertTrue(v.getMessage().startsWith("r.json:2:14: a region graph needs at least one variable"), v.getMessage());
     }
 }

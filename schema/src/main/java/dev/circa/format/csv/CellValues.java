@@ -176,9 +176,16 @@ public final class CellValues {
         return Long.parseLong(s);
     }
 
-    /** Quotes a field for CSV output when it needs it. */
+    /**
+     * Quotes a field for CSV output when it needs it, so that {@link CsvReader} (and any RFC 4180 reader)
+     * reads back exactly {@code s}: a comma, quote or line break inside; white space at either end (a
+     * reader may trim unquoted fields; quoting is the common practice that keeps them); a {@code #}
+     * first (as the first field, an unquoted one would start a comment line).
+     */
     public static String quote(String s) {
-        if (s.indexOf(',') < 0 && s.indexOf('"') < 0 && s.indexOf('\n') < 0 && s.indexOf('\r') < 0) {
+        if (s.indexOf(',') < 0 && s.indexOf('"') < 0 && s.indexOf('\n') < 0 && s.indexOf('\r') < 0
+                && !s.startsWith("#") && (s.isEmpty() || !Character.isWhitespace(s.charAt(0))
+                && !Character.isWhitespace(s.charAt(s.length() - 1)))) {
             return s;
         }
         return '"' + s.replace("\"", "\"\"") + '"';

@@ -226,6 +226,9 @@ public final class CsvReader implements AutoCloseable {
         try {
             len = in.read(buf, 0, buf.length);
             pos = 0;
+        } catch (TextDecoding.MalformedTextException e) {
+            throw new FormatException(file, line, col, null, "not valid text: " + e.getMessage()
+                    + "; expected UTF-8, UTF-16 or UTF-32");
         } catch (CharacterCodingException e) {
             throw new FormatException(file, line, col, null, "not valid text: expected UTF-8, UTF-16 or UTF-32");
         } catch (FormatException e) {

@@ -21,12 +21,19 @@ public final class VariableListReader {
      * @param findings receives unknown properties
      */
     public static List<Variable> read(JsonInput in, String ptr, List<ReadFinding> findings) throws FormatException {
+        return read(in, ptr, findings, new ArrayList<>());
+    }
+
+    /** As {@link #read(JsonInput, String, List)}, adding where each variable starts to {@code starts}. */
+    public static List<Variable> read(JsonInput in, String ptr, List<ReadFinding> findings, List<SourceLocation> starts)
+            throws FormatException {
         in.expect(JsonToken.START_ARRAY, ptr, "an array of variables");
         List<Variable> vars = new ArrayList<>();
         while (in.nextElement()) {
             String p = ptr + "/" + vars.size();
             int line = in.line();
             int col = in.column();
+            starts.add(new SourceLocation(p, line, col));
             in.expect(JsonToken.START_OBJECT, p, "a variable object {\"name\": ..., \"type\": ...}");
             String name = null;
             VariableType type = null;

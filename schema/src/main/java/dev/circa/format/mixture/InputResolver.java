@@ -1,5 +1,6 @@
 package dev.circa.format.mixture;
 
+import dev.circa.format.Counts;
 import dev.circa.format.Family;
 import dev.circa.format.SourceLocation;
 import dev.circa.format.Variable;
@@ -103,8 +104,15 @@ final class InputResolver {
         if (n == 0) {
             throw error(file, m.get("weights"), "a gaussian-mixture needs at least one component weight");
         }
-        double[][] means = matrix(m.get("means"), file, n, d, "means");
         Located shapes = cov != null ? cov : var;
+        Located meanList = m.get("means");
+        if (meanList.isList() && shapes.isList() && meanList.list().size() == shapes.list().size()
+                && meanList.list().size() != n) {
+            // means and covariances agree on the components: the weights are the odd one out
+            throw error(file, m.get("weights"), "expected " + meanList.list().size() + " component weights (one per mean and "
+                    + (cov != null ? "covariance" : "variance vector") + "), found " + describeSize(m.get("weights")));
+        }
+        double[][] means = matrix(meanList, file, n, d, "means");
         if (!shapes.isList() || shapes.list().size() != n) {
             throw error(file, shapes, "expected a list of " + n + " " + (cov != null ? "covariance matrices"
                     : "variance vectors") + " (one per weight), found " + describeSize(shapes));
@@ -277,12 +285,12 @@ final class InputResolver {
 
     private static double[][] matrix(Located v, String file, int rows, int cols, String what) throws FormatException {
         if (!v.isList() || v.list().size() != rows) {
-            throw error(file, v, "expected a list of " + rows + " " + what + " of " + cols + " numbers each, found "
+            throw error(file, v, "expected a list of " + rows + " " + what + " of " + Counts.of(cols, "number") + " each, found "
                     + describeSize(v));
         }
         double[][] out = new double[rows][];
         for (int i = 0; i < rows; i++) {
-            out[i] = numbers(v.list().get(i), file, cols, "a list of " + cols + " numbers");
+            out[i] = numbers(v.list().get(i), file, cols, "a list of " + Counts.of(cols, "number"));
         }
         return out;
     }

@@ -25,6 +25,7 @@ public final class RegionGraph implements Document {
     private final int[] regionColumns;
     private final int[] partitionLines;
     private final int[] partitionColumns;
+    private final java.util.Map<String, SourceLocation> locations;
 
     private RegionGraph(Builder b) {
         this.header = b.header();
@@ -34,6 +35,7 @@ public final class RegionGraph implements Document {
         this.regionColumns = b.regionColumns;
         this.partitionLines = b.partitionLines;
         this.partitionColumns = b.partitionColumns;
+        this.locations = java.util.Map.copyOf(b.locations);
     }
 
     /** A builder for graphs made in code (generators, tests) or by the reader. */
@@ -66,6 +68,15 @@ public final class RegionGraph implements Document {
         return locate("/partitions/" + index, index, partitionLines, partitionColumns);
     }
 
+    /**
+     * Where the member at {@code pointer} starts ({@code /variables}, {@code /variables/INDEX}, {@code /regions}),
+     * or a location without line and column when it is not known.
+     */
+    public SourceLocation location(String pointer) {
+        SourceLocation at = locations.get(pointer);
+        return at != null ? at : SourceLocation.of(pointer);
+    }
+
     private static SourceLocation locate(String pointer, int index, int[] lines, int[] columns) {
         if (lines == null || index >= lines.length) {
             return SourceLocation.of(pointer);
@@ -81,8 +92,15 @@ public final class RegionGraph implements Document {
         private int[] regionColumns;
         private int[] partitionLines;
         private int[] partitionColumns;
+        private final java.util.Map<String, SourceLocation> locations = new java.util.HashMap<>();
 
         private Builder() {
+        }
+
+        /** Where a member starts (by its pointer), for messages. */
+        public Builder location(SourceLocation at) {
+            locations.put(at.pointer(), at);
+            return this;
         }
 
         public Builder regions(List<Region> v) {

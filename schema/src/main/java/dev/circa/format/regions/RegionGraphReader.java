@@ -87,12 +87,16 @@ public final class RegionGraphReader extends JsonDocumentReader<RegionGraph> {
                     case "provenance" -> b.provenance(DocumentHeader.readProvenance(in, ptr, unknown));
                     case "variables" -> {
                         List<ReadFinding> varFindings = new ArrayList<>();
-                        List<Variable> vars = VariableListReader.read(in, ptr, varFindings);
+                        b.location(new SourceLocation(ptr, in.line(), in.column()));
+                        List<SourceLocation> starts = new ArrayList<>();
+                        List<Variable> vars = VariableListReader.read(in, ptr, varFindings, starts);
+                        starts.forEach(b::location);
                         unknown.addAll(varFindings);
                         b.variables(vars);
                         sawVariables = true;
                     }
                     case "regions" -> {
+                        b.location(new SourceLocation(ptr, in.line(), in.column()));
                         readRegions(ptr);
                         sawRegions = true;
                     }

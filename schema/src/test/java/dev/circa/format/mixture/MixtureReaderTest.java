@@ -180,7 +180,13 @@ class MixtureReaderTest {
                         6, 20, null, "duplicate key"),
                 new Bad("yaml syntax", HEAD + "model: {var: x, normal: {mean: 0, sd: 1}\n", 7, 1, null,
                         "not valid YAML"),
-                new Bad("wrong format", "format: circa.circuit\n", 1, 9, "format", "unknown format"));
+                new Bad("wrong format", "format: circa.circuit\n", 1, 9, "format", "unknown format"),
+                new Bad("short weights, means and variances agree", HEAD + "model:\n  gaussian-mixture:\n    vars: [x]\n"
+                        + "    weights: [0.5, 0.5]\n    means: [[0], [1], [2]]\n    variances: [[1], [1], [1]]\n",
+                        9, 14, "model.gaussian-mixture.weights", "expected 3 component weights (one per mean and variance"),
+                new Bad("short means", HEAD + "model:\n  gaussian-mixture:\n    vars: [x]\n"
+                        + "    weights: [0.2, 0.3, 0.5]\n    means: [[0], [1]]\n    variances: [[1], [1], [1]]\n",
+                        10, 12, "model.gaussian-mixture.means", "expected a list of 3 means of 1 number each, found a list of 2"));
         for (Bad b : table) {
             FormatException e = assertThrows(FormatException.class, () -> read(b.text()), b.name());
             assertEquals(b.line(), e.line(), b.name() + ": " + e.getMessage());

@@ -38,6 +38,7 @@ public record CheckReport(Tolerance tolerance, long cases, long failures, double
 
     /**
      * The JSON form: {@code {"cases": N, "failures": F, "maxAbsError": ..., "maxRelError": ..., "worst": [...]}}
+     * (each worst case with its {@code margin}, |computed - expected| / (atol + rtol * |expected|))
      * followed by {@code passed}, {@code atol}, {@code rtol} and {@code outputs}. A non-finite number is {@code null}.
      */
     public String toJson() {
@@ -62,6 +63,7 @@ public record CheckReport(Tolerance tolerance, long cases, long failures, double
             json.number("computed", c.computed());
             json.number("absError", c.absError());
             json.number("relError", c.relError());
+            json.number("margin", c.excess());
             g.writeBooleanProperty("passed", c.passed());
             g.writeEndObject();
         }
@@ -99,13 +101,14 @@ public record CheckReport(Tolerance tolerance, long cases, long failures, double
             }
         }
         if (!worst.isEmpty()) {
-            sb.append("worst cases:\n");
+            sb.append("worst cases, furthest past the pass rule first (margin = |computed - expected| / (atol + rtol * "
+                    + "|expected|); a case passes at margin <= 1):\n");
             for (CaseResult c : worst) {
                 String where = c.pointer() != null
                         ? c.source() + " " + c.pointer() + (c.line() > 0 ? " (line " + c.line() + ")" : "")
                         : c.source() + " row " + c.row() + " (line " + c.line() + ")";
-                sb.append(String.format(Locale.ROOT, "  %s %s output %s: expected %s, computed %s, abs error %s, rel error %s%n",
-                        c.passed() ? "pass" : "FAIL", where, c.output(), ld(c.expected()), ld(c.computed()),
+                sb.append(String.format(Locale.ROOT, "  %s margin %s, %s output %s: expected %s, computed %s, abs error %s, rel error %s%n",
+                        c.passed() ? "pass" : "FAIL", g(c.excess()), where, c.output(), ld(c.expected()), ld(c.computed()),
                         g(c.absError()), g(c.relError())));
             }
         }

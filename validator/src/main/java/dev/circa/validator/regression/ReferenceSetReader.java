@@ -1,5 +1,6 @@
 package dev.circa.validator.regression;
 
+import dev.circa.format.Counts;
 import dev.circa.format.Variable;
 import dev.circa.format.VariableType;
 import dev.circa.format.csv.CellValues;
@@ -82,10 +83,11 @@ public final class ReferenceSetReader implements AutoCloseable {
         int density = -1;
         int output = -1;
         for (int c = 0; c < width; c++) {
-            String name = header.get(c).strip();
+            // names exactly as written (quoted or not): " a" and "a" may be two variables
+            String name = header.get(c);
             if (c == 0 && name.startsWith("\uFEFF")) {
                 // a byte-order mark, as spreadsheet programs write at the start of UTF-8 CSV files
-                name = name.substring(1).strip();
+                name = name.substring(1);
             }
             if (name.equals(LOG_DENSITY) || name.equals(OUTPUT)) {
                 if ((name.equals(LOG_DENSITY) ? density : output) >= 0) {
@@ -160,7 +162,7 @@ public final class ReferenceSetReader implements AutoCloseable {
             }
             if (rec.size() != width) {
                 throw csv.error(Math.max(0, Math.min(rec.size(), width) - 1),
-                        "row " + (rows + 1) + " has " + rec.size() + " fields; expected " + width + " as in the header");
+                        "row " + (rows + 1) + " has " + Counts.of(rec.size(), "field") + "; expected " + width + " as in the header");
             }
             Arrays.fill(data, r * nv, r * nv + nv, Double.NaN);
             output[r] = 0;
@@ -205,6 +207,11 @@ public final class ReferenceSetReader implements AutoCloseable {
     }
 
     private int outputOf(String cell, int c) throws FormatException {
+        // an output's name exactly as written first, as a label: " a" and "a" may be two outputs
+        Integer exact = outputByName.get(cell);
+        if (exact != null) {
+            return exact;
+        }
         String s = cell.strip();
         if (s.isEmpty()) {
             return 0;

@@ -1,8 +1,10 @@
 package dev.circa.validator.render;
 
+import dev.circa.format.io.FormatException;
 import dev.circa.validator.Diagnostic;
 import dev.circa.validator.ExactQueries;
 import dev.circa.validator.Property;
+import dev.circa.validator.ValidationOutcome;
 import dev.circa.validator.ValidationReport;
 import dev.circa.validator.VariableTree;
 import dev.circa.validator.Verdict;
@@ -26,18 +28,50 @@ public final class JsonReport {
     private JsonReport() {
     }
 
-    public static String render(List<ValidationReport> reports) {
+    /** One object per file (a lone object for one file): its report, or its status-2 entry. */
+    public static String render(List<ValidationOutcome> outcomes) {
         JsonNode out;
-        if (reports.size() == 1) {
-            out = tree(reports.get(0));
+        if (outcomes.size() == 1) {
+            out = tree(outcomes.get(0));
         } else {
             ArrayNode a = F.arrayNode();
-            for (ValidationReport r : reports) {
+            for (ValidationOutcome r : outcomes) {
                 a.add(tree(r));
             }
             out = a;
         }
         return MAPPER.writerWithDefaultPrettyPrinter().writeValueAsString(out) + "\n";
+    }
+
+    /**
+     * One outcome as a JSON object: the report, or for a file that could not be read
+     * {@code {"file", "valid": false, "status": 2, "error": {"message", "problem", "line", "column", "pointer"}}}.
+     */
+    static ObjectNode tree(ValidationOutcome r) {
+        if (r.report() != null) {
+            return tree(r.report());
+        }
+        FormatException e = r.failure();
+        ObjectNode o = F.objectNode();
+        if (r.file() == null) {
+            o.putNull("file");
+        } else {
+            o.put("file", r.file());
+        }
+        o.put("valid", false);
+        o.put("status", 2);
+        ObjectNode x = o.putObject("error");
+        x.put("message", e.getMessage());
+        x.put("problem", e.problem());
+        if (e.line() > 0) {
+            x.put("line", e.line());
+            x.put("column", e.column());
+        } else {
+            x.putNull("line");
+            x.putNull("column");
+        }
+        x.put("pointer", e.pointer());
+        return o;
     }
 
     /** One report as a JSON object. */

@@ -1,7 +1,9 @@
 package dev.circa.validator.render;
 
+import dev.circa.format.io.FormatException;
 import dev.circa.validator.Diagnostic;
 import dev.circa.validator.Severity;
+import dev.circa.validator.ValidationOutcome;
 import dev.circa.validator.ValidationReport;
 import dev.circa.validator.rules.Rule;
 import dev.circa.validator.rules.Rules;
@@ -33,7 +35,11 @@ public final class SarifReport {
     private SarifReport() {
     }
 
-    public static String render(List<ValidationReport> reports) {
+    /**
+     * The log of {@code outcomes}: a file that could not be read becomes an error notification of the
+     * invocation (its message and location), and the invocation is then not successful.
+     */
+    public static String render(List<ValidationOutcome> outcomes) {
         ObjectNode log = F.objectNode();
         log.put("$schema", SCHEMA);
         log.put("version", "2.1.0");
@@ -60,10 +66,17 @@ public final class SarifReport {
         ArrayNode artifacts = run.putArray("artifacts");
         ArrayNode results = run.putArray("results");
         boolean ok = true;
-        for (ValidationReport rep : reports) {
-            String uri = rep.file() == null ? null : uri(rep.file());
+        ArrayNode notifications = F.arrayNode();
+        for (ValidationOutcome outcome : outcomes) {
+            String uri = outcome.file() == null ? null : uri(outcome.file());
             if (uri != null) {
                 artifacts.addObject().putObject("location").put("uri", uri);
+            }
+            ValidationReport rep = outcome.report();
+            if (rep == null) {
+                ok = false;
+                notify(notifications.addObject(), uri, outcome.failure());
+                continue;
             }
             ok &= rep.valid();
             for (Diagnostic d : rep.diagnostics()) {
@@ -93,10 +106,37 @@ public final class SarifReport {
                 }
             }
         }
-        run.putArray("invocations").addObject().put("executionSuccessful", true)
-                .putObject("properties").put("valid", ok);
+        ObjectNode invocation = run.putArray("invocations").addObject();
+        invocation.put("executionSuccessful", notifications.isEmpty());
+        invocation.put("exitCode", ValidationOutcome.exitStatus(outcomes));
+        if (!notifications.isEmpty()) {
+            invocation.set("toolExecutionNotifications", notifications);
+        }
+        invocation.putObject("properties").put("valid", ok);
         run.put("columnKind", "unicodeCodePoints");
         return MAPPER.writerWithDefaultPrettyPrinter().writeValueAsString(log) + "\n";
+    }
+
+    /** A notification for a file from which no model could be built: its message and where. */
+    private static void notify(ObjectNode n, String uri, FormatException e) {
+        n.put("level", "error");
+        n.putObject("message").put("text", e.getMessage());
+        if (uri != null) {
+            ObjectNode loc = n.putArray("locations").addObject();
+            ObjectNode phys = loc.putObject("physicalLocation");
+            phys.putObject("artifactLocation").put("uri", uri);
+            if (e.line() > 0) {
+                ObjectNode region = phys.putObject("region");
+                region.put("startLine", e.line());
+                region.put("startColumn", Math.max(1, e.column()));
+            }
+            if (e.pointer() != null && !e.pointer().isEmpty()) {
+                ObjectNode logical = loc.putArray("logicalLocations").addObject();
+                logical.put("fullyQualifiedName", e.pointer());
+                logical.put("kind", "element");
+            }
+        }
+        n.putObject("properties").put("status", 2).put("problem", e.problem());
     }
 
     /** SARIF levels: error, warning, note. */

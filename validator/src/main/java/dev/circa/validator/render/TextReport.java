@@ -54,8 +54,8 @@ public final class TextReport {
             sb.append(String.format(Locale.ROOT, "  exact queries: density %s, marginal %s, conditional %s, mpe %s, sampling %s%n",
                     yes(q.density()), yes(q.marginal()), yes(q.conditional()), yes(q.mpe()), yes(q.sampling())));
             CircuitStats s = r.stats();
-            sb.append(String.format(Locale.ROOT, "  %d variables, %d nodes, %d edges, depth %d%n",
-                    s.variables(), s.nodes(), s.edges(), s.depth()));
+            sb.append(String.format(Locale.ROOT, "  %s, %s, %s, depth %d%n", Counts.of(s.variables(), "variable"),
+                    Counts.of(s.nodes(), "node"), Counts.of(s.edges(), "edge"), s.depth()));
         }
         return sb.toString();
     }

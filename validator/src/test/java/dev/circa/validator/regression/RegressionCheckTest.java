@@ -364,4 +364,28 @@ class RegressionCheckTest {
                 failing);
         assertEquals(100_001L, r.worst().stream().filter(c -> c.row() == 100_000L).findFirst().orElseThrow().line());
     }
+
+    @Test
+    void worst_orderedByMarginPastThePassRule_marginShownInTextAndJson() {
+        // margin = |a - b| / (atol + rtol * |b|), the pass rule of CLI.md written as a ratio (a case passes at <= 1)
+        ReportBuilder b = new ReportBuilder(Tolerance.DEFAULT, List.of("p"), null);
+        // a reference near 0: relative error (5e-17 - 2.8e-17) / 2.8e-17 = 0.786, yet far inside the rule
+        b.add("ref.csv", 1, 2, null, 0, 2.8e-17, 5e-17);
+        // relative error 1e-8 / 3 = 3.3e-9, but past the rule: margin 1e-8 / (1e-9 + 3e-9) = 2.5
+        b.add("ref.csv", 2, 3, null, 0, -3.0, -3.0 - 1e-8);
+        // margin 4e-9 / (1e-9 + 1e-9) = 2, between the two
+        b.add("ref.csv", 3, 4, null, 0, -1.0, -1.0 - 4e-9);
+        CheckReport r = b.build();
+        assertEquals(List.of(2L, 3L, 1L), r.worst().stream().map(CaseResult::row).toList());
+        assertEquals(2.5, r.worst().get(0).excess(), 1e-6);
+        assertEquals(2.0, r.worst().get(1).excess(), 1e-6);
+        assertEquals(2.2e-17 / (1e-9 + 1e-9 * 2.8e-17), r.worst().get(2).excess(), 1e-20);
+        assertEquals(2.2 / 2.8, r.worst().get(2).relError(), 1e-9, "the relative error stays |a - b| / |b|");
+        String json = r.toJson();
+        assertTrue(json.contains("\"row\": 2,") && json.contains("\"relError\": 3.3333333130750966E-9, \"margin\": 2.4999999848063226, \"passed\": false"), json);
+        String text = r.toText();
+        assertTrue(text.contains("FAIL margin 2.50, ref.csv row 2"), text);
+        assertTrue(text.contains("pass margin 2.20e-08, ref.csv row 1"), text);
+        assertTrue(text.indexOf("row 2 ") < text.indexOf("row 3 ") && text.indexOf("row 3 ") < text.indexOf("row 1 "), text);
+    }
 }
