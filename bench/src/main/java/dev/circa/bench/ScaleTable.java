@@ -43,8 +43,9 @@ import tools.jackson.core.JsonToken;
  * iterations of 1 s) for log-density throughput at batch 1, 64 and 1024 on 1 and 2 threads on both paths,
  * marginals and conditionals relative to density, sampling and batch-1 latency. Prints one table. To stay
  * within 15 minutes on 2 cores, circuits of {@value #LARGE} edges or more get 2 measured iterations
- * (a call can take several seconds there, so an iteration may hold one call), no generic run at batch 1024 (about a minute per call), queries and sampling at batch 64,
- * and no schema validation.
+ * (a call can take several seconds there, so an iteration may hold one call), no generic run at batch 1024 (about a minute per call), queries and sampling at batch 64.
+ * Validation beside the bare parse (which decodes every number) is timed in this JVM; {@link ValidateScale}
+ * (run by bench/run after this table) times it in JVMs of its own under -Xmx512m, start-up taken out.
  *
  * <p>Run: {@code bench/run} (or {@code java -cp bench/target/benchmarks.jar dev.circa.bench.ScaleTable
  * [EDGES...]}).
@@ -93,19 +94,21 @@ public final class ScaleTable {
             gc();
             t = System.nanoTime();
             long tokens = bareParse(file);
-            put("bare streaming parse (s)", seconds(t));
+            double parseSeconds = (System.nanoTime() - t) / 1e9;
+            put("bare streaming parse (s)", String.format(Locale.ROOT, "%.2f", parseSeconds));
             gc();
             t = System.nanoTime();
             ValidationReport report = new Validator(ValidationOptions.defaults()).validate(file);
-            put("validate: read + every rule (s)", seconds(t) + (report.valid() ? ", valid" : ", NOT valid: "
-                    + report.count(Severity.ERROR) + " errors"));
-            if (edges < LARGE) {
-                t = System.nanoTime();
-                int violations = SchemaCatalog.get().validateCircuit(file, ReadLimits.DEFAULT).size();
-                put("schema validation, streaming (s)", seconds(t) + (violations == 0 ? "" : " (" + violations + " violations)"));
-            } else {
-                put("schema validation, streaming (s)", "skipped (time budget)");
-            }
+            double validateSeconds = (System.nanoTime() - t) / 1e9;
+            put("validate: read + every rule (s)", String.format(Locale.ROOT, "%.2f", validateSeconds)
+                    + (report.valid() ? ", valid" : ", NOT valid: " + report.count(Severity.ERROR) + " errors"));
+            put("validate / bare parse (this JVM; ValidateScale: own JVMs, -Xmx512m)",
+                    String.format(Locale.ROOT, "%.2f", validateSeconds / parseSeconds));
+            report = null;
+            gc();
+            t = System.nanoTime();
+            int violations = SchemaCatalog.get().validateCircuit(file, ReadLimits.DEFAULT).size();
+            put("schema validation, streaming (s)", seconds(t) + (violations == 0 ? "" : " (" + violations + " violations)"));
             long baseline = gc();
             resetPeaks();
             t = System.nanoTime();
@@ -330,7 +333,8 @@ public final class ScaleTable {
         }
     }
 
-    private static long peaks() {
+    /** The sum of the heap pools' peak usage since their last reset (garbage included). */
+    static long peaks() {
         long sum = 0;
         for (MemoryPoolMXBean pool : ManagementFactory.getMemoryPoolMXBeans()) {
             if (pool.getType() == MemoryType.HEAP) {

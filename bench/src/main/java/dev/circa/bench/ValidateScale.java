@@ -1,12 +1,7 @@
 package dev.circa.bench;
 
-import dev.circa.format.io.CircuitReader;
 import dev.circa.format.io.JsonInput;
 import dev.circa.format.io.ReadLimits;
-import dev.circa.validator.SchemaCheck;
-import dev.circa.validator.ValidationOptions;
-import dev.circa.validator.ValidationReport;
-import dev.circa.validator.Validator;
 import java.io.BufferedOutputStream;
 import java.io.IOException;
 import java.io.InputStream;
@@ -20,95 +15,136 @@ import tools.jackson.core.JsonParser;
 import tools.jackson.core.JsonToken;
 
 /**
- * Validation time against a bare streaming parse of the same file, on generated circuits of about
- * 10^5, 10^6 and 10^7 edges (a benchmark, not a test: it prints a table and asserts nothing).
+ * Validation time and memory against a bare streaming parse of the same file, on generated circuits
+ * (default about 5 * 10^6 and 10^7 edges; a benchmark, not a test: it prints a table and asserts nothing).
+ *
+ * <p>Each step runs in a JVM of its own ({@link ValidateRun}) under {@code -Xmx512m} (change with
+ * {@code -Dxmx=1g}), timed by the wall clock from here, and JVM start-up is taken out as the issue asks:
+ * the time of the same step on a tiny circuit (about 300 edges) is subtracted. The steps: {@code parse}
+ * walks every token with Jackson's streaming parser and builds nothing; {@code parse+num} also decodes
+ * every number (a parse that looks at the values); {@code validate} is {@code circa validate
+ * --schema-check never} (read + every rule), {@code +schema} the same with the bundled schema's check
+ * ({@code --schema-check always}). The ratios are validate / parse and validate / parse+num, and
+ * (validate+schema - validate) / validate, the schema check's cost relative to the rest of validation.
+ * Peak heap is the sum of the heap pools' peaks in the validating JVM, peak RSS its resident high-water
+ * mark; "512m enough" says whether validation finished with a verdict under that heap limit.
  *
  * <p>Each circuit is a balanced binary region tree over {@code n} real variables: K = 10 normal
  * inputs per variable, and per inner region the K x K products of its two parts' nodes and K sums
  * over all of them (the root has one sum, the output). That is about 1,200 edges per inner region.
- * The bare parse walks every token with Jackson's streaming parser and builds nothing (a second
- * column also decodes every number); validation
- * reads the document and runs every rule; the last column adds the bundled schema's streaming check. Seeded (SplittableRandom 42), so the files are the same
- * on every run.
+ * Seeded (SplittableRandom 42), so the files are the same on every run.
  *
- * <p>Run from the repository root (Java 17), one command; {@code -Dkeep=true} keeps the files in DIR:
+ * <p>Run from the repository root (Java 17); {@code -Dkeep=true} keeps the files in DIR, {@code -Dreps=N}
+ * takes the best of N runs per step (default 2):
  * <pre>
- * mvn -B -q package -pl bench -am -DskipTests &amp;&amp; java -Xmx2g -cp bench/target/benchmarks.jar dev.circa.bench.ValidateScale [DIR]
+ * mvn -B -q package -pl bench -am -DskipTests &amp;&amp; java -cp bench/target/benchmarks.jar dev.circa.bench.ValidateScale [--dir DIR] [EDGES...]
  * </pre>
+ * ({@code bench/run validate [EDGES...]} does the same.)
  */
 public final class ValidateScale {
     private static final int K = 10;
+    private static final String[] STEPS = {"parse", "numbers", "validate", "schema"};
 
     private ValidateScale() {
     }
 
     public static void main(String[] args) throws Exception {
-        Path dir = args.length > 0 ? Path.of(args[0]) : Files.createTempDirectory("circa-validate-scale");
-        long[] targets = {100_000L, 1_000_000L, 10_000_000L};
-        Validator validator = new Validator(ValidationOptions.defaults());
-        Validator withSchema = new Validator(ValidationOptions.defaults(), SchemaCheck.BUNDLED);
-        System.out.println("warming up ...");
-        Path warm = dir.resolve("warm.json");
-        generate(warm, 200);
-        for (int i = 0; i < 3; i++) {
-            parse(warm);
-            validator.validate(warm);
-            withSchema.validate(warm);
+        Path dir = null;
+        java.util.List<Long> targets = new java.util.ArrayList<>();
+        for (int i = 0; i < args.length; i++) {
+            if (args[i].equals("--dir")) {
+                dir = Path.of(args[++i]);
+            } else {
+                targets.add(Long.parseLong(args[i].replace("_", "")));
+            }
         }
-        System.out.printf(Locale.ROOT, "%12s %10s %9s %9s %11s %9s %11s %7s %10s%n", "edges", "nodes", "file MB", "parse s",
-                "parse+num s", "read s", "validate s", "ratio", "+schema s");
+        if (targets.isEmpty()) {
+            targets.add(5_000_000L);
+            targets.add(10_000_000L);
+        }
+        if (dir == null) {
+            dir = Files.createTempDirectory("circa-validate-scale");
+        }
+        Files.createDirectories(dir);
+        String xmx = System.getProperty("xmx", "512m");
+        int reps = Integer.getInteger("reps", 2);
+        Path tiny = dir.resolve("tiny.json");
+        generate(tiny, 2);
+        double[][] base = new double[STEPS.length][];
+        for (int s = 0; s < STEPS.length; s++) {
+            base[s] = best(STEPS[s], tiny, xmx, reps + 1);
+        }
+        System.out.printf(Locale.ROOT, "validation beside a bare streaming parse, one JVM per step under -Xmx%s,"
+                + " JVM start-up taken out (the same step on a 300-edge circuit subtracted); wall clock and CPU time%n", xmx);
+        System.out.printf(Locale.ROOT, "%10s %6s | %7s %7s %8s %8s | %9s %8s %8s | %9s %8s %8s | %5s %5s %5s %4s %s%n",
+                "edges", "MB", "parse s", "+num s", "valid s", "+schem s", "val/parse", "val/+num", "schema/v",
+                "cpu v/par", "v/+num", "schema/v", "live", "heap", "RSS", "512m", "outcome");
         for (long target : targets) {
             int n = (int) Math.max(2, target / (K * K * K + 2 * K * K) + 1);
             Path file = dir.resolve("circuit-" + target + ".json");
             long[] size = generate(file, n);
-            int reps = target >= 10_000_000L ? 2 : 3;
-            double parse = Double.MAX_VALUE;
-            double parseNum = Double.MAX_VALUE;
-            double read = Double.MAX_VALUE;
-            double validate = Double.MAX_VALUE;
-            ValidationReport r = null;
-            for (int i = 0; i < reps; i++) {
-                // each timed step starts on a collected heap, so no step pays for the garbage of the one before
-                System.gc();
-                long tn = System.nanoTime();
-                parseNumbers(file);
-                parseNum = Math.min(parseNum, (System.nanoTime() - tn) / 1e9);
-                System.gc();
-                long t0 = System.nanoTime();
-                parse(file);
-                long t1 = System.nanoTime();
-                System.gc();
-                long t1b = System.nanoTime();
-                new CircuitReader().read(file);
-                long t2 = System.nanoTime();
-                System.gc();
-                long t2b = System.nanoTime();
-                r = validator.validate(file);
-                long t3 = System.nanoTime();
-                parse = Math.min(parse, (t1 - t0) / 1e9);
-                read = Math.min(read, (t2 - t1b) / 1e9);
-                validate = Math.min(validate, (t3 - t2b) / 1e9);
+            double[][] r = new double[STEPS.length][];
+            String[] outcome = new String[STEPS.length];
+            for (int s = 0; s < STEPS.length; s++) {
+                r[s] = best(STEPS[s], file, xmx, reps);
+                outcome[s] = lastOutcome;
             }
-            boolean valid = r.valid();
-            String diagnostics = valid ? "" : r.diagnostics().toString();
-            r = null;
-            System.gc();
-            long t4 = System.nanoTime();
-            withSchema.validate(file);
-            double schema = (System.nanoTime() - t4) / 1e9;
-            System.out.printf(Locale.ROOT, "%12d %10d %9.1f %9.3f %11.3f %9.3f %11.3f %7.2f %10.3f%n", size[1], size[0],
-                    Files.size(file) / 1e6, parse, parseNum, read, validate, validate / parse, schema);
-            if (!valid) {
-                System.out.println("  unexpected: the generated circuit is invalid: " + diagnostics);
+            double[] wall = new double[STEPS.length];
+            double[] cpu = new double[STEPS.length];
+            for (int s = 0; s < STEPS.length; s++) {
+                wall[s] = r[s][0] - base[s][0];
+                cpu[s] = r[s][1] - base[s][1];
             }
+            boolean ok = outcome[2].equals("valid");
+            System.out.printf(Locale.ROOT,
+                    "%10d %6.1f | %7.3f %7.3f %8.3f %8.3f | %9.2f %8.2f %8.2f | %9.2f %8.2f %8.2f | %5.0f %5.0f %5.0f %4s %s%n",
+                    size[1], Files.size(file) / 1e6, wall[0], wall[1], wall[2], wall[3], wall[2] / wall[0],
+                    wall[2] / wall[1], (wall[3] - wall[2]) / wall[2], cpu[2] / cpu[0], cpu[2] / cpu[1],
+                    (cpu[3] - cpu[2]) / cpu[2], r[2][3], r[2][2], r[2][4], ok ? "yes" : "NO",
+                    outcome[2] + (outcome[3].equals(outcome[2]) ? "" : " (+schema: " + outcome[3] + ")"));
+            best("phases", file, xmx, 1);
+            System.out.println("           phases of validate in one JVM (s): " + lastOutcome);
             if (!Boolean.getBoolean("keep")) {
                 Files.delete(file);
             }
         }
-        Files.delete(warm);
-        System.out.println("(parse: bare token walk; parse+num: the same, decoding every number; read: CircuitReader alone; validate: read + every rule; "
-                + "ratio: validate / parse; +schema: validate with the bundled schema's streaming check, one run; "
-                + "max heap " + Runtime.getRuntime().maxMemory() / (1 << 20) + " MiB)");
+        Files.delete(tiny);
+        System.out.println("(parse: bare token walk; +num: the same decoding every number; valid: read + every rule"
+                + " (--schema-check never); +schem: with the bundled schema check (always), which reads the file on the"
+                + " second core; schema/v: the schema check's extra time over validation; cpu: the same ratios in CPU"
+                + " seconds of the whole process (every thread); live: the validating JVM's largest heap occupancy"
+                + " right after a collection (MiB), heap: its heap pools' peaks (garbage included), RSS: its resident"
+                + " high-water mark; 512m: a verdict under -Xmx" + xmx + ")");
+    }
+
+    private static String lastOutcome;
+
+    /** The best of {@code reps} runs of {@code step} on {@code file}: {wall s, CPU s, peak heap, live peak, RSS (MiB)}. */
+    private static double[] best(String step, Path file, String xmx, int reps) throws IOException, InterruptedException {
+        double[] best = null;
+        String jar = Path.of(ValidateScale.class.getProtectionDomain().getCodeSource().getLocation().getPath()).toString();
+        for (int i = 0; i < reps; i++) {
+            ProcessBuilder pb = new ProcessBuilder(Path.of(System.getProperty("java.home"), "bin", "java").toString(),
+                    "-Xmx" + xmx, "-cp", jar, ValidateRun.class.getName(), step, file.toString());
+            pb.redirectErrorStream(true);
+            long t0 = System.nanoTime();
+            Process p = pb.start();
+            String out = new String(p.getInputStream().readAllBytes(), java.nio.charset.StandardCharsets.UTF_8).trim();
+            int rc = p.waitFor();
+            double wall = (System.nanoTime() - t0) / 1e9;
+            String[] f = out.isEmpty() ? new String[0] : out.substring(out.lastIndexOf('\n') + 1).split(" ");
+            if (rc != 0 || f.length < 7 || !f[0].equals(step)) {
+                lastOutcome = out.contains("OutOfMemoryError") ? "OutOfMemoryError" : "failed (exit " + rc + ")";
+                return new double[] {Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN};
+            }
+            lastOutcome = f[6];
+            double[] r = {wall, Double.parseDouble(f[2]), Double.parseDouble(f[3]), Double.parseDouble(f[4]),
+                Double.parseDouble(f[5])};
+            if (best == null || r[0] < best[0]) {
+                best = r;
+            }
+        }
+        return best;
     }
 
     /** Walks every token of {@code file}; returns the token count. */

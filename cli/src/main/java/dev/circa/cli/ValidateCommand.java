@@ -8,7 +8,6 @@ import dev.circa.validator.ValidationOptions;
 import dev.circa.validator.ValidationOutcome;
 import dev.circa.validator.Validator;
 import java.io.PrintWriter;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -25,9 +24,6 @@ import picocli.CommandLine.Parameters;
             "and embedded checks, and says which queries are exact. Exit status: 0 valid, 1 an error",
             "diagnostic, 2 a file from which no model can be built (the highest over all files)."})
 final class ValidateCommand implements Callable<Integer> {
-    /** Files up to this size get the bundled JSON Schema check under {@code --schema-check auto}. */
-    static final long AUTO_SCHEMA_BYTES = 64L << 20;
-
     @Parameters(arity = "1..*", paramLabel = "FILE", description = "Circuit files (.json, .json.gz, or - for standard input).")
     List<Path> files;
 
@@ -50,9 +46,8 @@ final class ValidateCommand implements Callable<Integer> {
     String format = "text";
 
     @Option(names = "--schema-check", paramLabel = "WHEN",
-            description = {"auto (default): check files up to 64 MiB against the bundled JSON Schema; larger files",
-                "rely on the reader's structure checks and the rules, which cover the same constraints;",
-                "always; never."})
+            description = {"auto (default): check against the bundled JSON Schema, streamed beside the read",
+                "(it costs less than the rest of validation, so every file is checked); always; never."})
     String schemaCheck = "auto";
 
     @Mixin
@@ -105,17 +100,7 @@ final class ValidateCommand implements Callable<Integer> {
     }
 
     private boolean useSchema(Path f) {
-        switch (schemaCheck) {
-            case "always":
-                return true;
-            case "never":
-                return false;
-            default:
-                try {
-                    return f.toString().equals("-") || Files.size(f) <= AUTO_SCHEMA_BYTES;
-                } catch (java.io.IOException e) {
-                    return true;
-                }
-        }
+        // auto: the streaming schema check costs less than the rest of validation at any size (docs/command-line.md)
+        return !schemaCheck.equals("never");
     }
 }

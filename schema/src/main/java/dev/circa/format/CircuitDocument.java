@@ -5,7 +5,8 @@ import java.util.List;
 /**
  * A circuit document (FORMAT.md section 2) as read, before any validation: node ids, child
  * references and variable indices are kept as written, so a validator can report what is wrong
- * with them. {@link #nodeLocation(int)} gives where each node starts in the source.
+ * with them. {@link #nodeLocation(int)} gives where each node starts in the source. The nodes are
+ * held in flat columns ({@link #nodeTable()}); {@link #nodes()} shows them as records.
  *
  * <p>Instances are immutable once built and safe to share between threads.
  */
@@ -14,6 +15,7 @@ public final class CircuitDocument implements Document {
     public static final String FORMAT = "circa.circuit";
 
     private final Header header;
+    private final NodeTable table;
     private final List<Node> nodes;
     private final List<Output> outputs;
     private final Checks checks;
@@ -22,7 +24,8 @@ public final class CircuitDocument implements Document {
 
     private CircuitDocument(Builder b) {
         this.header = b.header();
-        this.nodes = List.copyOf(b.nodes);
+        this.table = b.table != null ? b.table : NodeTable.of(b.nodes);
+        this.nodes = table.nodes();
         this.outputs = List.copyOf(b.outputs);
         this.checks = b.checks;
         this.nodeLocations = b.nodeLocations == null ? NodeLocations.NONE : b.nodeLocations;
@@ -39,9 +42,17 @@ public final class CircuitDocument implements Document {
         return header;
     }
 
-    /** The nodes in document order. */
+    /**
+     * The nodes in document order, as records made on each access (their arrays are copies): fine
+     * for a node at a time; passes over a large circuit read {@link #nodeTable()}.
+     */
     public List<Node> nodes() {
         return nodes;
+    }
+
+    /** The nodes in flat columns. */
+    public NodeTable nodeTable() {
+        return table;
     }
 
     /** The outputs in document order. */
@@ -66,16 +77,13 @@ public final class CircuitDocument implements Document {
 
     /** Total number of child references (duplicates counted). */
     public long edgeCount() {
-        long e = 0;
-        for (Node n : nodes) {
-            e += n.children().length;
-        }
-        return e;
+        return table.edgeCount();
     }
 
     /** Builds a {@link CircuitDocument}. Not thread-safe. */
     public static final class Builder extends Header.Setters<Builder> {
         private List<Node> nodes = List.of();
+        private NodeTable table;
         private List<Output> outputs = List.of();
         private Checks checks;
         private NodeLocations nodeLocations;
@@ -86,6 +94,13 @@ public final class CircuitDocument implements Document {
 
         public Builder nodes(List<Node> v) {
             this.nodes = v;
+            this.table = null;
+            return this;
+        }
+
+        /** The nodes as a table already built (readers). */
+        public Builder nodeTable(NodeTable v) {
+            this.table = v;
             return this;
         }
 

@@ -2,10 +2,12 @@ package dev.circa.validator;
 
 import dev.circa.format.io.FormatException;
 import dev.circa.format.io.ReadLimits;
+import dev.circa.format.io.InputFiles;
+import dev.circa.format.io.IoMessages;
 import dev.circa.format.schema.SchemaCatalog;
-import dev.circa.format.schema.SchemaViolation;
+import java.io.IOException;
 import java.io.InputStream;
-import java.util.ArrayList;
+import java.nio.file.Path;
 import java.util.List;
 
 /**
@@ -21,13 +23,7 @@ public interface SchemaCheck {
      * The bundled circuit schema, checked in one streaming pass holding one node at a time (never a
      * schema the document names).
      */
-    SchemaCheck BUNDLED = (in, file, limits) -> {
-        List<SchemaFinding> out = new ArrayList<>();
-        for (SchemaViolation v : SchemaCatalog.get().validateCircuit(in, file, limits)) {
-            out.add(new SchemaFinding(v.pointer(), v.keyword(), v.message()));
-        }
-        return out;
-    };
+    SchemaCheck BUNDLED = new BundledSchemaCheck();
 
     /**
      * Every violation of the schema by the document in {@code in}, in document order.
@@ -36,4 +32,20 @@ public interface SchemaCheck {
      * @throws FormatException when the text is not JSON or a read limit is hit
      */
     List<SchemaFinding> check(InputStream in, String file, ReadLimits limits) throws FormatException;
+
+    /**
+     * Every violation of the schema by the document in {@code file} ({@code .gz} decompressed, {@code -}
+     * for standard input), in document order; by default {@link #check(InputStream, String, ReadLimits)}
+     * on the file's text.
+     */
+    default List<SchemaFinding> check(Path file, ReadLimits limits) throws FormatException {
+        String name = InputFiles.displayName(file);
+        try (InputStream in = InputFiles.open(file, limits.maxBytes())) {
+            return check(in, name, limits);
+        } catch (FormatException e) {
+            throw e;
+        } catch (IOException e) {
+            throw new FormatException(name, 0, 0, null, "cannot be read: " + IoMessages.of(e));
+        }
+    }
 }

@@ -3,16 +3,14 @@ package dev.circa.validator;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.io.CircuitReader;
 import dev.circa.format.io.FormatException;
-import dev.circa.format.io.InputFiles;
 import dev.circa.format.io.ReadLimits;
 import dev.circa.validator.analysis.Scopes;
 import dev.circa.validator.rules.Rule;
 import dev.circa.validator.rules.RuleContext;
 import dev.circa.validator.rules.Rules;
 import java.io.ByteArrayInputStream;
-import java.io.IOException;
-import java.io.InputStream;
 import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Comparator;
@@ -20,6 +18,8 @@ import java.util.EnumMap;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.FutureTask;
 
 /**
  * Proves a circuit document valid, or says exactly why not (CLI.md, {@code validate}): schema,
@@ -65,19 +65,48 @@ public final class Validator {
      */
     public ValidationReport validate(Path file, ReadLimits limits) throws FormatException {
         CircuitReader reader = new CircuitReader(limits);
-        String name = InputFiles.displayName(file);
-        CircuitDocument doc = reader.read(file);
-        List<SchemaFinding> findings = List.of();
-        if (schema != SchemaCheck.NONE) {
-            try (InputStream in = InputFiles.open(file, limits.maxBytes())) {
-                findings = schema.check(in, name, limits);
-            } catch (FormatException e) {
-                throw e;
-            } catch (IOException e) {
-                throw new FormatException(name, 0, 0, null, "cannot be read: " + dev.circa.format.io.IoMessages.of(e));
-            }
+        if (schema == SchemaCheck.NONE) {
+            return validate(reader.read(file), List.of());
         }
-        return validate(doc, findings);
+        if (!Files.isRegularFile(file)) {
+            CircuitDocument doc = reader.read(file);
+            return validate(doc, schema.check(file, limits));
+        }
+        // The schema check reads the file on its own: on the second core, beside the read and the analyses.
+        FutureTask<List<SchemaFinding>> check = new FutureTask<>(() -> schema.check(file, limits));
+        Thread worker = new Thread(check, "circa-schema-check");
+        worker.setDaemon(true);
+        worker.start();
+        try {
+            CircuitDocument doc = reader.read(file);
+            RuleContext ctx = new RuleContext(doc, options);
+            ctx.prepare();
+            return validate(ctx, doc, findings(check));
+        } finally {
+            check.cancel(true);
+        }
+    }
+
+    /** The schema check's findings, or its exception as thrown. */
+    private static List<SchemaFinding> findings(FutureTask<List<SchemaFinding>> check) throws FormatException {
+        try {
+            return check.get();
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new IllegalStateException("interrupted while the schema check ran", e);
+        } catch (ExecutionException e) {
+            Throwable c = e.getCause();
+            if (c instanceof FormatException f) {
+                throw f;
+            }
+            if (c instanceof RuntimeException r) {
+                throw r;
+            }
+            if (c instanceof Error r) {
+                throw r;
+            }
+            throw new IllegalStateException(c);
+        }
     }
 
     /** Reads and validates {@code file} under the default limits. */
@@ -99,7 +128,11 @@ public final class Validator {
 
     /** Validates {@code doc}, reporting {@code schemaFindings} (from a schema check of its text) as well. */
     public ValidationReport validate(CircuitDocument doc, List<SchemaFinding> schemaFindings) {
-        RuleContext ctx = new RuleContext(doc, options);
+        return validate(new RuleContext(doc, options), doc, schemaFindings);
+    }
+
+    private ValidationReport validate(RuleContext ctx, CircuitDocument doc, List<SchemaFinding> schemaFindings) {
+        ctx.prepare();
         ctx.schemaFindings(schemaFindings);
         for (Rule r : ORDER) {
             r.check(ctx);

@@ -5,14 +5,11 @@ import dev.circa.format.Checks;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.DocumentLocations;
 import dev.circa.format.Family;
-import dev.circa.format.InputNode;
-import dev.circa.format.Node;
 import dev.circa.format.NodeLocations;
+import dev.circa.format.NodeTable;
 import dev.circa.format.Output;
-import dev.circa.format.ProductNode;
 import dev.circa.format.ReadFinding;
 import dev.circa.format.SourceLocation;
-import dev.circa.format.SumNode;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.LinkedHashMap;
@@ -57,7 +54,8 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         private final List<ReadFinding> unknown = new ArrayList<>();
         private final DocumentLocations.Recorder locations = new DocumentLocations.Recorder();
         private final NodeLocations.Recorder nodeLocations = new NodeLocations.Recorder();
-        private final List<Node> nodes = new ArrayList<>();
+        private final NodeTable.Builder table = new NodeTable.Builder();
+        private int nodeCount;
         private final NodeFields fields = new NodeFields();
         private int[] intBuffer = new int[64];
 
@@ -152,7 +150,7 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                                 f.message() + " (ignored: the document is version " + version + ")", f.location())
                         : f);
             }
-            return b.nodes(nodes).nodeLocations(nodeLocations.build()).locations(locations.build())
+            return b.nodeTable(table.build()).nodeLocations(nodeLocations.build()).locations(locations.build())
                     .findings(findings).build();
         }
 
@@ -263,31 +261,40 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         private void readNodes(String ptr) throws FormatException {
             in.expect(JsonToken.START_ARRAY, ptr, "an array of nodes");
             while (in.nextElement()) {
-                int index = nodes.size();
+                int index = nodeCount;
                 if (index >= limits.maxNodes()) {
                     throw LimitExceededException.of(file, in.line(), in.column(), ptr + "/" + index,
                             "the number of nodes", ReadLimits.MAX_NODES, limits.maxNodes());
                 }
-                nodeLocations.add(in.line(), in.column());
-                nodes.add(readNode(ptr + "/" + index, in.line(), in.column()));
+                long at = in.position();
+                int line = (int) (at >>> 32);
+                int column = (int) at;
+                nodeLocations.add(line, column);
+                readNode(ptr + "/" + index, line, column);
+                nodeCount++;
             }
         }
 
-        private Node readNode(String p, int line, int col) throws FormatException {
+        private void readNode(String p, int line, int col) throws FormatException {
             in.expect(JsonToken.START_OBJECT, p, "a node object");
             NodeFields f = fields;
             f.reset();
             String m;
             while ((m = in.nextProperty()) != null) {
-                String q = p + "/" + m;
+                // a member's pointer (p + "/" + m) is built only where it is needed, for a message or a finding
                 switch (m) {
-                    case "id" -> f.id = in.readInt(q, 0, Integer.MAX_VALUE);
-                    case "label" -> f.label = in.readString(q);
+                    case "id" -> {
+                        f.id = intMember(p, m);
+                        f.hasId = true;
+                    }
+                    case "label" -> f.label = in.readString(p + "/" + m);
                     case "input" -> {
                         f.kinds++;
-                        String fam = in.readString(q);
-                        f.family = Family.fromJsonName(fam);
+                        String written = in.stringOrNull();
+                        f.family = written == null ? null : Family.fromJsonName(written);
                         if (f.family == null) {
+                            String q = p + "/" + m;
+                            String fam = in.readString(q);
                             throw in.error(q, "unknown input family \"" + fam + "\"; expected one of "
                                     + familyNames());
                         }
@@ -295,28 +302,29 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                     case "product" -> {
                         f.kinds++;
                         f.isProduct = true;
-                        f.children = readIds(q);
+                        readIds(p, m);
                     }
                     case "sum" -> {
                         f.kinds++;
                         f.isSum = true;
-                        f.children = readIds(q);
+                        readIds(p, m);
                     }
                     case "weights" -> {
                         f.weightForms++;
-                        f.weights = in.readDoubleArray(q);
+                        readWeights(p, m);
                     }
                     case "logWeights" -> {
                         f.weightForms++;
-                        f.weights = in.readDoubleArray(q);
+                        readWeights(p, m);
                         f.logWeights = true;
                     }
-                    case "var" -> f.vars = new int[] {in.readInt(q, 0, Integer.MAX_VALUE)};
+                    case "var" -> f.vars = new int[] {intMember(p, m)};
                     case "vars" -> {
                         f.varsArray = true;
-                        f.vars = in.readIntArray(q, 0, Integer.MAX_VALUE);
+                        f.vars = in.readIntArray(p + "/" + m, 0, Integer.MAX_VALUE);
                     }
                     default -> {
+                        String q = p + "/" + m;
                         if (ParamNames.isParameter(m)) {
                             f.paramLocations.put(m, new int[] {in.line(), in.column()});
                             f.params.put(m, readParamValue(q));
@@ -327,20 +335,37 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                     }
                 }
             }
-            return f.build(p, line, col, this);
+            f.build(p, line, col, this);
         }
 
-        private int[] readIds(String q) throws FormatException {
-            in.expect(JsonToken.START_ARRAY, q, "an array of node ids");
+        /** A non-negative int member {@code m} of the node at {@code p}. */
+        private int intMember(String p, String m) throws FormatException {
+            return in.readIntAt(p, m, 0, Integer.MAX_VALUE);
+        }
+
+        /** Appends the child ids of member {@code m} of the node at {@code p} to the table. */
+        private void readIds(String p, String m) throws FormatException {
+            if (in.token() != JsonToken.START_ARRAY) {
+                in.expect(JsonToken.START_ARRAY, p + "/" + m, "an array of node ids");
+            }
             int n = 0;
             while (in.nextElement()) {
-                if (n == intBuffer.length) {
-                    intBuffer = Arrays.copyOf(intBuffer, n * 2);
-                }
-                intBuffer[n] = in.readInt(q + "/" + n, 0, Integer.MAX_VALUE);
+                table.appendChild(in.readIntAt(p, m, n, 0, Integer.MAX_VALUE));
                 n++;
             }
-            return Arrays.copyOf(intBuffer, n);
+        }
+
+        /** Appends the numbers of member {@code m} (weights or log-weights) of the node at {@code p} to the table. */
+        private void readWeights(String p, String m) throws FormatException {
+            if (in.token() != JsonToken.START_ARRAY) {
+                in.readDoubleArray(p + "/" + m);
+            }
+            int n = 0;
+            while (in.nextElement()) {
+                double v = in.finiteOrNaN();
+                table.appendValue(Double.isFinite(v) ? v : in.readDouble(p + "/" + m + "/" + n));
+                n++;
+            }
         }
 
         /** A parameter value: a number, an array of numbers or an array of arrays of numbers. */
@@ -398,15 +423,14 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
 
     /** The members of the node being read; reused from node to node. */
     private static final class NodeFields {
-        Integer id;
+        int id;
+        boolean hasId;
         String label;
         int kinds;
         Family family;
         boolean isProduct;
         boolean isSum;
-        int[] children;
         int weightForms;
-        double[] weights;
         boolean logWeights;
         int[] vars;
         boolean varsArray;
@@ -414,15 +438,14 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         final Map<String, int[]> paramLocations = new LinkedHashMap<>();
 
         void reset() {
-            id = null;
+            id = 0;
+            hasId = false;
             label = null;
             kinds = 0;
             family = null;
             isProduct = false;
             isSum = false;
-            children = null;
             weightForms = 0;
-            weights = null;
             logWeights = false;
             vars = null;
             varsArray = false;
@@ -430,8 +453,9 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             paramLocations.clear();
         }
 
-        Node build(String p, int line, int col, Pass pass) throws FormatException {
-            if (id == null) {
+        /** Checks the node read and closes it in the table (its child ids and weights are there already). */
+        void build(String p, int line, int col, Pass pass) throws FormatException {
+            if (!hasId) {
                 throw pass.error(p + "/id", line, col, "a node needs an integer \"id\"");
             }
             if (kinds == 0) {
@@ -455,7 +479,8 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                 if (weightForms > 0) {
                     throw pass.error(p, line, col, "product node " + id + " cannot have weights; only sums are weighted");
                 }
-                return new ProductNode(id, label, children);
+                pass.table.close(NodeTable.PRODUCT, id, label, null, false);
+                return;
             }
             if (isSum) {
                 if (weightForms == 0) {
@@ -464,12 +489,13 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                 if (weightForms > 1) {
                     throw pass.error(p, line, col, "sum node " + id + " has both \"weights\" and \"logWeights\"; expected exactly one");
                 }
-                return new SumNode(id, label, children, weights, logWeights);
+                pass.table.close(NodeTable.SUM, id, label, null, logWeights);
+                return;
             }
-            return buildInput(p, line, col, pass);
+            buildInput(p, line, col, pass);
         }
 
-        private Node buildInput(String p, int line, int col, Pass pass) throws FormatException {
+        private void buildInput(String p, int line, int col, Pass pass) throws FormatException {
             if (weightForms > 0) {
                 throw pass.error(p, line, col, "input node " + id + " cannot have weights; only sums are weighted");
             }
@@ -539,7 +565,13 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                     rejectOthers(p, pass, names.toArray(new String[0]));
                 }
             }
-            return new InputNode(id, label, family, vars, values, logForm);
+            for (int v : vars) {
+                pass.table.appendVar(v);
+            }
+            for (double v : values) {
+                pass.table.appendValue(v);
+            }
+            pass.table.close(NodeTable.INPUT, id, label, family, logForm);
         }
 
         private double[] vector(String name, String p, int line, int col, Pass pass) throws FormatException {

@@ -116,6 +116,12 @@ public final class JsonInput implements AutoCloseable {
         return l == null ? 0 : Math.max(l.getColumnNr(), 0);
     }
 
+    /** Line (high 32 bits) and column (low 32 bits) of the current token, from one location lookup. */
+    public long position() {
+        TokenStreamLocation l = parser.currentTokenLocation();
+        return l == null ? 0 : ((long) Math.max(l.getLineNr(), 0) << 32) | Math.max(l.getColumnNr(), 0);
+    }
+
     /** A located error at the current token. */
     public FormatException error(String pointer, String problem) {
         return new FormatException(file, line(), column(), pointer, problem);
@@ -287,6 +293,70 @@ public final class JsonInput implements AutoCloseable {
         return (int) readLong(pointer, min, max);
     }
 
+    /** The current number token's value (checked by the caller). */
+    private double numberValue() throws FormatException {
+        try {
+            return parser.getDoubleValue();
+        } catch (JacksonException e) {
+            throw fail(e);
+        }
+    }
+
+    /** Whether the current token is an int in [{@code min}, {@code max}] as written (no conversion needed). */
+    private boolean intIn(int min, int max) throws FormatException {
+        if (token() != JsonToken.VALUE_NUMBER_INT) {
+            return false;
+        }
+        try {
+            if (parser.getNumberType() != JsonParser.NumberType.INT) {
+                return false;
+            }
+            int v = parser.getIntValue();
+            return v >= min && v <= max;
+        } catch (JacksonException e) {
+            throw fail(e);
+        }
+    }
+
+    /**
+     * As {@link #readInt(String, int, int)} for element {@code index} of the array at {@code base}, with
+     * the pointer built only for a message (a large array costs no string per element).
+     */
+    public int readIntAt(String base, int index, int min, int max) throws FormatException {
+        return intIn(min, max) ? parser.getIntValue() : readInt(base + "/" + index, min, max);
+    }
+
+    /** As {@link #readInt(String, int, int)} for member {@code member} of {@code parent}, the pointer built only for a message. */
+    public int readIntAt(String parent, String member, int min, int max) throws FormatException {
+        return intIn(min, max) ? parser.getIntValue() : readInt(parent + "/" + member, min, max);
+    }
+
+    /** As {@link #readIntAt(String, int, int, int)} for element {@code index} of member {@code member} of {@code parent}. */
+    public int readIntAt(String parent, String member, int index, int min, int max) throws FormatException {
+        return intIn(min, max) ? parser.getIntValue() : readInt(parent + "/" + member + "/" + index, min, max);
+    }
+
+    /** The current token's value when it is a finite number, else NaN (the caller then reads it for the message). */
+    public double finiteOrNaN() throws FormatException {
+        if (!isNumber()) {
+            return Double.NaN;
+        }
+        double v = numberValue();
+        return Double.isFinite(v) ? v : Double.NaN;
+    }
+
+    /** The current token's text when it is a string, else {@code null}; not checked for lone surrogates. */
+    public String stringOrNull() throws FormatException {
+        if (token() != JsonToken.VALUE_STRING) {
+            return null;
+        }
+        try {
+            return parser.getString();
+        } catch (JacksonException e) {
+            throw fail(e);
+        }
+    }
+
     /** Reads an array of finite numbers (the current token must start it). */
     public double[] readDoubleArray(String pointer) throws FormatException {
         expect(JsonToken.START_ARRAY, pointer, "an array of numbers");
@@ -296,7 +366,8 @@ public final class JsonInput implements AutoCloseable {
             if (n == buf.length) {
                 buf = Arrays.copyOf(buf, n * 2);
             }
-            buf[n] = readDouble(pointer + "/" + n);
+            double v = isNumber() ? numberValue() : Double.NaN;
+            buf[n] = Double.isFinite(v) ? v : readDouble(pointer + "/" + n);
             n++;
         }
         return Arrays.copyOf(buf, n);
@@ -311,7 +382,7 @@ public final class JsonInput implements AutoCloseable {
             if (n == buf.length) {
                 buf = Arrays.copyOf(buf, n * 2);
             }
-            buf[n] = readInt(pointer + "/" + n, min, max);
+            buf[n] = readIntAt(pointer, n, min, max);
             n++;
         }
         return Arrays.copyOf(buf, n);

@@ -95,6 +95,8 @@ public final class SchemaCatalog {
      * same verdict at a fraction of the cost (the node schema tries every kind and family in turn).
      */
     private final Map<String, Schema> nodeKindSchemas = new java.util.HashMap<>();
+    /** The same definitions compiled for the tree-less first look at each node ({@link NodeShapeCheck}). */
+    private final NodeShapeCheck nodeShapes;
 
     private SchemaCatalog() {
         registry = newRegistry();
@@ -110,12 +112,28 @@ public final class SchemaCatalog {
         }
         nodeKindSchemas.put("product", defOf("productNode"));
         nodeKindSchemas.put("sum", defOf("sumNode"));
+        Map<String, String> defs = new java.util.HashMap<>();
+        for (dev.circa.format.Family f : dev.circa.format.Family.values()) {
+            defs.put(f.jsonName(), "input-" + f.jsonName());
+        }
+        defs.put("product", "productNode");
+        defs.put("sum", "sumNode");
+        try (InputStream in = open(Kind.CIRCUIT)) {
+            nodeShapes = NodeShapeCheck.of(JsonInput.mapperFor(ReadLimits.DEFAULT).readTree(in), defs);
+        } catch (java.io.IOException | tools.jackson.core.JacksonException e) {
+            throw new IllegalStateException("the bundled schema " + Kind.CIRCUIT.fileName() + " cannot be read", e);
+        }
     }
 
     private Schema defOf(String name) {
         Schema s = registry.getSchema(SchemaLocation.of(Kind.CIRCUIT.id() + "#/$defs/" + name));
         s.initializeValidators();
         return s;
+    }
+
+    /** The compiled node rules of the first look (for tests in this package). */
+    NodeShapeCheck nodeShapes() {
+        return nodeShapes;
     }
 
     /** The shared catalog (schemas are loaded once, on first use). */
@@ -264,42 +282,65 @@ public final class SchemaCatalog {
         return out;
     }
 
+    /** Opens a document again from its start (a file, or bytes held in memory). */
+    @FunctionalInterface
+    public interface Reopen {
+        JsonInput open() throws FormatException;
+    }
+
     /**
-     * Validates a circuit file against the circuit schema in one streaming pass, holding one node at a
-     * time: each node is checked against the node sub-schema, the rest of the document as a whole. The
-     * verdict is the same as {@link #validate(Kind, JsonNode)} on the whole tree.
+     * Validates a circuit file against the circuit schema, streaming, without a tree per node: each
+     * node is first summarised from the token stream and checked against the sub-schema of its kind
+     * ({@link NodeShapeCheck}); only the nodes that check cannot vouch for (in practice, those with a
+     * violation) are read again as trees, in a second pass, and judged by the schema library against
+     * the node schema; the rest of the document is checked as a whole. The verdict and the violations
+     * are those of {@link #validate(Kind, JsonNode)} on the whole tree.
      *
      * @param path the file ({@code .gz} decompressed, {@code -} for standard input)
      * @return document-level violations first, then each node's in node order
      * @throws FormatException when the file is not JSON or a read limit is hit
      */
     public List<SchemaViolation> validateCircuit(Path path, ReadLimits limits) throws FormatException {
-        try (JsonInput json = JsonInput.openJson(path, limits)) {
-            return validateCircuit(json, limits);
+        return validateCircuit(() -> JsonInput.openJson(path, limits), limits);
+    }
+
+    /** As {@link #validateCircuit(Path, ReadLimits)}, reading the document through {@code reopen} (once, or twice when a node needs a tree). */
+    public List<SchemaViolation> validateCircuit(Reopen reopen, ReadLimits limits) throws FormatException {
+        try (JsonInput json = reopen.open()) {
+            return validateCircuit(json, limits, reopen);
         }
     }
 
-    /** As {@link #validateCircuit(Path, ReadLimits)}, from a stream; {@code file} names it in messages. */
+    /**
+     * As {@link #validateCircuit(Path, ReadLimits)}, from a stream that can be read once; {@code file} names
+     * it in messages. Each node is read as a tree and judged by the schema library.
+     */
     public List<SchemaViolation> validateCircuit(InputStream in, String file, ReadLimits limits) throws FormatException {
         try (JsonInput json = JsonInput.fromStream(in, file, limits)) {
-            return validateCircuit(json, limits);
+            return validateCircuit(json, limits, null);
         }
     }
 
-    private List<SchemaViolation> validateCircuit(JsonInput json, ReadLimits limits) throws FormatException {
+    private List<SchemaViolation> validateCircuit(JsonInput json, ReadLimits limits, Reopen reopen) throws FormatException {
         List<SchemaViolation> nodeViolations = new ArrayList<>();
         ObjectNode skeleton = JsonNodeFactory.instance.objectNode();
+        NodeShapeCheck shapes = nodeShapes.fresh();
+        java.util.BitSet doubtful = new java.util.BitSet();
         json.startDocument("a circuit document");
         String member;
         while ((member = json.nextProperty()) != null) {
             if (member.equals("nodes") && json.token() == JsonToken.START_ARRAY) {
-                long count = 0;
+                int count = 0;
                 while (json.nextElement()) {
                     if (count >= limits.maxNodes()) {
                         throw LimitExceededException.of(json.file(), json.line(), json.column(), "/nodes/" + count,
                                 "the number of nodes", ReadLimits.MAX_NODES, limits.maxNodes());
                     }
-                    nodeViolations.addAll(validateNode(json.readTree(), "/nodes/" + count));
+                    if (reopen == null) {
+                        nodeViolations.addAll(validateNode(json.readTree(), "/nodes/" + count));
+                    } else if (!shapes.conforms(json)) {
+                        doubtful.set(count);
+                    }
                     count++;
                 }
                 // The nodes were checked one by one; a valid stand-in keeps the array's own rules (minItems) in play.
@@ -312,8 +353,36 @@ public final class SchemaCatalog {
             }
         }
         json.endDocument();
+        if (!doubtful.isEmpty()) {
+            nodeViolations.addAll(judgeNodes(reopen, doubtful));
+        }
         List<SchemaViolation> out = new ArrayList<>(validate(Kind.CIRCUIT, skeleton));
         out.addAll(nodeViolations);
+        return out;
+    }
+
+    /** The second pass: reads the nodes of {@code which} as trees and judges them with the schema library. */
+    private List<SchemaViolation> judgeNodes(Reopen reopen, java.util.BitSet which) throws FormatException {
+        List<SchemaViolation> out = new ArrayList<>();
+        try (JsonInput json = reopen.open()) {
+            json.startDocument("a circuit document");
+            String member;
+            while ((member = json.nextProperty()) != null) {
+                if (!member.equals("nodes") || json.token() != JsonToken.START_ARRAY) {
+                    json.skipValue();
+                    continue;
+                }
+                int count = 0;
+                while (json.nextElement()) {
+                    if (which.get(count)) {
+                        out.addAll(validateNode(json.readTree(), "/nodes/" + count));
+                    } else {
+                        json.skipValue();
+                    }
+                    count++;
+                }
+            }
+        }
         return out;
     }
 

@@ -2,7 +2,7 @@ package dev.circa.validator.analysis;
 
 import dev.circa.engine.internal.IntList;
 import dev.circa.format.InputNode;
-import dev.circa.format.SumNode;
+import dev.circa.format.NodeTable;
 import dev.circa.format.Variable;
 import dev.circa.format.VariableType;
 import java.util.ArrayList;
@@ -286,12 +286,14 @@ public final class Determinism {
         return new Box(kv, ks, false);
     }
 
-    private boolean positive(SumNode sn, int j) {
-        return sn.logWeights() ? sn.weights()[j] > Double.NEGATIVE_INFINITY : sn.weights()[j] > 0;
+    /** Whether weight {@code j} of sum {@code i} is positive. */
+    private boolean positive(int i, int j) {
+        NodeTable t = g.document().nodeTable();
+        double w = t.value(t.valueStart(i) + j);
+        return t.logForm(i) ? w > Double.NEGATIVE_INFINITY : w > 0;
     }
 
     private Box sumBox(int i) {
-        SumNode sn = (SumNode) g.node(i);
         int a = g.childStart(i);
         int b = g.childEnd(i);
         Box first = null;
@@ -300,7 +302,7 @@ public final class Determinism {
         int[] vars = null;
         Support[] sp = null;
         for (int e = a; e < b; e++) {
-            if (!positive(sn, e - a)) {
+            if (!positive(i, e - a)) {
                 continue;
             }
             Box c = box[g.child(e)];
@@ -339,17 +341,17 @@ public final class Determinism {
         if (allSame) {
             return first;
         }
-        return new Box(vars, sp, exact && countDiffering(i, sn) <= 1);
+        return new Box(vars, sp, exact && countDiffering(i) <= 1);
     }
 
     /** Number of variables on which the positive children's exact boxes differ. */
-    private int countDiffering(int i, SumNode sn) {
+    private int countDiffering(int i) {
         int a = g.childStart(i);
         int b = g.childEnd(i);
         Box first = null;
         boolean[] diff = null;
         for (int e = a; e < b; e++) {
-            if (!positive(sn, e - a)) {
+            if (!positive(i, e - a)) {
                 continue;
             }
             Box c = box[g.child(e)];
@@ -375,12 +377,11 @@ public final class Determinism {
     }
 
     private byte decide(int i) {
-        SumNode sn = (SumNode) g.node(i);
         int a = g.childStart(i);
         int b = g.childEnd(i);
         IntList kids = new IntList();
         for (int e = a; e < b; e++) {
-            if (positive(sn, e - a)) {
+            if (positive(i, e - a)) {
                 kids.add(g.child(e));
             }
         }
@@ -671,9 +672,8 @@ public final class Determinism {
                     }
                 }
             } else {
-                SumNode sn = (SumNode) g.node(i);
                 for (int e = g.childStart(i); e < g.childEnd(i); e++) {
-                    if (positive(sn, e - g.childStart(i))) {
+                    if (positive(i, e - g.childStart(i))) {
                         long[] c = bitsOf[pos.get(g.child(e))];
                         for (int t = 0; t < words; t++) {
                             w[t] |= c[t];

@@ -4,11 +4,9 @@ import dev.circa.engine.internal.IdIndex;
 import dev.circa.engine.internal.IntList;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.Family;
-import dev.circa.format.InputNode;
 import dev.circa.format.Node;
+import dev.circa.format.NodeTable;
 import dev.circa.format.Output;
-import dev.circa.format.ProductNode;
-import dev.circa.format.SumNode;
 import dev.circa.format.Variable;
 import java.util.HashMap;
 import java.util.List;
@@ -55,8 +53,8 @@ public final class Graph {
 
     private Graph(CircuitDocument doc) {
         this.doc = doc;
-        List<Node> nodes = doc.nodes();
-        n = nodes.size();
+        NodeTable t = doc.nodeTable();
+        n = t.size();
         kind = new byte[n];
         childStart = new int[n + 1];
         long edges = doc.edgeCount();
@@ -66,7 +64,7 @@ public final class Graph {
         child = new int[(int) edges];
         int[] ids = new int[n];
         for (int i = 0; i < n; i++) {
-            ids[i] = nodes.get(i).id();
+            ids[i] = t.id(i);
         }
         index = new IdIndex(ids);
         for (int i = 0; i < n; i++) {
@@ -77,31 +75,32 @@ public final class Graph {
         int nv = doc.variables().size();
         int e = 0;
         for (int i = 0; i < n; i++) {
-            Node node = nodes.get(i);
+            byte k = t.kind(i);
             childStart[i] = e;
-            if (node instanceof InputNode in) {
+            if (k == NodeTable.INPUT) {
                 kind[i] = INPUT;
-                checkInput(i, in, nv);
+                checkInput(i, t, nv);
                 continue;
             }
-            kind[i] = node instanceof SumNode ? SUM : PRODUCT;
-            int[] ch = node.children();
-            if (ch.length == 0) {
+            kind[i] = k == NodeTable.SUM ? SUM : PRODUCT;
+            int a = t.childStart(i);
+            int b = t.childEnd(i);
+            if (a == b) {
                 childless.add(i);
             }
-            for (int j = 0; j < ch.length; j++) {
-                int c = index.get(ch[j]);
+            for (int j = a; j < b; j++) {
+                int c = index.get(t.childId(j));
                 if (c < 0) {
                     missingChildren.add(i);
-                    missingChildren.add(j);
+                    missingChildren.add(j - a);
                 } else if (c >= i) {
                     laterChildren.add(i);
-                    laterChildren.add(j);
+                    laterChildren.add(j - a);
                     c = -1;
                 }
                 child[e++] = c;
             }
-            if (node instanceof SumNode s && s.weights().length != ch.length) {
+            if (k == NodeTable.SUM && t.valueEnd(i) - t.valueStart(i) != b - a) {
                 weightCounts.add(i);
             }
         }
@@ -120,26 +119,29 @@ public final class Graph {
         }
     }
 
-    private void checkInput(int i, InputNode in, int nv) {
+    private void checkInput(int i, NodeTable t, int nv) {
         List<Variable> vars = doc.variables();
-        int[] v = in.vars();
+        Family family = t.family(i);
+        int a = t.varStart(i);
+        int b = t.varEnd(i);
         boolean typeBad = false;
-        for (int p = 0; p < v.length; p++) {
-            if (v[p] < 0 || v[p] >= nv) {
+        for (int p = a; p < b; p++) {
+            int v = t.var(p);
+            if (v < 0 || v >= nv) {
                 badVars.add(i);
-                badVars.add(p);
-            } else if (!in.family().accepts(vars.get(v[p]).type())) {
+                badVars.add(p - a);
+            } else if (!family.accepts(vars.get(v).type())) {
                 typeBad = true;
             }
         }
         if (typeBad) {
             familyTypes.add(i);
         }
-        if (in.family() == Family.MVNORMAL) {
-            boolean repeated = v.length < 2;
-            for (int a = 0; a < v.length && !repeated; a++) {
-                for (int b = a + 1; b < v.length; b++) {
-                    if (v[a] == v[b]) {
+        if (family == Family.MVNORMAL) {
+            boolean repeated = b - a < 2;
+            for (int x = a; x < b && !repeated; x++) {
+                for (int y = x + 1; y < b; y++) {
+                    if (t.var(x) == t.var(y)) {
                         repeated = true;
                         break;
                     }
@@ -205,11 +207,12 @@ public final class Graph {
         return outputNode[o];
     }
 
+    /** Node {@code i} as a record (made on each call: for reports and single nodes, not for passes). */
     public Node node(int i) {
-        return doc.nodes().get(i);
+        return doc.nodeTable().node(i);
     }
 
     public int id(int i) {
-        return doc.nodes().get(i).id();
+        return doc.nodeTable().id(i);
     }
 }

@@ -1,7 +1,7 @@
 package dev.circa.validator.analysis;
 
 import dev.circa.format.InputNode;
-import dev.circa.format.SumNode;
+import dev.circa.format.NodeTable;
 import dev.circa.format.Family;
 
 /**
@@ -22,8 +22,8 @@ public final class LogPartition {
             int a = g.childStart(i);
             int b = g.childEnd(i);
             if (k == Graph.INPUT) {
-                InputNode in = (InputNode) g.node(i);
-                if (in.family() == Family.CATEGORICAL) {
+                if (g.document().nodeTable().family(i) == Family.CATEGORICAL) {
+                    InputNode in = (InputNode) g.node(i);
                     z[i] = logSumExp(in.params(), in.logForm());
                 }
             } else if (k == Graph.PRODUCT) {
@@ -33,13 +33,13 @@ public final class LogPartition {
                 }
                 z[i] = s;
             } else {
-                SumNode sn = (SumNode) g.node(i);
-                double[] w = sn.weights();
-                boolean log = sn.logWeights();
+                NodeTable t = g.document().nodeTable();
+                int w0 = t.valueStart(i) - a;
+                boolean log = t.logForm(i);
                 double max = Double.NEGATIVE_INFINITY;
                 for (int e = a; e < b; e++) {
                     double c = z[g.child(e)];
-                    max = Math.max(max, log ? w[e - a] + c : c);
+                    max = Math.max(max, log ? t.value(w0 + e) + c : c);
                 }
                 if (max == Double.NEGATIVE_INFINITY || max == Double.POSITIVE_INFINITY) {
                     z[i] = log || max == Double.POSITIVE_INFINITY ? max : Double.NEGATIVE_INFINITY;
@@ -51,7 +51,7 @@ public final class LogPartition {
                     double c = z[g.child(e)];
                     double d = c - max;
                     // normalised sub-circuits have log Z = 0 everywhere: no exp needed then
-                    s += log ? Math.exp(w[e - a] + d) : d == 0 ? w[e - a] : w[e - a] * Math.exp(d);
+                    s += log ? Math.exp(t.value(w0 + e) + d) : d == 0 ? t.value(w0 + e) : t.value(w0 + e) * Math.exp(d);
                 }
                 z[i] = max + Math.log(s);
             }

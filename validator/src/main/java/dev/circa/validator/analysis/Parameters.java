@@ -5,8 +5,7 @@ import dev.circa.engine.family.ParameterLimits.Limit;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.Family;
 import dev.circa.format.InputNode;
-import dev.circa.format.Node;
-import dev.circa.format.SumNode;
+import dev.circa.format.NodeTable;
 import dev.circa.format.Variable;
 import java.util.List;
 import org.ejml.data.DMatrixRMaj;
@@ -24,12 +23,12 @@ public final class Parameters {
     private final boolean anyBad;
 
     private Parameters(CircuitDocument doc, double tol) {
-        List<Node> nodes = doc.nodes();
-        bad = new boolean[nodes.size()];
+        NodeTable t = doc.nodeTable();
+        bad = new boolean[t.size()];
         boolean any = false;
-        for (int i = 0; i < nodes.size(); i++) {
-            Node n = nodes.get(i);
-            bad[i] = n instanceof InputNode in ? !sound(doc, in, tol) : n instanceof SumNode s && !sound(s);
+        for (int i = 0; i < t.size(); i++) {
+            byte k = t.kind(i);
+            bad[i] = k == NodeTable.INPUT ? !sound(doc, (InputNode) t.node(i), tol) : k == NodeTable.SUM && !soundSum(t, i);
             any |= bad[i];
         }
         anyBad = any;
@@ -50,9 +49,11 @@ public final class Parameters {
         return bad[i];
     }
 
-    private static boolean sound(SumNode s) {
-        for (double w : s.weights()) {
-            if (!Double.isFinite(w) || !s.logWeights() && w < 0) {
+    private static boolean soundSum(NodeTable t, int i) {
+        boolean log = t.logForm(i);
+        for (int k = t.valueStart(i); k < t.valueEnd(i); k++) {
+            double w = t.value(k);
+            if (!Double.isFinite(w) || !log && w < 0) {
                 return false;
             }
         }

@@ -1,7 +1,7 @@
 package dev.circa.validator.analysis;
 
 import dev.circa.engine.internal.IntList;
-import dev.circa.format.InputNode;
+import dev.circa.format.NodeTable;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.HashMap;
@@ -52,15 +52,20 @@ public final class Scopes {
         for (int i = 0; i < n; i++) {
             byte k = g.kind(i);
             if (k == Graph.INPUT) {
-                int[] v = ((InputNode) g.node(i)).vars();
-                if (v.length == 1) {
-                    int x = v[0];
+                NodeTable t = g.document().nodeTable();
+                int va = t.varStart(i);
+                int vb = t.varEnd(i);
+                if (vb - va == 1) {
+                    int x = t.var(va);
                     if (single[x] < 0) {
                         single[x] = table.intern(new int[] {x});
                     }
                     scope[i] = single[x];
                 } else {
-                    int[] s = v.clone();
+                    int[] s = new int[vb - va];
+                    for (int p = va; p < vb; p++) {
+                        s[p - va] = t.var(p);
+                    }
                     Arrays.sort(s);
                     scope[i] = table.intern(dedupe(s));
                 }

@@ -2,11 +2,9 @@ package dev.circa.validator.rules;
 
 import dev.circa.format.Family;
 import dev.circa.format.InputNode;
-import dev.circa.format.Node;
 import dev.circa.format.Variable;
 import dev.circa.validator.Severity;
 import dev.circa.validator.analysis.Parameters;
-import java.util.List;
 import java.util.Locale;
 
 /** A categorical does not have one probability per state. */
@@ -14,9 +12,9 @@ import java.util.Locale;
 public final class CategoricalLengthMismatch extends Rule {
     @Override
     public void check(RuleContext ctx) {
-        List<Node> nodes = ctx.document().nodes();
-        for (int i = 0; i < nodes.size(); i++) {
-            if (nodes.get(i) instanceof InputNode in && in.family() == Family.CATEGORICAL
+        int count = ctx.document().nodeTable().size();
+        for (int i = 0; i < count; i++) {
+            if (ctx.family(i) == Family.CATEGORICAL && ctx.input(i) instanceof InputNode in
                     && Parameters.firstNonFinite(in) < 0) {
                 Variable var = Parameters.variable(ctx.document(), in);
                 if (Parameters.lengthMismatch(in, var) && !ctx.skip(this, severity())) {

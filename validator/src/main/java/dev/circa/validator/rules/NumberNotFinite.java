@@ -1,35 +1,35 @@
 package dev.circa.validator.rules;
 
 import dev.circa.format.InputNode;
-import dev.circa.format.Node;
-import dev.circa.format.SumNode;
+import dev.circa.format.NodeTable;
 import dev.circa.validator.Severity;
 import dev.circa.validator.analysis.Numbers;
 import dev.circa.validator.analysis.Parameters;
-import java.util.List;
 
 /** A parameter or weight is not a finite number. */
 @RuleInfo(id = "NumberNotFinite", summary = "A parameter or weight is not a finite number", severity = Severity.ERROR, guards = Aspect.PARAMETERS)
 public final class NumberNotFinite extends Rule {
     @Override
     public void check(RuleContext ctx) {
-        List<Node> nodes = ctx.document().nodes();
-        for (int i = 0; i < nodes.size(); i++) {
-            if (nodes.get(i) instanceof InputNode in) {
+        NodeTable t = ctx.document().nodeTable();
+        for (int i = 0; i < t.size(); i++) {
+            if (t.kind(i) == NodeTable.INPUT && ctx.input(i) instanceof InputNode in) {
                 int k = Parameters.firstNonFinite(in);
                 if (k >= 0) {
                     report(ctx, i, Parameters.member(in, k), String.format(java.util.Locale.ROOT,
                             "parameter %s of %s node %d is %s; expected a finite number", Parameters.member(in, k),
                             in.family().jsonName(), in.id(), Numbers.text(in.params()[k])));
                 }
-            } else if (nodes.get(i) instanceof SumNode s) {
-                double[] w = s.weights();
-                String member = s.logWeights() ? "logWeights" : "weights";
-                for (int j = 0; j < w.length; j++) {
-                    if (!Double.isFinite(w[j])) {
-                        report(ctx, i, member + "/" + j, String.format(java.util.Locale.ROOT,
+            } else if (t.kind(i) == NodeTable.SUM) {
+                int a = t.valueStart(i);
+                boolean log = t.logForm(i);
+                String member = log ? "logWeights" : "weights";
+                for (int k = a; k < t.valueEnd(i); k++) {
+                    double w = t.value(k);
+                    if (!Double.isFinite(w)) {
+                        report(ctx, i, member + "/" + (k - a), String.format(java.util.Locale.ROOT,
                                 "%s %d of sum %d is %s; expected a finite number",
-                                s.logWeights() ? "log-weight" : "weight", j, s.id(), Numbers.text(w[j])));
+                                log ? "log-weight" : "weight", k - a, t.id(i), Numbers.text(w)));
                     }
                 }
             }

@@ -4,12 +4,10 @@ import dev.circa.engine.family.ParameterLimits;
 import dev.circa.engine.family.ParameterLimits.Limit;
 import dev.circa.format.Family;
 import dev.circa.format.InputNode;
-import dev.circa.format.Node;
 import dev.circa.format.Variable;
 import dev.circa.validator.Severity;
 import dev.circa.validator.analysis.Numbers;
 import dev.circa.validator.analysis.Parameters;
-import java.util.List;
 import java.util.Locale;
 
 /** An input parameter is outside its family's range. */
@@ -17,9 +15,9 @@ import java.util.Locale;
 public final class ParameterOutOfRange extends Rule {
     @Override
     public void check(RuleContext ctx) {
-        List<Node> nodes = ctx.document().nodes();
-        for (int i = 0; i < nodes.size(); i++) {
-            if (nodes.get(i) instanceof InputNode in && in.family() != Family.MVNORMAL && Parameters.firstNonFinite(in) < 0) {
+        int count = ctx.document().nodeTable().size();
+        for (int i = 0; i < count; i++) {
+            if (ctx.family(i) != null && ctx.family(i) != Family.MVNORMAL && ctx.input(i) instanceof InputNode in && Parameters.firstNonFinite(in) < 0) {
                 if (in.family() == Family.CATEGORICAL) {
                     negativeProbabilities(ctx, i, in);
                 } else {

@@ -1,6 +1,9 @@
 package dev.circa.validator.rules;
 
 import dev.circa.format.CircuitDocument;
+import dev.circa.format.Family;
+import dev.circa.format.Node;
+import dev.circa.format.NodeTable;
 import dev.circa.format.SourceLocation;
 import dev.circa.validator.Diagnostic;
 import dev.circa.validator.Property;
@@ -20,6 +23,8 @@ import java.util.HashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import java.util.concurrent.CompletableFuture;
+import java.util.concurrent.CompletionException;
 
 /**
  * What the rules see of one validation: the document, the options, the shared analyses (computed
@@ -51,6 +56,7 @@ public final class RuleContext {
     private double[] logZ;
     private boolean logZDone;
     private boolean[] reachable;
+    private boolean prepared;
     private List<SchemaFinding> schemaFindings = List.of();
 
     public RuleContext(CircuitDocument doc, ValidationOptions options) {
@@ -83,7 +89,7 @@ public final class RuleContext {
             String num = end < 0 ? pointer.substring(7) : pointer.substring(7, end);
             try {
                 int i = Integer.parseInt(num);
-                if (i >= 0 && i < doc.nodes().size()) {
+                if (i >= 0 && i < doc.nodeTable().size()) {
                     SourceLocation l = doc.nodeLocation(i);
                     return new SourceLocation(pointer, l.line(), l.column());
                 }
@@ -100,6 +106,57 @@ public final class RuleContext {
             p = p.substring(0, Math.max(0, p.lastIndexOf('/')));
         }
         return SourceLocation.of(pointer);
+    }
+
+    /** The family of node {@code i} when it is an input, else {@code null} (no record made). */
+    public Family family(int i) {
+        return doc.nodeTable().family(i);
+    }
+
+    /**
+     * Node {@code i} as a record when it is an input (an {@link dev.circa.format.InputNode}), else {@code null}:
+     * products and sums are read from the table without a record.
+     */
+    public Node input(int i) {
+        NodeTable t = doc.nodeTable();
+        return t.kind(i) == NodeTable.INPUT ? t.node(i) : null;
+    }
+
+    /**
+     * Computes the shared analyses now (what the rules would compute on first use, with the same
+     * results), so that they can run while something else, such as the schema check, finishes.
+     */
+    public void prepare() {
+        if (prepared) {
+            return;
+        }
+        prepared = true;
+        // on two cores: the parameter facts beside the references and scopes, then the variable tree
+        // and log Z beside determinism (each analysis only reads those it depends on, all computed before)
+        CompletableFuture<Void> facts = CompletableFuture.runAsync(this::parameters);
+        graph();
+        scopes();
+        join(facts);
+        CompletableFuture<Void> treeAndZ = CompletableFuture.runAsync(() -> {
+            tree();
+            logPartition();
+        });
+        determinism();
+        join(treeAndZ);
+    }
+
+    private static void join(CompletableFuture<Void> f) {
+        try {
+            f.join();
+        } catch (CompletionException e) {
+            if (e.getCause() instanceof RuntimeException r) {
+                throw r;
+            }
+            if (e.getCause() instanceof Error r) {
+                throw r;
+            }
+            throw e;
+        }
     }
 
     /** The resolved references. */
@@ -239,13 +296,13 @@ public final class RuleContext {
     public void atNode(Rule rule, Severity s, int index, String member, String message) {
         SourceLocation l = doc.nodeLocation(index);
         String ptr = member == null ? l.pointer() : l.pointer() + "/" + member;
-        emit(rule, new Diagnostic(rule.id(), s, message, ptr, doc.nodes().get(index).id(), l.line(), l.column()));
+        emit(rule, new Diagnostic(rule.id(), s, message, ptr, doc.nodeTable().id(index), l.line(), l.column()));
     }
 
     /** Reports on the member at {@code pointer} (not a node). */
     public void at(Rule rule, Severity s, String pointer, String message) {
         SourceLocation l = doc.location(pointer);
-        if (pointer.isEmpty() && !doc.nodes().isEmpty() && doc.nodeLocation(0).hasLineColumn()) {
+        if (pointer.isEmpty() && doc.nodeTable().size() > 0 && doc.nodeLocation(0).hasLineColumn()) {
             // the document itself starts at the top of the text
             l = new SourceLocation("", 1, 1);
         }
@@ -336,6 +393,6 @@ public final class RuleContext {
 
     /** Short text naming node index {@code i} by its id, e.g. {@code node 7}. */
     public String name(int i) {
-        return "node " + doc.nodes().get(i).id();
+        return "node " + doc.nodeTable().id(i);
     }
 }

@@ -1,10 +1,8 @@
 package dev.circa.validator.rules;
 
-import dev.circa.format.Node;
-import dev.circa.format.SumNode;
+import dev.circa.format.NodeTable;
 import dev.circa.validator.Severity;
 import dev.circa.validator.analysis.Numbers;
-import java.util.List;
 import java.util.Locale;
 
 /** A sum weight is negative. */
@@ -12,14 +10,15 @@ import java.util.Locale;
 public final class WeightNegative extends Rule {
     @Override
     public void check(RuleContext ctx) {
-        List<Node> nodes = ctx.document().nodes();
-        for (int i = 0; i < nodes.size(); i++) {
-            if (nodes.get(i) instanceof SumNode s && !s.logWeights()) {
-                double[] w = s.weights();
-                for (int j = 0; j < w.length; j++) {
-                    if (Double.isFinite(w[j]) && w[j] < 0 && !ctx.skip(this, severity())) {
-                        ctx.atNode(this, severity(), i, "weights/" + j, String.format(Locale.ROOT,
-                                "weight %d of sum %d is %s; expected a weight >= 0", j, s.id(), Numbers.text(w[j])));
+        NodeTable t = ctx.document().nodeTable();
+        for (int i = 0; i < t.size(); i++) {
+            if (t.kind(i) == NodeTable.SUM && !t.logForm(i)) {
+                int a = t.valueStart(i);
+                for (int k = a; k < t.valueEnd(i); k++) {
+                    double w = t.value(k);
+                    if (Double.isFinite(w) && w < 0 && !ctx.skip(this, severity())) {
+                        ctx.atNode(this, severity(), i, "weights/" + (k - a), String.format(Locale.ROOT,
+                                "weight %d of sum %d is %s; expected a weight >= 0", k - a, t.id(i), Numbers.text(w)));
                     }
                 }
             }

@@ -1,6 +1,6 @@
 package dev.circa.validator.rules;
 
-import dev.circa.format.SumNode;
+import dev.circa.format.NodeTable;
 import dev.circa.validator.Severity;
 import dev.circa.validator.analysis.Graph;
 import dev.circa.validator.analysis.Numbers;
@@ -14,13 +14,15 @@ public final class WeightsNotNormalized extends Rule {
         Graph g = ctx.graph();
         double tol = ctx.options().tolerance();
         Severity sev = null;
+        NodeTable t = ctx.document().nodeTable();
         for (int i = 0; i < g.size(); i++) {
-            if (!(g.node(i) instanceof SumNode s) || s.weights().length == 0) {
+            if (t.kind(i) != NodeTable.SUM || t.valueEnd(i) == t.valueStart(i)) {
                 continue;
             }
+            boolean log = t.logForm(i);
             double sum = 0;
-            for (int j = 0; j < s.weights().length; j++) {
-                sum += s.weight(j);
+            for (int k = t.valueStart(i); k < t.valueEnd(i); k++) {
+                sum += log ? Math.exp(t.value(k)) : t.value(k);
             }
             if (Math.abs(sum - 1) <= tol || Double.isNaN(sum)) {
                 continue;
@@ -32,9 +34,9 @@ public final class WeightsNotNormalized extends Rule {
             if (ctx.skip(this, sev)) {
                 continue;
             }
-            ctx.atNode(this, sev, i, s.logWeights() ? "logWeights" : "weights", String.format(Locale.ROOT,
+            ctx.atNode(this, sev, i, log ? "logWeights" : "weights", String.format(Locale.ROOT,
                     "weights of sum %d add to %s (expected 1 +/- %s, set by --tolerance)",
-                    s.id(), Numbers.text(sum), Numbers.text(tol)));
+                    t.id(i), Numbers.text(sum), Numbers.text(tol)));
         }
     }
 }

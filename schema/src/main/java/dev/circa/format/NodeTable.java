@@ -1,0 +1,390 @@
+package dev.circa.format;
+
+import java.util.AbstractList;
+import java.util.Arrays;
+import java.util.List;
+import java.util.RandomAccess;
+
+/**
+ * A circuit's nodes in flat columns, one entry per node position: kind, id, family and flags in
+ * primitive columns, child ids and numbers (a sum's weights, an input's parameters) each in one
+ * column shared by all nodes and sliced by start offsets, variable indices likewise. No object per
+ * node and no boxed number: a 10^7-edge circuit costs its 10^7 child ids and weights and a few bytes
+ * per node. Each column is a list of fixed blocks of {@value #BLOCK} entries, so that it grows without
+ * copying and never needs one huge array (which a garbage collector handles at extra cost). {@link #nodes()} shows the same nodes as {@link Node} records, made on each access (for
+ * code that reads a node at a time; large passes use the columns).
+ *
+ * <p>Instances are immutable once built and safe to share between threads.
+ */
+public final class NodeTable {
+    /** {@link #kind(int)} of an input. */
+    public static final byte INPUT = 0;
+    /** {@link #kind(int)} of a product. */
+    public static final byte PRODUCT = 1;
+    /** {@link #kind(int)} of a sum. */
+    public static final byte SUM = 2;
+
+    private static final int SHIFT = 15;
+    /** Entries per block of a column. */
+    static final int BLOCK = 1 << SHIFT;
+    private static final int MASK = BLOCK - 1;
+    private static final Family[] FAMILIES = Family.values();
+    private static final byte LOG_FORM = 1;
+
+    private final int size;
+    private final byte[][] kind;
+    private final int[][] id;
+    private final byte[][] family;
+    private final byte[][] flags;
+    private final String[][] labels;
+    private final int[][] childStart;
+    private final int[][] children;
+    private final int[][] valueStart;
+    private final double[][] values;
+    private final int[][] varStart;
+    private final int[][] vars;
+    private final long retained;
+
+    private NodeTable(Builder b) {
+        size = b.size;
+        kind = b.kind.blocks();
+        id = b.id.blocks();
+        family = b.family.blocks();
+        flags = b.flags.blocks();
+        labels = b.labels;
+        childStart = b.childStart.blocks();
+        children = b.children.blocks();
+        valueStart = b.valueStart.blocks();
+        values = b.values.blocks();
+        varStart = b.varStart.blocks();
+        vars = b.vars.blocks();
+        long r = (long) (kind.length + family.length + flags.length) * BLOCK;
+        r += 4L * BLOCK * (id.length + childStart.length + children.length + valueStart.length + varStart.length + vars.length);
+        r += 8L * BLOCK * values.length;
+        retained = r + (labels == null ? 0 : 4L * BLOCK * labels.length);
+    }
+
+    /** The table of {@code nodes} (documents built in code). */
+    public static NodeTable of(List<? extends Node> nodes) {
+        Builder b = new Builder();
+        for (Node n : nodes) {
+            b.add(n);
+        }
+        return b.build();
+    }
+
+    public int size() {
+        return size;
+    }
+
+    /** {@link #INPUT}, {@link #PRODUCT} or {@link #SUM}. */
+    public byte kind(int i) {
+        return kind[i >>> SHIFT][i & MASK];
+    }
+
+    public int id(int i) {
+        return id[i >>> SHIFT][i & MASK];
+    }
+
+    /** The label of node {@code i}, or {@code null}. */
+    public String label(int i) {
+        return labels == null || labels[i >>> SHIFT] == null ? null : labels[i >>> SHIFT][i & MASK];
+    }
+
+    /** The family of input {@code i}, {@code null} for products and sums. */
+    public Family family(int i) {
+        byte f = family[i >>> SHIFT][i & MASK];
+        return f == 0 ? null : FAMILIES[f - 1];
+    }
+
+    /** Whether sum {@code i} has log-weights, or categorical {@code i} log-probabilities. */
+    public boolean logForm(int i) {
+        return (flags[i >>> SHIFT][i & MASK] & LOG_FORM) != 0;
+    }
+
+    /** The first position of node {@code i}'s child ids in {@link #childId(int)}. */
+    public int childStart(int i) {
+        return childStart[i >>> SHIFT][i & MASK];
+    }
+
+    /** One past the last position of node {@code i}'s child ids. */
+    public int childEnd(int i) {
+        return childStart(i + 1);
+    }
+
+    /** The child id at position {@code e} (see {@link #childStart(int)}). */
+    public int childId(int e) {
+        return children[e >>> SHIFT][e & MASK];
+    }
+
+    /** The first position of node {@code i}'s numbers (weights or parameters) in {@link #value(int)}. */
+    public int valueStart(int i) {
+        return valueStart[i >>> SHIFT][i & MASK];
+    }
+
+    /** One past the last position of node {@code i}'s numbers. */
+    public int valueEnd(int i) {
+        return valueStart(i + 1);
+    }
+
+    /** The number at position {@code k}: a weight (or log-weight) of a sum, a parameter of an input. */
+    public double value(int k) {
+        return values[k >>> SHIFT][k & MASK];
+    }
+
+    /** The first position of input {@code i}'s variable indices in {@link #var(int)}. */
+    public int varStart(int i) {
+        return varStart[i >>> SHIFT][i & MASK];
+    }
+
+    /** One past the last position of input {@code i}'s variable indices. */
+    public int varEnd(int i) {
+        return varStart(i + 1);
+    }
+
+    /** The variable index at position {@code k}. */
+    public int var(int k) {
+        return vars[k >>> SHIFT][k & MASK];
+    }
+
+    /** Total number of child references (duplicates counted). */
+    public long edgeCount() {
+        return childStart(size);
+    }
+
+    /** Total number of numbers held (weights and parameters of all nodes). */
+    public long valueCount() {
+        return valueStart(size);
+    }
+
+    /**
+     * The bytes of the primitive blocks this table holds (headers not counted): what a document's
+     * nodes cost in memory, to compare with what they contain.
+     */
+    public long retainedBytes() {
+        return retained;
+    }
+
+    /** Node {@code i} as a record (its arrays are copies). */
+    public Node node(int i) {
+        int[] ch = new int[childEnd(i) - childStart(i)];
+        for (int e = 0; e < ch.length; e++) {
+            ch[e] = childId(childStart(i) + e);
+        }
+        double[] v = new double[valueEnd(i) - valueStart(i)];
+        for (int k = 0; k < v.length; k++) {
+            v[k] = value(valueStart(i) + k);
+        }
+        byte k = kind(i);
+        if (k == PRODUCT) {
+            return new ProductNode(id(i), label(i), ch);
+        }
+        if (k == SUM) {
+            return new SumNode(id(i), label(i), ch, v, logForm(i));
+        }
+        int[] vs = new int[varEnd(i) - varStart(i)];
+        for (int p = 0; p < vs.length; p++) {
+            vs[p] = var(varStart(i) + p);
+        }
+        return new InputNode(id(i), label(i), family(i), vs, v, logForm(i));
+    }
+
+    /** The nodes as records, each made when it is read. */
+    public List<Node> nodes() {
+        return new Records();
+    }
+
+    /** A read-only list view whose elements are made on access. */
+    private final class Records extends AbstractList<Node> implements RandomAccess {
+        @Override
+        public Node get(int index) {
+            if (index < 0 || index >= size) {
+                throw new IndexOutOfBoundsException(index);
+            }
+            return node(index);
+        }
+
+        @Override
+        public int size() {
+            return size;
+        }
+    }
+
+    /** A growable column of ints in blocks. */
+    private static final class Ints {
+        private int[][] blocks = new int[4][];
+        private int size;
+
+        void add(int v) {
+            int b = size >>> SHIFT;
+            if (b == blocks.length) {
+                blocks = Arrays.copyOf(blocks, b * 2);
+            }
+            if (blocks[b] == null) {
+                blocks[b] = new int[BLOCK];
+            }
+            blocks[b][size & MASK] = v;
+            size++;
+        }
+
+        int[][] blocks() {
+            return Arrays.copyOf(blocks, (size + MASK) >>> SHIFT);
+        }
+    }
+
+    /** A growable column of doubles in blocks. */
+    private static final class Doubles {
+        private double[][] blocks = new double[4][];
+        private int size;
+
+        void add(double v) {
+            int b = size >>> SHIFT;
+            if (b == blocks.length) {
+                blocks = Arrays.copyOf(blocks, b * 2);
+            }
+            if (blocks[b] == null) {
+                blocks[b] = new double[BLOCK];
+            }
+            blocks[b][size & MASK] = v;
+            size++;
+        }
+
+        double[][] blocks() {
+            return Arrays.copyOf(blocks, (size + MASK) >>> SHIFT);
+        }
+    }
+
+    /** A growable column of bytes in blocks. */
+    private static final class Bytes {
+        private byte[][] blocks = new byte[4][];
+        private int size;
+
+        void add(byte v) {
+            int b = size >>> SHIFT;
+            if (b == blocks.length) {
+                blocks = Arrays.copyOf(blocks, b * 2);
+            }
+            if (blocks[b] == null) {
+                blocks[b] = new byte[BLOCK];
+            }
+            blocks[b][size & MASK] = v;
+            size++;
+        }
+
+        byte[][] blocks() {
+            return Arrays.copyOf(blocks, (size + MASK) >>> SHIFT);
+        }
+    }
+
+    /**
+     * Builds a table node by node. A node's child ids and numbers may be appended while it is read
+     * ({@link #appendChild}, {@link #appendValue}), then the node is closed with its kind; a reader that
+     * abandons the document simply drops the builder. Columns grow a block at a time, never copied,
+     * so building costs at most the final size plus one block per column. Not thread-safe.
+     */
+    public static final class Builder {
+        private int size;
+        private final Bytes kind = new Bytes();
+        private final Ints id = new Ints();
+        private final Bytes family = new Bytes();
+        private final Bytes flags = new Bytes();
+        private String[][] labels;
+        private final Ints childStart = new Ints();
+        private final Ints children = new Ints();
+        private final Ints valueStart = new Ints();
+        private final Doubles values = new Doubles();
+        private final Ints varStart = new Ints();
+        private final Ints vars = new Ints();
+
+        public Builder() {
+            childStart.add(0);
+            valueStart.add(0);
+            varStart.add(0);
+        }
+
+        /** Appends a child id to the node being read. */
+        public void appendChild(int childId) {
+            check(children.size);
+            children.add(childId);
+        }
+
+        /** Appends a number (weight or parameter) to the node being read. */
+        public void appendValue(double v) {
+            check(values.size);
+            values.add(v);
+        }
+
+        /** Appends a variable index to the node being read. */
+        public void appendVar(int v) {
+            check(vars.size);
+            vars.add(v);
+        }
+
+        private static void check(int n) {
+            if (n == Integer.MAX_VALUE - 8) {
+                throw new IllegalStateException("more than 2^31 entries in one column");
+            }
+        }
+
+        /**
+         * Closes the node being read: everything appended since the previous node closed belongs to it.
+         *
+         * @param f the family of an input, {@code null} otherwise
+         * @param logForm log-weights of a sum, log-probabilities of a categorical
+         */
+        public void close(byte k, int nodeId, String label, Family f, boolean logForm) {
+            check(size);
+            if (label != null) {
+                if (labels == null) {
+                    labels = new String[4][];
+                }
+                int b = size >>> SHIFT;
+                if (b >= labels.length) {
+                    labels = Arrays.copyOf(labels, Math.max(b + 1, labels.length * 2));
+                }
+                if (labels[b] == null) {
+                    labels[b] = new String[BLOCK];
+                }
+                labels[b][size & MASK] = label;
+            }
+            kind.add(k);
+            id.add(nodeId);
+            family.add(f == null ? 0 : (byte) (f.ordinal() + 1));
+            flags.add(logForm ? LOG_FORM : 0);
+            size++;
+            childStart.add(children.size);
+            valueStart.add(values.size);
+            varStart.add(vars.size);
+        }
+
+        /** Appends {@code n} whole. */
+        public void add(Node n) {
+            for (int c : n.children()) {
+                appendChild(c);
+            }
+            if (n instanceof InputNode in) {
+                for (int v : in.vars()) {
+                    appendVar(v);
+                }
+                for (double p : in.params()) {
+                    appendValue(p);
+                }
+                close(INPUT, in.id(), in.label(), in.family(), in.logForm());
+            } else if (n instanceof SumNode s) {
+                for (double w : s.weights()) {
+                    appendValue(w);
+                }
+                close(SUM, s.id(), s.label(), null, s.logWeights());
+            } else {
+                close(PRODUCT, n.id(), n.label(), null, false);
+            }
+        }
+
+        public NodeTable build() {
+            if (labels != null) {
+                labels = Arrays.copyOf(labels, (size + MASK) >>> SHIFT);
+            }
+            return new NodeTable(this);
+        }
+    }
+}

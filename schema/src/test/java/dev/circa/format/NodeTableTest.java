@@ -1,0 +1,148 @@
+package dev.circa.format;
+
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import dev.circa.format.io.CircuitReader;
+import dev.circa.format.io.CircuitWriter;
+import java.io.ByteArrayInputStream;
+import java.io.ByteArrayOutputStream;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Random;
+import org.junit.jupiter.api.Test;
+
+/**
+ * The flat node columns: the records they show are the nodes they were made from, member for member,
+ * whether built from records in code or read from text; and what they hold in memory is bounded by
+ * what the document contains: its content plus at most one partly filled block per column.
+ */
+class NodeTableTest {
+    /** Random nodes of every kind and family, with labels, log forms and any lengths (validity not required). */
+    private static List<Node> randomNodes(Random rnd, int n) {
+        List<Node> nodes = new ArrayList<>();
+        Family[] families = Family.values();
+        for (int i = 0; i < n; i++) {
+            String label = rnd.nextInt(4) == 0 ? "pump_" + i : null;
+            int k = rnd.nextInt(3);
+            if (k == 0 || i == 0) {
+                Family f = families[rnd.nextInt(families.length)];
+                int[] vars = new int[f == Family.MVNORMAL ? 2 + rnd.nextInt(2) : 1];
+                for (int j = 0; j < vars.length; j++) {
+                    vars[j] = rnd.nextInt(7);
+                }
+                // as many parameters as the family has (so that the writer can write them), any values
+                int d = vars.length;
+                double[] params = new double[f == Family.MVNORMAL ? d + d * d
+                        : f == Family.CATEGORICAL ? 2 + rnd.nextInt(4) : f.parameters().size()];
+                for (int j = 0; j < params.length; j++) {
+                    params[j] = rnd.nextGaussian();
+                }
+                nodes.add(new InputNode(2 * i, label, f, vars, params, f == Family.CATEGORICAL && rnd.nextBoolean()));
+                continue;
+            }
+            int[] children = new int[1 + rnd.nextInt(5)];
+            for (int j = 0; j < children.length; j++) {
+                children[j] = 2 * rnd.nextInt(i);
+            }
+            if (k == 1) {
+                nodes.add(new ProductNode(2 * i, label, children));
+            } else {
+                double[] w = new double[children.length + (rnd.nextInt(5) == 0 ? 1 : 0)];
+                for (int j = 0; j < w.length; j++) {
+                    w[j] = rnd.nextDouble();
+                }
+                nodes.add(new SumNode(2 * i, label, children, w, rnd.nextBoolean()));
+            }
+        }
+        return nodes;
+    }
+
+    private static void assertSameNode(Node want, Node got) {
+        assertEquals(want.getClass(), got.getClass());
+        assertEquals(want.id(), got.id());
+        assertEquals(want.label(), got.label());
+        assertArrayEquals(want.children(), got.children());
+        if (want instanceof SumNode s) {
+            assertArrayEquals(s.weights(), ((SumNode) got).weights());
+            assertEquals(s.logWeights(), ((SumNode) got).logWeights());
+        } else if (want instanceof InputNode in) {
+            InputNode g = (InputNode) got;
+            assertEquals(in.family(), g.family());
+            assertArrayEquals(in.vars(), g.vars());
+            assertArrayEquals(in.params(), g.params());
+            assertEquals(in.logForm(), g.logForm());
+        }
+    }
+
+    @Test
+    void recordsInRecordsOut() {
+        Random rnd = new Random(14);
+        for (int round = 0; round < 20; round++) {
+            List<Node> nodes = randomNodes(rnd, 1 + rnd.nextInt(3000));
+            NodeTable t = NodeTable.of(nodes);
+            assertEquals(nodes.size(), t.size());
+            long edges = 0;
+            for (int i = 0; i < nodes.size(); i++) {
+                assertSameNode(nodes.get(i), t.node(i));
+                assertEquals(nodes.get(i).id(), t.id(i));
+                edges += nodes.get(i).children().length;
+            }
+            assertEquals(edges, t.edgeCount());
+        }
+    }
+
+    @Test
+    void readFromTextShowsTheNodesWritten() throws Exception {
+        Random rnd = new Random(15);
+        List<Node> nodes = randomNodes(rnd, 2000);
+        CircuitDocument doc = CircuitDocument.builder().variables(List.of(Variable.of("inlet_pressure", VariableType.REAL)))
+                .nodes(nodes).outputs(List.of(new Output("joint", nodes.get(nodes.size() - 1).id()))).build();
+        ByteArrayOutputStream text = new ByteArrayOutputStream();
+        new CircuitWriter().write(doc, text);
+        CircuitDocument read = new CircuitReader().read(new ByteArrayInputStream(text.toByteArray()), "nodes.json");
+        assertEquals(nodes.size(), read.nodes().size());
+        for (int i = 0; i < nodes.size(); i++) {
+            assertSameNode(nodes.get(i), read.nodes().get(i));
+        }
+    }
+
+    @Test
+    void memoryBoundedByWhatTheDocumentHolds() throws Exception {
+        // a chain of sums with 300,000 edges read from text: the columns hold the child ids (4 bytes), the
+        // weights (8 bytes) and 19 bytes per node, plus at most one partly filled block in each of 12 columns
+        StringBuilder json = new StringBuilder("{\"format\": \"circa.circuit\", \"version\": \"1.0\", \"variables\":"
+                + " [{\"name\": \"inlet_pressure\", \"type\": \"real\"}], \"nodes\": [\n");
+        json.append("{\"id\": 0, \"input\": \"normal\", \"var\": 0, \"mean\": 1.5, \"sd\": 0.25}");
+        int nodes = 1;
+        long edges = 0;
+        long values = 2;
+        Random rnd = new Random(16);
+        while (edges < 300_000) {
+            int k = 1 + rnd.nextInt(40);
+            json.append(",\n{\"id\": ").append(nodes).append(", \"sum\": [");
+            for (int j = 0; j < k; j++) {
+                json.append(j == 0 ? "" : ", ").append(rnd.nextInt(nodes));
+            }
+            json.append("], \"weights\": [");
+            for (int j = 0; j < k; j++) {
+                json.append(j == 0 ? "" : ", ").append(1.0 / k);
+            }
+            json.append("]}");
+            nodes++;
+            edges += k;
+            values += k;
+        }
+        json.append("], \"outputs\": [{\"name\": \"joint\", \"node\": ").append(nodes - 1).append("}]}");
+        CircuitDocument doc = new CircuitReader().read(new ByteArrayInputStream(json.toString().getBytes(
+                java.nio.charset.StandardCharsets.UTF_8)), "chain.json");
+        NodeTable t = doc.nodeTable();
+        assertEquals(nodes, t.size());
+        assertEquals(edges, t.edgeCount());
+        assertEquals(values, t.valueCount());
+        long content = 4 * edges + 8 * values + 4 + 19L * nodes;
+        assertTrue(t.retainedBytes() <= content + 12L * 8 * NodeTable.BLOCK,
+                "the columns hold " + t.retainedBytes() + " bytes for " + content + " bytes of content");
+    }
+}
