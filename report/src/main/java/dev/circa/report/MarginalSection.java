@@ -65,10 +65,11 @@ final class MarginalSection {
                     ? Charts.bars(var.name(), what, Arrays.asList(grid.labels()), names, ys)
                     : Charts.lines(var.name() + unit, what, grid.x(), names, ys);
             String title = "Marginal of " + var.name() + unit;
-            String desc = String.format(java.util.Locale.ROOT, "The exact marginal %s of %s (%s, %d mixture components)"
-                    + " under %s, at %d %s from %s to %s. The numbers are in the table that follows.", what, var.name(),
-                    var.type().jsonName(), m.componentCount(v), names.size() == 1 ? "output " + names.get(0)
-                            : names.size() + " outputs", grid.x().length, grid.discrete() ? "values" : "points",
+            String desc = String.format(java.util.Locale.ROOT, "The exact marginal %s of %s (%s, %s)"
+                    + " under %s, at %s from %s to %s. The numbers are in the table that follows.", what, var.name(),
+                    var.type().jsonName(), dev.circa.format.Counts.of(m.componentCount(v), "mixture component"),
+                    names.size() == 1 ? "output " + names.get(0) : names.size() + " outputs",
+                    dev.circa.format.Counts.of(grid.x().length, grid.discrete() ? "value" : "point"),
                     grid.discrete() ? grid.labels()[0] : Html.round(grid.x()[0]),
                     grid.discrete() ? grid.labels()[grid.x().length - 1] : Html.round(grid.x()[grid.x().length - 1]));
             html.raw("<div class=\"marginal\" data-variable=\"").text(var.name()).raw("\">\n");

@@ -1,6 +1,7 @@
 package dev.circa.converter.regions;
 
 import dev.circa.format.CircuitDocument;
+import dev.circa.format.Counts;
 import dev.circa.format.Family;
 import dev.circa.format.InputNode;
 import dev.circa.format.Node;
@@ -189,9 +190,9 @@ final class CircuitParameters {
             }
         }
         if (outputs < 1 || inputs == 0 || inputs % leafVars != 0) {
-            throw new FormatException(file, 0, 0, null, "the circuit has " + inputs + " inputs and " + outputs
-                    + " outputs, which compiling the region graph (" + leafVars
-                    + " variables in leaf regions) cannot give; expected a circuit compiled from this region graph");
+            throw new FormatException(file, 0, 0, null, "the circuit has " + Counts.of(inputs, "input") + " and "
+                    + Counts.of(outputs, "output") + ", which compiling the region graph ("
+                    + Counts.of(leafVars, "variable") + " in leaf regions) cannot give; expected a circuit compiled from this region graph");
         }
         int bundles = (int) (inputs / leafVars);
         int k = 1;
