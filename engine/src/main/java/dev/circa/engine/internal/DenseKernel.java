@@ -15,7 +15,7 @@ import org.ejml.data.DMatrixRMaj;
  * matrix product, sums (K x rows) = weights (K x n) times products (n x rows); then
  * value = log(sum) + largest log-weight of the sum + block maximum. So a row costs one exp per part node
  * and K x n multiply-adds instead of one exp per edge. The matrix product sums every entry over j in
- * order from 0 whatever the number of rows (one row: accumulators in registers, five sums at a time; several: rows in the
+ * order from 0 whatever the number of rows (one row: accumulators in registers, eight sums at a time; several: rows in the
  * innermost loop), so results do not depend on the batch. A {@link DenseBlocks#FUSED} product adds its
  * inputs' log-densities directly (a normal's log sd taken once per circuit, the same formula as
  * {@link Families#logDensity}).
@@ -381,6 +381,36 @@ public final class DenseKernel {
         final double[] w = d.weights[b].data;
         if (rows == 1) {
             int k = 0;
+            for (; k + 8 <= kk; k += 8) {
+                final int w0 = k * n;
+                double a0 = 0;
+                double a1 = 0;
+                double a2 = 0;
+                double a3 = 0;
+                double a4 = 0;
+                double a5 = 0;
+                double a6 = 0;
+                double a7 = 0;
+                for (int j = 0; j < n; j++) {
+                    double pj = pt[j];
+                    a0 += w[w0 + j] * pj;
+                    a1 += w[w0 + n + j] * pj;
+                    a2 += w[w0 + 2 * n + j] * pj;
+                    a3 += w[w0 + 3 * n + j] * pj;
+                    a4 += w[w0 + 4 * n + j] * pj;
+                    a5 += w[w0 + 5 * n + j] * pj;
+                    a6 += w[w0 + 6 * n + j] * pj;
+                    a7 += w[w0 + 7 * n + j] * pj;
+                }
+                ct[k] = a0;
+                ct[k + 1] = a1;
+                ct[k + 2] = a2;
+                ct[k + 3] = a3;
+                ct[k + 4] = a4;
+                ct[k + 5] = a5;
+                ct[k + 6] = a6;
+                ct[k + 7] = a7;
+            }
             for (; k + 5 <= kk; k += 5) {
                 final int w0 = k * n;
                 double a0 = 0;
