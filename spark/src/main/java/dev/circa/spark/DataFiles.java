@@ -1,6 +1,7 @@
 package dev.circa.spark;
 
 import dev.circa.format.io.FormatException;
+import dev.circa.format.io.IoMessages;
 
 import dev.circa.format.io.InputFiles;
 import dev.circa.format.io.TextDecoding;
@@ -9,6 +10,7 @@ import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.nio.charset.Charset;
 import java.nio.charset.StandardCharsets;
+import java.nio.file.NoSuchFileException;
 import java.util.Arrays;
 import java.util.Comparator;
 import org.apache.hadoop.fs.FSDataInputStream;
@@ -75,10 +77,10 @@ public final class DataFiles {
         try {
             exists = p.getFileSystem(spark.sparkContext().hadoopConfiguration()).exists(p);
         } catch (IOException e) {
-            throw new FormatException(path, 0, 0, null, "cannot be read (" + e.getMessage() + ")");
+            throw new FormatException(path, 0, 0, null, IoMessages.of(e));
         }
         if (!exists) {
-            throw new FormatException(path, 0, 0, null, "no such file or folder");
+            throw new FormatException(path, 0, 0, null, IoMessages.of(new NoSuchFileException(path)));
         }
     }
 
@@ -104,7 +106,7 @@ public final class DataFiles {
                 return TextDecoding.encoding(head, in.readNBytes(head, 0, 4));
             }
         } catch (FileNotFoundException e) {
-            return StandardCharsets.UTF_8; // a pattern, or no such path: Spark's reader says which
+            return StandardCharsets.UTF_8; // a wildcard pattern (a missing path was refused before): Spark's reader says which
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }

@@ -1,7 +1,6 @@
 package dev.circa.spark;
 
 import dev.circa.cli.CheckOptions;
-import dev.circa.cli.ReadOptions;
 import dev.circa.format.io.FormatException;
 import dev.circa.validator.regression.CheckReport;
 import java.nio.file.Path;
@@ -23,9 +22,6 @@ final class SparkCheckCommand implements Callable<Integer> {
     CheckOptions check;
 
     @Mixin
-    ReadOptions read;
-
-    @Mixin
     SparkOptions sparkOptions;
 
     @picocli.CommandLine.Spec
@@ -33,7 +29,7 @@ final class SparkCheckCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws FormatException {
-        CheckReport report = sparkOptions.run(circuitFile, read, spec, (spark, model) -> {
+        CheckReport report = sparkOptions.run(circuitFile, spec, (spark, model) -> {
             DistributedCheck distributed = new DistributedCheck(spark, model,
                     check.tolerance(model.driverModel().document().checks()));
             for (Path ref : check.references()) {

@@ -8,6 +8,7 @@ import java.util.LinkedHashMap;
 import java.util.Map;
 import org.apache.spark.sql.SparkSession;
 import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 
 /** The options of every {@code circa-spark} subcommand that say where and how Spark runs. */
@@ -23,6 +24,10 @@ public final class SparkOptions {
             description = "A certificate written by circa certify: the model's bytes are checked against it instead of validating again.")
     Path certificate;
 
+    /** The read limits of circa's own commands ({@code --max-bytes} and the rest). */
+    @Mixin
+    ReadOptions read;
+
     /** The work of a command, given the session and the model as loaded on the driver. */
     interface Work<T> {
         T run(SparkSession spark, SparkModel model) throws FormatException, IOException;
@@ -32,7 +37,7 @@ public final class SparkOptions {
      * Loads and checks {@code circuit} (before Spark starts, so a bad model costs no start-up), opens
      * the session, runs {@code work}, and stops the session when it opened it.
      */
-    <T> T run(Path circuit, ReadOptions read, CommandSpec spec, Work<T> work) throws FormatException {
+    <T> T run(Path circuit, CommandSpec spec, Work<T> work) throws FormatException {
         SparkModel model = SparkModel.load(circuit, certificate, read.limits(), spec.commandLine().getErr());
         Sessions.Opened opened = Sessions.open(master, conf);
         try {

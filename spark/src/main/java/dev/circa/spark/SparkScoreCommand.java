@@ -1,7 +1,6 @@
 package dev.circa.spark;
 
 import dev.circa.cli.ExitStatus;
-import dev.circa.cli.ReadOptions;
 import dev.circa.cli.UsageException;
 import dev.circa.format.io.FormatException;
 import java.nio.file.Path;
@@ -44,9 +43,6 @@ final class SparkScoreCommand implements Callable<Integer> {
     Form form = Form.csv;
 
     @Mixin
-    ReadOptions read;
-
-    @Mixin
     SparkOptions sparkOptions;
 
     @picocli.CommandLine.Spec
@@ -54,7 +50,7 @@ final class SparkScoreCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws FormatException {
-        sparkOptions.run(circuitFile, read, spec, (spark, model) -> {
+        sparkOptions.run(circuitFile, spec, (spark, model) -> {
             org.apache.hadoop.fs.Path out = new org.apache.hadoop.fs.Path(output);
             if (out.getFileSystem(spark.sparkContext().hadoopConfiguration()).exists(out)) {
                 throw new UsageException(output + " exists; give a new folder for the output (nothing was written)");
