@@ -26,6 +26,8 @@ public final class DenseWorkspace {
     final double[] row;
     /** One row's input log-densities of every fused product's children. */
     final double[] fused;
+    /** The chunk's data variable-major, for the input log-densities of several rows. */
+    final InputColumns columns;
 
     /** Buffers for {@code blocks} and chunks of up to {@code rows} rows. */
     public DenseWorkspace(DenseBlocks blocks, int rows) {
@@ -39,5 +41,6 @@ public final class DenseWorkspace {
         this.partExp = new double[Math.max(1, blocks.maxPartSize) * rows];
         this.row = new double[rows];
         this.fused = new double[blocks.fusedVar.length];
+        this.columns = new InputColumns(rows);
     }
 }
