@@ -98,11 +98,10 @@ public final class ReferenceDensities {
      * {@link #addLogValues} of a normal input at {@code n} contiguous cells {@code data[from + i]}, for
      * {@link #plain} cells and mean (where x - mean cannot overflow while x is finite), the missing cells listed in {@code missing[m0 .. m1-1]} (as offsets i): the same numbers, in
      * loops the JIT vectorises (the formula at every cell into {@code term}, 0 over the missing cells, the
-     * add) instead of a branch per cell.
+     * add) instead of a branch per cell. {@code logSd} is {@code Math.log(sd)}, taken once by the caller.
      */
-    public static void addNormalLogValues(double mean, double sd, double[] data, int from, int n, int[] missing,
-            int m0, int m1, double[] term, double[] dst, int at) {
-        double logSd = Math.log(sd);
+    public static void addNormalLogValues(double mean, double sd, double logSd, double[] data, int from, int n,
+            int[] missing, int m0, int m1, double[] term, double[] dst, int at) {
         for (int i = 0; i < n; i++) {
             double z = (data[from + i] - mean) / sd;
             term[i] = -0.5 * z * z - logSd - HALF_LOG_2PI;

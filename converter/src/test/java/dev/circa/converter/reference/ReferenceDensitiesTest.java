@@ -180,7 +180,7 @@ class ReferenceDensitiesTest {
                     got[i] = want[i];
                 }
                 ReferenceDensities.addLogValues(Family.NORMAL, new double[] {mean, sd}, data, 2, 1, n, want, 1);
-                ReferenceDensities.addNormalLogValues(mean, sd, data, 2, n, missing, 3, m, term, got, 1);
+                ReferenceDensities.addNormalLogValues(mean, sd, Math.log(sd), data, 2, n, missing, 3, m, term, got, 1);
                 for (int i = 0; i <= n; i++) {
                     // the general loop is the reference: the same doubles, cell by cell
                     assertEquals(Double.doubleToRawLongBits(want[i]), Double.doubleToRawLongBits(got[i]),
