@@ -72,13 +72,12 @@ public final class InputColumns {
      * the sum of its inputs' log-densities in child order (variables in {@code hide} count as missing).
      */
     public void fused(CircuitData c, DenseBlocks d, int i, boolean[] hide, double[] value, int base) {
-        final int f0 = d.fusedBase[i];
-        final int end = f0 + c.childStart[i + 1] - c.childStart[i];
+        final int s = c.childStart[i];
+        final int end = c.childStart[i + 1];
         final int n = rows;
-        for (int f = f0; f < end; f++) {
-            int slot = d.fusedSlot[f];
-            logDensities(c, d, slot, d.fusedVar[f], d.fusedMean[f], d.fusedSd[f], d.fusedLogSd[f], hide);
-            if (f == f0) {
+        for (int e = s; e < end; e++) {
+            logDensities(c, d, c.inputSlot[c.childIndex[e]], hide);
+            if (e == s) {
                 System.arraycopy(g, 0, value, base, n);
             } else {
                 for (int r = 0; r < n; r++) {
@@ -90,19 +89,19 @@ public final class InputColumns {
 
     /** Univariate input {@code slot} at every row of the chunk, into {@code value[base + r]}. */
     public void input(CircuitData c, DenseBlocks d, int slot, boolean[] hide, double[] value, int base) {
-        int off = c.paramStart[slot];
-        boolean normal = c.family[slot] == Families.NORMAL;
-        logDensities(c, d, slot, c.varIndex[c.varStart[slot]], normal ? c.params[off] : Double.NaN,
-                normal ? c.params[off + 1] : Double.NaN, d.inputLogSd[slot], hide);
+        logDensities(c, d, slot, hide);
         System.arraycopy(g, 0, value, base, rows);
     }
 
-    /** Input {@code slot} on variable {@code v} (mean, sd and log sd when it is a normal) at every row, into {@link #g}. */
-    private void logDensities(CircuitData c, DenseBlocks d, int slot, int v, double mean, double sd, double logSd,
-            boolean[] hide) {
+    /**
+     * Input {@code slot} at every row, into {@link #g}. Its parameters are read in the circuit's own arrays,
+     * in node order, as the inputs come (not in {@link DenseBlocks}' fused tables, laid out for one row).
+     */
+    private void logDensities(CircuitData c, DenseBlocks d, int slot, boolean[] hide) {
         final int n = rows;
         final double[] out = g;
         final double missing = d.inputMissing[slot];
+        final int v = c.varIndex[c.varStart[slot]];
         if (hide != null && hide[v]) {
             for (int r = 0; r < n; r++) {
                 out[r] = missing;
@@ -112,13 +111,16 @@ public final class InputColumns {
         final double[] x = cell;
         final int at = v * n;
         final int code = c.family[slot];
+        final int off = c.paramStart[slot];
         if (code == Families.NORMAL) {
+            final double mean = c.params[off];
+            final double sd = c.params[off + 1];
+            final double logSd = d.inputLogSd[slot];
             for (int r = 0; r < n; r++) {
                 double z = (x[at + r] - mean) / sd;
                 out[r] = -0.5 * z * z - logSd - HALF_LOG_2PI;
             }
         } else {
-            final int off = c.paramStart[slot];
             final int len = c.paramStart[slot + 1] - off;
             for (int r = 0; r < n; r++) {
                 double xr = x[at + r];
