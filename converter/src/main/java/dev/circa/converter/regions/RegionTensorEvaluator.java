@@ -25,8 +25,13 @@ import java.util.Arrays;
  * each evaluator owns its blocks and reuses them on every call. Not thread-safe: one evaluator per thread.
  */
 public final class RegionTensorEvaluator {
-    /** Rows evaluated together: the blocks hold this many rows, whatever the number of rows asked for. */
-    public static final int CHUNK_ROWS = 64;
+    /**
+     * Rows evaluated together: the blocks hold this many rows, whatever the number of rows asked for. 256 rather
+     * than 64: the loops over a block's rows are long enough for the JIT's vector loops, and the per-block work
+     * (reading every input's parameters) is taken 4 times less often (6% less time on the K = I = 4 circuit of
+     * 10^6 edges, unchanged at K = I = 24).
+     */
+    public static final int CHUNK_ROWS = 256;
     /** Below this a scaled sum has lost too many digits: the row takes the exact per-edge log-sum-exp. */
     private static final double SCALED_FLOOR = 0x1p-900;
     /** Sums and rows of one register tile of the scaled product. */
@@ -476,12 +481,14 @@ public final class RegionTensorEvaluator {
     /**
      * {@code dot[q * CHUNK_ROWS + row] = sum_j sw[j * kp + q] * expChild[j * CHUNK_ROWS + row]} for every
      * q below kp and row below {@code rows} (both multiples of {@value #TILE}), in tiles of 4 sums by 4 rows
-     * held in registers; each (q, row) adds its products in child order.
+     * held in registers, a tile of rows for every sum before the next (so its columns of {@code expChild} are
+     * read from cache by every sum however many rows the block holds); each (q, row) adds its products in
+     * child order.
      */
     private void product(double[] sw, int c, int kp, int rows) {
         double[] e = expChild;
-        for (int q = 0; q < kp; q += TILE) {
-            for (int row = 0; row < rows; row += TILE) {
+        for (int row = 0; row < rows; row += TILE) {
+            for (int q = 0; q < kp; q += TILE) {
                 double a00 = 0, a01 = 0, a02 = 0, a03 = 0;
                 double a10 = 0, a11 = 0, a12 = 0, a13 = 0;
                 double a20 = 0, a21 = 0, a22 = 0, a23 = 0;
