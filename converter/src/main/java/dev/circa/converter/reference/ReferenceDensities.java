@@ -96,21 +96,22 @@ public final class ReferenceDensities {
 
     /**
      * {@link #addLogValues} of a normal input at {@code n} contiguous cells {@code data[from + i]}, for
-     * {@link #plain} cells and mean (where x - mean cannot overflow while x is finite), the missing cells listed in {@code missing[m0 .. m1-1]} (as offsets i): the same numbers, in
-     * loops the JIT vectorises (the formula at every cell into {@code term}, 0 over the missing cells, the
-     * add) instead of a branch per cell. {@code logSd} is {@code Math.log(sd)}, taken once by the caller.
+     * {@link #plain} cells and mean (where x - mean cannot overflow while x is finite), the missing cells listed
+     * in {@code missing[m0 .. m1-1]} (as offsets i): the same numbers, in a loop the JIT vectorises (the
+     * formula added at every cell, a missing one's {@code dst} kept in {@code kept} before and put back
+     * after) instead of a branch per cell. {@code logSd} is {@code Math.log(sd)}, taken once by the caller.
      */
     public static void addNormalLogValues(double mean, double sd, double logSd, double[] data, int from, int n,
-            int[] missing, int m0, int m1, double[] term, double[] dst, int at) {
+            int[] missing, int m0, int m1, double[] kept, double[] dst, int at) {
+        for (int k = m0; k < m1; k++) {
+            kept[k - m0] = dst[at + missing[k]];
+        }
         for (int i = 0; i < n; i++) {
             double z = (data[from + i] - mean) / sd;
-            term[i] = -0.5 * z * z - logSd - HALF_LOG_2PI;
+            dst[at + i] += -0.5 * z * z - logSd - HALF_LOG_2PI;
         }
         for (int k = m0; k < m1; k++) {
-            term[missing[k]] = 0;
-        }
-        for (int i = 0; i < n; i++) {
-            dst[at + i] += term[i];
+            dst[at + missing[k]] = kept[k - m0];
         }
     }
 

@@ -85,8 +85,8 @@ public final class RegionTensorEvaluator {
     private int[] nanRow = new int[0];
     /** Per variable: whether every observed cell of the block is {@link ReferenceDensities#plain}. */
     private final boolean[] plain;
-    /** One input's log-values at the block's rows. */
-    private final double[] term = new double[CHUNK_ROWS];
+    /** A normal input's missing rows' values before it was added. */
+    private final double[] kept = new double[CHUNK_ROWS];
     private int[] digit = new int[2];
 
     /** An evaluator of the model that {@code params} define. */
@@ -383,7 +383,7 @@ public final class RegionTensorEvaluator {
                 double mean = normalMean[q];
                 if (plain[v] && mean == mean) {
                     ReferenceDensities.addNormalLogValues(mean, normalSd[q], normalLogSd[q], columns, v * CHUNK_ROWS, n,
-                            nanRow, nanStart[v], nanStart[v + 1], term, dst, at);
+                            nanRow, nanStart[v], nanStart[v + 1], kept, dst, at);
                 } else {
                     ReferenceDensities.addLogValues(family[v], p.inputParams(r, i, j), columns, v * CHUNK_ROWS, 1, n, dst, at);
                 }
