@@ -103,6 +103,18 @@ class InputColumnsTest {
         assertEquals(true, checked > 100, "observed cells compared: " + checked);
     }
 
+    @Test
+    void load_chunkAboveMaxCells_notTaken() {
+        // a chunk of very wide data is left to the row-by-row loop: at most MAX_CELLS cells are turned
+        assertEquals(true, InputColumns.fits(256, InputColumns.MAX_CELLS / 256));
+        assertEquals(false, InputColumns.fits(256, InputColumns.MAX_CELLS / 256 + 1));
+        InputColumns columns = new InputColumns(4);
+        columns.load(new double[2 * VARS], 0, 2, VARS);
+        assertEquals(true, columns.loaded());
+        columns.load(new double[0], 0, 4, InputColumns.MAX_CELLS);
+        assertEquals(false, columns.loaded());
+    }
+
     private static void assertBits(double expected, double actual, String what) {
         assertEquals(Double.doubleToRawLongBits(expected), Double.doubleToRawLongBits(actual),
                 () -> what + ": expected " + expected + " but was " + actual);

@@ -145,7 +145,7 @@ public final class DenseKernel {
             ForwardKernel.logSumExp(value, base, rows, s, end, childSlot, logWeight, scratch);
         } else if (c.family[c.inputSlot[i]] == Families.MVNORMAL) {
             ForwardKernel.input(c, data, row0, rows, hide, false, value, base, c.inputSlot[i], c.variableCount, mvn);
-        } else if (rows > 1) {
+        } else if (rows > 1 && ws.columns.loaded()) {
             ws.columns.input(c, d, c.inputSlot[i], hide, value, base);
         } else {
             input(c, d, c.inputSlot[i], data, row0, rows, hide, value, base, false);
@@ -158,7 +158,7 @@ public final class DenseKernel {
         final int base = d.nodeSlot[i] * rows;
         final int s = c.childStart[i];
         final int end = c.childStart[i + 1];
-        if (rows > 1) {
+        if (rows > 1 && ws.columns.loaded()) {
             ws.columns.fused(c, d, i, hide, value, base);
             return;
         }

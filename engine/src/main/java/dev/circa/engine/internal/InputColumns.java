@@ -19,9 +19,13 @@ import dev.circa.engine.family.SpecialFunctions;
  * ({@code z = (x - mean) / sd}, {@code -0.5 z z - log sd - log(2 pi) / 2}, log sd taken once per circuit),
  * {@link Families#logDensity} for other families, the input's log total mass at a missing or hidden cell,
  * and a fused product's children added in child order, the first child first. A row's values do not depend
- * on the other rows of the chunk. One per workspace; the arrays grow on first use to the chunk's data size.
+ * on the other rows of the chunk. One per workspace; the arrays grow on first use to the chunk's data size,
+ * at most {@value #MAX_CELLS} cells: a chunk of more (very wide data) is not taken, and the kernel reads it
+ * row by row as before.
  */
 public final class InputColumns {
+    /** Most cells (rows x variables) of a chunk taken: 32 MiB of doubles. */
+    public static final int MAX_CELLS = 1 << 22;
     private static final double HALF_LOG_2PI = SpecialFunctions.HALF_LOG_2PI;
 
     /** The values a normal input's missing rows held before it was added. */
@@ -30,18 +34,33 @@ public final class InputColumns {
     private int[] nanStart = new int[1];
     private int[] nanRow = new int[0];
     private int rows;
+    private boolean loaded;
 
     /** Columns for chunks of up to {@code maxRows} rows. */
     public InputColumns(int maxRows) {
         this.g = new double[maxRows];
     }
 
+    /** Whether a chunk of {@code rows} rows of {@code nv} variables is taken by {@link #load}. */
+    public static boolean fits(int rows, int nv) {
+        return (long) rows * nv <= MAX_CELLS;
+    }
+
+    /** Whether the last {@link #load} took its chunk: then {@link #fused} and {@link #input} may be called. */
+    public boolean loaded() {
+        return loaded;
+    }
+
     /**
      * Takes rows {@code row0 .. row0+rows-1} of row-major {@code data} ({@code nv} variables a row) as the
-     * chunk that later calls evaluate.
+     * chunk that later calls evaluate, if it {@link #fits}.
      */
     public void load(double[] data, int row0, int rows, int nv) {
         this.rows = rows;
+        this.loaded = fits(rows, nv);
+        if (!loaded) {
+            return;
+        }
         int size = rows * nv;
         if (cell.length < size) {
             cell = new double[size];
