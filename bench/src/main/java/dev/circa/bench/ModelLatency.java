@@ -2,12 +2,18 @@ package dev.circa.bench;
 
 import dev.circa.converter.regions.CompileOptions;
 import dev.circa.converter.regions.GridRegions;
+import dev.circa.converter.regions.RandomRegions;
 import dev.circa.converter.regions.RegionCompiler;
 import dev.circa.engine.Evaluator;
 import dev.circa.format.Variable;
+import dev.circa.format.VariableType;
 import dev.circa.model.Model;
 import dev.circa.model.Row;
+import java.lang.management.ManagementFactory;
+import java.lang.management.ThreadMXBean;
+import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.HashMap;
 import java.util.List;
@@ -18,49 +24,117 @@ import java.util.SplittableRandom;
 /**
  * Per-row latency of scoring one named row through the model API against the raw engine call at batch 1
  * ({@code new Evaluator(circuit).logDensity(cells, 1, out)} on cells encoded beforehand), on one thread.
- * Three ways through the API: a reused {@link Row} set by name for every row, a prebuilt {@link Map}
- * per row, and the API's batch call at batch 1 on the same cells as the raw call. Each figure is the
- * median of 15 timed runs of about 0.1 s each (after 5 warm-up runs), rows drawn from 256 seeded rows
- * with a quarter of the values missing. Target: the named row within 1.2x of the raw call.
+ * Three ways through the API: a {@link Map} per row (the keys equal to the variables' names but other
+ * String objects, as a service that parsed them would hold), a reused {@link Row} set by name for every
+ * row, and the API's batch call at batch 1 on the same cells as the raw call. Rows are drawn from 256
+ * seeded rows with a quarter of the values missing; every way is first checked bit-identical to the raw
+ * call on all of them.
  *
- * <p>Two models: the FORMAT.md example (fixtures/circuits/pump-station.json, 7 nodes, where the
- * per-call overhead is most visible) and a 4x4 grid region graph compiled with 8 sums and 8 input
- * bundles (seed 1). Run from the repository root (Java 17):
+ * <p>Timing is CPU time of the measuring thread (the machine may be shared). A round times every way once,
+ * interleaved, for the same number of rows (about {@code --run-ms} of CPU for the raw call); a round's ratio
+ * is a way's time over the raw call's time in that round. Printed per way: the median ns per row, and the
+ * median ratio with its spread over the rounds (quartiles and extremes), so that one round is not mistaken
+ * for the result. Target: the Map and Row ways within 1.2x of the raw call.
+ *
+ * <p>Models ({@code MODEL} arguments, default {@code pump small peer}): {@code pump}, the FORMAT.md example
+ * (fixtures/circuits/pump-station.json, 7 nodes, where the per-call overhead is most visible); {@code small},
+ * a random region graph over two pump stations' 10 variables of every type compiled with 3 sums and 3 input
+ * bundles, depth 2, 2 repetitions (282 edges); {@code grid}, a 4x4 grid region graph with 8 sums and 8 bundles; {@code peer},
+ * the peer-sized model of {@code bench/run peer} (256 real variables, depth 5, 8 repetitions, 10 sums,
+ * 10 bundles, seed 1: 275,340 edges; the peer's own region graph has 310,880); or the path of a circuit file. Run from the repository root (Java 17):
  * <pre>
- * mvn -B -q package -pl bench -am -DskipTests &amp;&amp; java -cp bench/target/benchmarks.jar dev.circa.bench.ModelLatency
+ * mvn -B -q package -pl bench -am -DskipTests &amp;&amp; java -cp bench/target/benchmarks.jar dev.circa.bench.ModelLatency [--runs N] [--run-ms MS] [MODEL...]
  * </pre>
  */
 public final class ModelLatency {
     private static final int DISTINCT = 256;
-    /** Target length of one timed run. */
-    private static final long RUN_NANOS = 100_000_000L;
-    private static final int WARMUP = 5;
-    private static final int RUNS = 15;
+    private static final long SEED = 20261202L;
+    private static final String[] WAYS = {"raw engine, Evaluator.logDensity at batch 1", "API, Map by name",
+        "API, reused Row set by name", "API, batch call at batch 1 (cells)"};
+    private static final ThreadMXBean THREADS = ManagementFactory.getThreadMXBean();
 
     private ModelLatency() {
     }
 
     /** The benchmark: prints one block per model. */
     public static void main(String[] args) throws Exception {
-        measure("FORMAT.md example (pump station)", Model.load(Path.of("fixtures", "circuits", "pump-station.json")));
-        CompileOptions grid = new CompileOptions(8, 8, 1, CompileOptions.defaults().families());
-        measure("4x4 grid region graph, 8 sums, 8 bundles",
-                Model.loader().load(RegionCompiler.compile(GridRegions.generate(4, 4), grid, 1L)));
+        int runs = 21;
+        long runNanos = 100_000_000L;
+        List<String> models = new ArrayList<>();
+        for (int i = 0; i < args.length; i++) {
+            if (args[i].equals("--runs")) {
+                runs = Integer.parseInt(args[++i]);
+            } else if (args[i].equals("--run-ms")) {
+                runNanos = Long.parseLong(args[++i]) * 1_000_000L;
+            } else {
+                models.add(args[i]);
+            }
+        }
+        if (models.isEmpty()) {
+            models = List.of("pump", "small", "peer");
+        }
+        double load = ManagementFactory.getOperatingSystemMXBean().getSystemLoadAverage();
+        System.out.printf(Locale.ROOT, "model API latency against the raw engine call, batch 1, one thread; CPU time, "
+                + "%d rounds per model; load average %.1f on %d cores%n", runs, load,
+                Runtime.getRuntime().availableProcessors());
+        for (String m : models) {
+            measure(m, model(m), runs, runNanos);
+        }
+        System.out.printf(Locale.ROOT, "load average at the end %.1f%n",
+                ManagementFactory.getOperatingSystemMXBean().getSystemLoadAverage());
+    }
+
+    private static Model model(String name) throws Exception {
+        switch (name) {
+            case "pump":
+                return Model.load(Path.of("fixtures", "circuits", "pump-station.json"));
+            case "small":
+                return Model.loader().load(RegionCompiler.compile(
+                        RandomRegions.generate(stations(2), 2, 2, 1L), new CompileOptions(3, 3, 1, Map.of()), 1L));
+            case "grid":
+                return Model.loader().load(RegionCompiler.compile(GridRegions.generate(4, 4),
+                        new CompileOptions(8, 8, 1, Map.of()), 1L));
+            case "peer":
+                return Model.loader().load(RegionCompiler.compile(
+                        RandomRegions.generate(RandomRegions.realVariables(256), 5, 8, 1L),
+                        new CompileOptions(10, 10, 1, Map.of()), 1L));
+            default:
+                if (!Files.isRegularFile(Path.of(name))) {
+                    throw new IllegalArgumentException("unknown model " + name
+                            + "; expected pump, small, grid, peer or a circuit file");
+                }
+                return Model.load(Path.of(name));
+        }
+    }
+
+    /** The pump-station variables of {@code n} stations: pressure, current (real), valve, alarm, restarts. */
+    private static List<Variable> stations(int n) {
+        List<Variable> vars = new ArrayList<>();
+        for (int s = 0; s < n; s++) {
+            vars.add(Variable.of("s" + s + "_inlet_pressure", VariableType.REAL));
+            vars.add(Variable.of("s" + s + "_motor_current", VariableType.REAL));
+            vars.add(new Variable("s" + s + "_valve", VariableType.CATEGORICAL, List.of("closed", "half", "open"),
+                    null, null));
+            vars.add(Variable.of("s" + s + "_alarm", VariableType.BINARY));
+            vars.add(Variable.of("s" + s + "_restarts", VariableType.COUNT));
+        }
+        return vars;
     }
 
     private interface Scorer {
         double score(int k);
     }
 
-    private static void measure(String title, Model model) {
+    private static void measure(String title, Model model, int runs, long runNanos) {
         List<Variable> vars = model.variables();
         int nv = vars.size();
-        SplittableRandom rnd = new SplittableRandom(20261202L);
+        SplittableRandom rnd = new SplittableRandom(SEED);
         double[][] cells = new double[DISTINCT][nv];
         String[] names = new String[nv];
-        List<Map<String, Object>> maps = new java.util.ArrayList<>();
+        List<Map<String, Object>> maps = new ArrayList<>();
         for (int v = 0; v < nv; v++) {
-            names[v] = vars.get(v).name();
+            // an equal name, another object: what a service holds after parsing a request
+            names[v] = new String(vars.get(v).name().toCharArray());
         }
         for (int k = 0; k < DISTINCT; k++) {
             Map<String, Object> m = new HashMap<>();
@@ -68,7 +142,8 @@ public final class ModelLatency {
                 Variable var = vars.get(v);
                 double x = Double.NaN;
                 if (rnd.nextInt(4) != 0) {
-                    x = var.type().isDiscrete() ? rnd.nextInt(Math.max(2, var.stateCount())) : 2.0 + rnd.nextDouble() * 2;
+                    x = var.type().isDiscrete() ? rnd.nextInt(var.type() == VariableType.COUNT ? 6
+                            : Math.max(2, var.stateCount())) : 2.0 + rnd.nextDouble() * 2;
                     m.put(names[v], var.states().isEmpty() ? (Object) x : var.states().get((int) x));
                 }
                 cells[k][v] = x;
@@ -83,6 +158,7 @@ public final class ModelLatency {
             raw.logDensity(cells[k], 1, out);
             return out[0];
         };
+        Scorer map = k -> model.logDensity(maps.get(k));
         Scorer named = k -> {
             double[] c = cells[k];
             for (int v = 0; v < nv; v++) {
@@ -90,56 +166,81 @@ public final class ModelLatency {
             }
             return model.logDensity(row);
         };
-        Scorer map = k -> model.logDensity(maps.get(k));
         Scorer batch1 = k -> {
             model.logDensity(cells[k], 1, apiOut);
             return apiOut[0];
         };
+        Scorer[] scorers = {engine, map, named, batch1};
         for (int k = 0; k < DISTINCT; k++) {
             double a = engine.score(k);
-            for (Scorer s : new Scorer[] {named, map, batch1}) {
-                if (Double.doubleToLongBits(a) != Double.doubleToLongBits(s.score(k))) {
-                    throw new IllegalStateException("the API and the engine disagree at row " + k);
+            for (int s = 1; s < scorers.length; s++) {
+                if (Double.doubleToLongBits(a) != Double.doubleToLongBits(scorers[s].score(k))) {
+                    throw new IllegalStateException(WAYS[s] + " and the engine disagree at row " + k);
                 }
             }
         }
-        Scorer[] scorers = {engine, named, map, batch1};
-        // compiled before the rows per run are chosen, so that the choice is not made on interpreted code
+        // compiled before the rows per round are chosen, so that the choice is not made on interpreted code
         for (Scorer warm : scorers) {
-            long end = System.nanoTime() + RUN_NANOS * 3;
-            for (int i = 0; System.nanoTime() < end; i++) {
-                warm.score(i & (DISTINCT - 1));
+            long end = cpu() + runNanos * 3;
+            for (int i = 0; cpu() < end; i++) {
+                for (int j = 0; j < 64; j++) {
+                    warm.score((i + j) & (DISTINCT - 1));
+                }
             }
         }
-        long t = System.nanoTime();
-        for (int i = 0; i < 2000; i++) {
-            engine.score(i & (DISTINCT - 1));
+        long t = cpu();
+        int probe = 0;
+        while (cpu() - t < runNanos / 10) {
+            engine.score(probe++ & (DISTINCT - 1));
         }
-        int rows = (int) Math.max(1000, Math.min(1_000_000, RUN_NANOS * 2000 / Math.max(1, System.nanoTime() - t)));
-        double[][] ns = new double[scorers.length][RUNS];
+        int rows = (int) Math.max(100, Math.min(2_000_000, probe * 10L));
+        int warmup = 3;
+        double[][] ns = new double[scorers.length][runs];
+        double[][] ratio = new double[scorers.length][runs];
         double sink = 0;
-        for (int run = 0; run < WARMUP + RUNS; run++) {
-            // interleaved, so that every way sees the same machine load
-            for (int s = 0; s < scorers.length; s++) {
-                long t0 = System.nanoTime();
-                for (int i = 0; i < rows; i++) {
-                    sink += scorers[s].score(i & (DISTINCT - 1));
+        for (int run = 0; run < warmup + runs; run++) {
+            // interleaved, so that every way sees the same machine load; the order turns from round to round
+            for (int i = 0; i < scorers.length; i++) {
+                int s = (i + run) % scorers.length;
+                long t0 = cpu();
+                for (int r = 0; r < rows; r++) {
+                    sink += scorers[s].score(r & (DISTINCT - 1));
                 }
-                if (run >= WARMUP) {
-                    ns[s][run - WARMUP] = (System.nanoTime() - t0) / (double) rows;
+                if (run >= warmup) {
+                    ns[s][run - warmup] = (cpu() - t0) / (double) rows;
+                }
+            }
+            if (run >= warmup) {
+                for (int s = 0; s < scorers.length; s++) {
+                    ratio[s][run - warmup] = ns[s][run - warmup] / ns[0][run - warmup];
                 }
             }
         }
-        double[] median = new double[scorers.length];
-        for (int s = 0; s < scorers.length; s++) {
-            Arrays.sort(ns[s]);
-            median[s] = ns[s][RUNS / 2];
-        }
-        System.out.printf(Locale.ROOT, "%s: %d variables, %d nodes, %d edges; %d rows per run (checksum %.3f)%n",
+        System.out.printf(Locale.ROOT, "%s: %d variables, %d nodes, %d edges; %d rows per round (checksum %.3f)%n",
                 title, nv, model.circuit().nodeCount(), model.circuit().edgeCount(), rows, sink);
-        System.out.printf(Locale.ROOT, "  raw engine, Evaluator.logDensity at batch 1   %9.1f ns/row%n", median[0]);
-        System.out.printf(Locale.ROOT, "  API, reused Row set by name                   %9.1f ns/row  ratio %.2f%n", median[1], median[1] / median[0]);
-        System.out.printf(Locale.ROOT, "  API, Map by name                              %9.1f ns/row  ratio %.2f%n", median[2], median[2] / median[0]);
-        System.out.printf(Locale.ROOT, "  API, batch call at batch 1 (cells)            %9.1f ns/row  ratio %.2f%n", median[3], median[3] / median[0]);
+        System.out.printf(Locale.ROOT, "  %-46s %11s  %-6s %-28s%n", "way", "median ns", "ratio",
+                "spread: quartiles [min, max]");
+        for (int s = 0; s < scorers.length; s++) {
+            double[] r = ratio[s].clone();
+            Arrays.sort(r);
+            double[] n = ns[s].clone();
+            Arrays.sort(n);
+            String verdict = s == 1 || s == 2 ? (quantile(r, 0.5) <= 1.2 ? "  target 1.2: met" : "  target 1.2: NOT met")
+                    : "";
+            System.out.printf(Locale.ROOT, "  %-46s %11.1f  %-6s %.2f-%.2f [%.2f, %.2f]%s%n", WAYS[s], quantile(n, 0.5),
+                    s == 0 ? "1" : String.format(Locale.ROOT, "%.3f", quantile(r, 0.5)), quantile(r, 0.25),
+                    quantile(r, 0.75), r[0], r[r.length - 1], verdict);
+        }
+    }
+
+    private static double quantile(double[] sorted, double q) {
+        double at = q * (sorted.length - 1);
+        int lo = (int) Math.floor(at);
+        int hi = Math.min(sorted.length - 1, lo + 1);
+        return sorted[lo] + (sorted[hi] - sorted[lo]) * (at - lo);
+    }
+
+    private static long cpu() {
+        return THREADS.getCurrentThreadCpuTime();
     }
 }
