@@ -26,9 +26,10 @@ import java.util.SplittableRandom;
  * ({@code new Evaluator(circuit).logDensity(cells, 1, out)} on cells encoded beforehand), on one thread.
  * Three ways through the API: a {@link Map} per row (the keys equal to the variables' names but other
  * String objects, as a service that parsed them would hold), a reused {@link Row} set by name for every
- * row, and the API's batch call at batch 1 on the same cells as the raw call. Rows are drawn from 256
- * seeded rows with a quarter of the values missing; every way is first checked bit-identical to the raw
- * call on all of them.
+ * row, and the API's batch call at batch 1 on the same cells as the raw call. Rows cycle over a few seeded
+ * rows (256, fewer for a model of many variables: at most about 4096 cells, so that the rows stay in cache
+ * as a service's freshly parsed request does) with a quarter of the values missing; every way is first
+ * checked bit-identical to the raw call on all of them.
  *
  * <p>Timing is CPU time of the measuring thread (the machine may be shared). A round times every way once,
  * interleaved, for the same number of rows (about {@code --run-ms} of CPU for the raw call); a round's ratio
@@ -47,7 +48,8 @@ import java.util.SplittableRandom;
  * </pre>
  */
 public final class ModelLatency {
-    private static final int DISTINCT = 256;
+    /** Most cells of the distinct rows: a model of many variables cycles over few rows (in cache, as a request is). */
+    private static final int CELLS = 4096;
     private static final long SEED = 20261202L;
     private static final String[] WAYS = {"raw engine, Evaluator.logDensity at batch 1", "API, Map by name",
         "API, reused Row set by name", "API, batch call at batch 1 (cells)"};
@@ -129,14 +131,16 @@ public final class ModelLatency {
         List<Variable> vars = model.variables();
         int nv = vars.size();
         SplittableRandom rnd = new SplittableRandom(SEED);
-        double[][] cells = new double[DISTINCT][nv];
+        int distinct = Integer.highestOneBit(Math.max(4, Math.min(256, CELLS / nv)));
+        int mask = distinct - 1;
+        double[][] cells = new double[distinct][nv];
         String[] names = new String[nv];
         List<Map<String, Object>> maps = new ArrayList<>();
         for (int v = 0; v < nv; v++) {
             // an equal name, another object: what a service holds after parsing a request
             names[v] = new String(vars.get(v).name().toCharArray());
         }
-        for (int k = 0; k < DISTINCT; k++) {
+        for (int k = 0; k < distinct; k++) {
             Map<String, Object> m = new HashMap<>();
             for (int v = 0; v < nv; v++) {
                 Variable var = vars.get(v);
@@ -171,7 +175,7 @@ public final class ModelLatency {
             return apiOut[0];
         };
         Scorer[] scorers = {engine, map, named, batch1};
-        for (int k = 0; k < DISTINCT; k++) {
+        for (int k = 0; k < distinct; k++) {
             double a = engine.score(k);
             for (int s = 1; s < scorers.length; s++) {
                 if (Double.doubleToLongBits(a) != Double.doubleToLongBits(scorers[s].score(k))) {
@@ -184,14 +188,14 @@ public final class ModelLatency {
             long end = cpu() + runNanos * 3;
             for (int i = 0; cpu() < end; i++) {
                 for (int j = 0; j < 64; j++) {
-                    warm.score((i + j) & (DISTINCT - 1));
+                    warm.score((i + j) & mask);
                 }
             }
         }
         long t = cpu();
         int probe = 0;
         while (cpu() - t < runNanos / 10) {
-            engine.score(probe++ & (DISTINCT - 1));
+            engine.score(probe++ & mask);
         }
         int rows = (int) Math.max(100, Math.min(2_000_000, probe * 10L));
         int warmup = 3;
@@ -204,7 +208,7 @@ public final class ModelLatency {
                 int s = (i + run) % scorers.length;
                 long t0 = cpu();
                 for (int r = 0; r < rows; r++) {
-                    sink += scorers[s].score(r & (DISTINCT - 1));
+                    sink += scorers[s].score(r & mask);
                 }
                 if (run >= warmup) {
                     ns[s][run - warmup] = (cpu() - t0) / (double) rows;
@@ -216,8 +220,8 @@ public final class ModelLatency {
                 }
             }
         }
-        System.out.printf(Locale.ROOT, "%s: %d variables, %d nodes, %d edges; %d rows per round (checksum %.3f)%n",
-                title, nv, model.circuit().nodeCount(), model.circuit().edgeCount(), rows, sink);
+        System.out.printf(Locale.ROOT, "%s: %d variables, %d nodes, %d edges; %d rows per round, cycling over %d distinct rows (checksum %.3f)%n",
+                title, nv, model.circuit().nodeCount(), model.circuit().edgeCount(), rows, distinct, sink);
         System.out.printf(Locale.ROOT, "  %-46s %11s  %-6s %-28s%n", "way", "median ns", "ratio",
                 "spread: quartiles [min, max]");
         for (int s = 0; s < scorers.length; s++) {

@@ -7,7 +7,10 @@ import java.util.List;
  * to columns, a variable's state labels to state indices. Open addressing with linear probing in a table
  * of at least twice as many slots as names (a power of two), the names' own {@link String#hashCode()}
  * spread over the low bits and kept beside each slot, so that a probe compares two ints before it
- * compares two strings; a lookup allocates nothing. On a repeated name the first position wins.
+ * compares two strings; a lookup allocates nothing. On a repeated name the first position wins. The
+ * names are kept {@linkplain String#intern() interned}, so that a caller's string literal (interned by
+ * the compiler) is found by reference, without comparing characters; an equal string that is another
+ * object is found by its characters.
  *
  * <p>Against the {@code HashMap<String, Integer>} it replaces, a lookup reads two flat arrays instead of
  * a node and a boxed index.
@@ -31,7 +34,7 @@ final class NameTable {
         this.positions = new int[slots];
         this.mask = slots - 1;
         for (int p = 0; p < list.size(); p++) {
-            String name = list.get(p);
+            String name = list.get(p).intern();
             int h = spread(name.hashCode());
             int i = h & mask;
             while (names[i] != null && !(hashes[i] == h && names[i].equals(name))) {

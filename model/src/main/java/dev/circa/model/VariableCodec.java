@@ -36,7 +36,8 @@ final class VariableCodec {
         this.binary = new boolean[n];
         for (int v = 0; v < n; v++) {
             Variable var = variables.get(v);
-            names[v] = var.name();
+            // interned: a map or a row filled with string literals finds the name by reference
+            names[v] = var.name().intern();
             labels[v] = var.states().isEmpty() ? NameTable.EMPTY : new NameTable(var.states());
             kinds[v] = switch (var.type()) {
                 case REAL -> REAL;
@@ -106,10 +107,11 @@ final class VariableCodec {
                 ok = Double.isFinite(x);
                 break;
             case COUNT:
-                ok = x >= 0 && x <= MAX_EXACT && x == Math.rint(x);
+                // within [0, 2^53] a double is a whole number exactly when the cast to long keeps it
+                ok = x >= 0 && x <= MAX_EXACT && (long) x == x;
                 break;
             default:
-                ok = x >= 0 && x < stateCounts[v] && x == Math.rint(x);
+                ok = x >= 0 && x < stateCounts[v] && (int) x == x;
         }
         if (!ok) {
             throw new IllegalArgumentException(describe(v) + ": " + x + " is not a value; expected " + expected(v));
