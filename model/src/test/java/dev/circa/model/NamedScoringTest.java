@@ -177,15 +177,15 @@ class NamedScoringTest {
                         () -> m.logDensity(Map.of("valve", 3))).getMessage());
     }
 
-    /** The pump-station variables of two stations: every variable type. */
+    /** Two variables of every type, named after their type; categoricals with three labels. */
     private static List<Variable> mixed() {
         List<Variable> vars = new ArrayList<>();
-        for (int s = 0; s < 2; s++) {
-            vars.add(Variable.of("s" + s + "_inlet_pressure", VariableType.REAL));
-            vars.add(new Variable("s" + s + "_valve", VariableType.CATEGORICAL, List.of("closed", "half", "open"),
-                    null, null));
-            vars.add(Variable.of("s" + s + "_alarm", VariableType.BINARY));
-            vars.add(Variable.of("s" + s + "_restarts", VariableType.COUNT));
+        for (int copy = 0; copy < 2; copy++) {
+            for (VariableType t : List.of(VariableType.REAL, VariableType.CATEGORICAL, VariableType.BINARY,
+                    VariableType.COUNT)) {
+                List<String> states = t == VariableType.CATEGORICAL ? List.of("closed", "half", "open") : List.of();
+                vars.add(new Variable(t.jsonName() + copy, t, states, null, null));
+            }
         }
         return vars;
     }
