@@ -26,16 +26,18 @@ class NameTableTest {
         assertEquals("Aa".hashCode(), "BB".hashCode());
         assertEquals("AaAa".hashCode(), "BBBB".hashCode());
         assertEquals("AaAaAa".hashCode(), "BBBBBB".hashCode());
-        NameTable t = new NameTable(COLLIDING);
-        for (int p = 0; p < COLLIDING.size(); p++) {
-            // an equal name that is another object, as a caller holds after parsing
-            assertEquals(p, t.find(new String(COLLIDING.get(p).toCharArray())), COLLIDING.get(p));
-            assertEquals(p, t.find(COLLIDING.get(p)));
+        for (boolean intern : new boolean[] {false, true}) {
+            NameTable t = new NameTable(COLLIDING, intern);
+            for (int p = 0; p < COLLIDING.size(); p++) {
+                // an equal name that is another object, as a caller holds after parsing
+                assertEquals(p, t.find(new String(COLLIDING.get(p).toCharArray())), COLLIDING.get(p));
+                assertEquals(p, t.find(COLLIDING.get(p)));
+            }
+            // same hash code as names in the table, not in the table
+            assertEquals(-1, t.find("BBAaBB"));
+            assertEquals(-1, t.find("AaBBAa"));
+            assertEquals(-1, t.find("Aa"));
         }
-        // same hash code as names in the table, not in the table
-        assertEquals(-1, t.find("BBAaBB"));
-        assertEquals(-1, t.find("AaBBAa"));
-        assertEquals(-1, t.find("Aa"));
     }
 
     @Test
@@ -50,9 +52,10 @@ class NameTableTest {
                     names.add(s);
                 }
             }
-            NameTable t = new NameTable(names);
+            NameTable t = new NameTable(names, n % 2 == 0);
             for (String s : names) {
                 assertEquals(reference.get(s), t.find(new String(s.toCharArray())), s);
+                assertEquals(reference.get(s), t.find(s), s);
             }
             for (int k = 0; k < 200; k++) {
                 String s = Integer.toString(rnd.nextInt(1 << 20), 36) + "_";
@@ -63,7 +66,7 @@ class NameTableTest {
 
     @Test
     void find_nullEmptyAndRepeatedNames_missedOrFirstPosition() {
-        NameTable t = new NameTable(List.of("closed", "half", "closed", "", "open"));
+        NameTable t = new NameTable(List.of("closed", "half", "closed", "", "open"), true);
         assertEquals(0, t.find("closed"));
         assertEquals(1, t.find("half"));
         assertEquals(3, t.find(""));
