@@ -159,6 +159,21 @@ class NamedScoringTest {
         both.put("pressure", 1.0);
         both.put("valve", "opn");
         assertEquals(badLabel, assertThrows(IllegalArgumentException.class, () -> m.logDensity(both)).getMessage());
+        Map<String, Object> valveFirst = new LinkedHashMap<>();
+        valveFirst.put("valve", "opn");
+        valveFirst.put("pressure", 1.0);
+        assertEquals(badLabel, assertThrows(IllegalArgumentException.class, () -> m.logDensity(valveFirst))
+                .getMessage());
+        Map<String, Object> nullName = new HashMap<>();
+        nullName.put("inlet_pressure", 3.0);
+        nullName.put(null, 1.0);
+        assertEquals("\"null\" is not a variable of this model; expected one of inlet_pressure, valve",
+                assertThrows(IllegalArgumentException.class, () -> m.logDensity(nullName)).getMessage());
+        // a row reused after a refused map scores the next map alone
+        Row row = m.newRow();
+        assertThrows(IllegalArgumentException.class, () -> row.setAll(valveFirst));
+        assertBits(m.logDensity(Map.of("inlet_pressure", 3.0)), m.logDensity(row.setAll(Map.of("inlet_pressure", 3.0))),
+                "after a refused map");
         // a null value is missing; with a name that is not a variable, that name is refused
         Map<String, Object> nulls = new HashMap<>();
         nulls.put("valve", null);
