@@ -32,19 +32,25 @@ import java.util.SplittableRandom;
  * checked bit-identical to the raw call on all of them.
  *
  * <p>Timing is CPU time of the measuring thread (the machine may be shared). A round times every way once,
- * interleaved, for the same number of rows (about {@code --run-ms} of CPU for the raw call); a round's ratio
- * is a way's time over the raw call's time in that round. Printed per way: the median ns per row, and the
- * median ratio with its spread over the rounds (quartiles and extremes), so that one round is not mistaken
- * for the result. Target: the Map and Row ways within 1.2x of the raw call.
+ * interleaved, for the same number of rows (about {@code --run-ms} of CPU for the raw call, default 100); a
+ * round's ratio is a way's time over the raw call's time in that round. Each model is measured in
+ * {@code --forks} new JVMs (default 3; 0 measures in this JVM), {@code --runs} rounds each (default 21),
+ * because the compiled code, and with it the ratio, differs from JVM to JVM more than from round to round.
+ * Printed per fork and way: the median ns per row and the median ratio with its spread over the rounds
+ * (quartiles and extremes); then per model and way the ratio over all rounds of all forks (median,
+ * quartiles, extremes) and each fork's median, so that one reading is not mistaken for the result.
+ * Target: the Map and Row ways within 1.2x of the raw call (pooled median).
  *
  * <p>Models ({@code MODEL} arguments, default {@code pump small peer}): {@code pump}, the FORMAT.md example
  * (fixtures/circuits/pump-station.json, 7 nodes, where the per-call overhead is most visible); {@code small},
- * a random region graph over two pump stations' 10 variables of every type compiled with 3 sums and 3 input
- * bundles, depth 2, 2 repetitions (282 edges); {@code grid}, a 4x4 grid region graph with 8 sums and 8 bundles; {@code peer},
- * the peer-sized model of {@code bench/run peer} (256 real variables, depth 5, 8 repetitions, 10 sums,
- * 10 bundles, seed 1: 275,340 edges; the peer's own region graph has 310,880); or the path of a circuit file. Run from the repository root (Java 17):
+ * a random region graph over two pump stations' 10 variables of every type (depth 2, 2 repetitions) compiled
+ * with 3 sums and 3 input bundles: 282 edges; {@code grid}, a 4x4 grid region graph with 8 sums and 8
+ * bundles; {@code peer}, a model of the peer's size in {@code bench/run peer} (256 real variables, depth 5,
+ * 8 repetitions, 10 sums, 10 bundles, seed 1: 275,340 edges; the peer's own region graph has 310,880); or
+ * the path of a circuit file. Run from the repository root (Java 17; about 2 minutes by default):
  * <pre>
- * mvn -B -q package -pl bench -am -DskipTests &amp;&amp; java -cp bench/target/benchmarks.jar dev.circa.bench.ModelLatency [--runs N] [--run-ms MS] [MODEL...]
+ * mvn -B -q package -pl bench -am -DskipTests
+ * java -cp bench/target/benchmarks.jar dev.circa.bench.ModelLatency [--forks F] [--runs N] [--run-ms MS] [MODEL...]
  * </pre>
  */
 public final class ModelLatency {
@@ -54,20 +60,25 @@ public final class ModelLatency {
     private static final String[] WAYS = {"raw engine, Evaluator.logDensity at batch 1", "API, Map by name",
         "API, reused Row set by name", "API, batch call at batch 1 (cells)"};
     private static final ThreadMXBean THREADS = ManagementFactory.getThreadMXBean();
+    /** A fork's line of ratios: way, then one ratio per round. */
+    private static final String RATIOS = "@ratios ";
 
     private ModelLatency() {
     }
 
-    /** The benchmark: prints one block per model. */
+    /** The benchmark: prints one block per model and fork, then per model the rounds of all forks pooled. */
     public static void main(String[] args) throws Exception {
         int runs = 21;
-        long runNanos = 100_000_000L;
+        int forks = 3;
+        long runMs = 100;
         List<String> models = new ArrayList<>();
         for (int i = 0; i < args.length; i++) {
             if (args[i].equals("--runs")) {
                 runs = Integer.parseInt(args[++i]);
+            } else if (args[i].equals("--forks")) {
+                forks = Integer.parseInt(args[++i]);
             } else if (args[i].equals("--run-ms")) {
-                runNanos = Long.parseLong(args[++i]) * 1_000_000L;
+                runMs = Long.parseLong(args[++i]);
             } else {
                 models.add(args[i]);
             }
@@ -75,15 +86,93 @@ public final class ModelLatency {
         if (models.isEmpty()) {
             models = List.of("pump", "small", "peer");
         }
-        double load = ManagementFactory.getOperatingSystemMXBean().getSystemLoadAverage();
-        System.out.printf(Locale.ROOT, "model API latency against the raw engine call, batch 1, one thread; CPU time, "
-                + "%d rounds per model; load average %.1f on %d cores%n", runs, load,
-                Runtime.getRuntime().availableProcessors());
-        for (String m : models) {
-            measure(m, model(m), runs, runNanos);
+        if (forks == 0) {
+            // one JVM, this one (what each fork runs)
+            for (String m : models) {
+                double[][] ratio = measure(m, model(m), runs, runMs * 1_000_000L);
+                for (int s = 1; s < WAYS.length; s++) {
+                    StringBuilder line = new StringBuilder(RATIOS).append(s);
+                    for (double r : ratio[s]) {
+                        line.append(' ').append(r);
+                    }
+                    System.out.println(line);
+                }
+            }
+            return;
         }
-        System.out.printf(Locale.ROOT, "load average at the end %.1f%n",
-                ManagementFactory.getOperatingSystemMXBean().getSystemLoadAverage());
+        System.out.printf(Locale.ROOT, "model API latency against the raw engine call, batch 1, one thread; CPU time; "
+                + "per model %d forks (a JVM each: compilation differs from JVM to JVM) x %d rounds; load average %.1f "
+                + "on %d cores%n", forks, runs, load(), Runtime.getRuntime().availableProcessors());
+        Map<String, List<String>> summaries = new java.util.LinkedHashMap<>();
+        for (String m : models) {
+            double[][] pooled = new double[WAYS.length][0];
+            double[][] forkMedians = new double[WAYS.length][forks];
+            for (int f = 0; f < forks; f++) {
+                System.out.printf(Locale.ROOT, "fork %d of %d, ", f + 1, forks);
+                double[][] ratio = fork(m, runs, runMs);
+                for (int s = 1; s < WAYS.length; s++) {
+                    pooled[s] = concat(pooled[s], ratio[s]);
+                    double[] r = ratio[s].clone();
+                    Arrays.sort(r);
+                    forkMedians[s][f] = quantile(r, 0.5);
+                }
+            }
+            List<String> lines = new ArrayList<>();
+            for (int s = 1; s < WAYS.length; s++) {
+                double[] r = pooled[s];
+                Arrays.sort(r);
+                StringBuilder medians = new StringBuilder();
+                for (double x : forkMedians[s]) {
+                    medians.append(String.format(Locale.ROOT, " %.3f", x));
+                }
+                lines.add(String.format(Locale.ROOT, "  %-38s %.3f  %.2f-%.2f [%.2f, %.2f]  forks:%s%s", WAYS[s],
+                        quantile(r, 0.5), quantile(r, 0.25), quantile(r, 0.75), r[0], r[r.length - 1], medians,
+                        s == 3 ? "" : quantile(r, 0.5) <= 1.2 ? "  target 1.2: met" : "  target 1.2: NOT met"));
+            }
+            summaries.put(m, lines);
+        }
+        System.out.printf(Locale.ROOT, "%nratio to the raw engine call, all rounds of all forks: median, quartiles "
+                + "[min, max], and each fork's median; load average at the end %.1f%n", load());
+        for (Map.Entry<String, List<String>> e : summaries.entrySet()) {
+            System.out.println(e.getKey());
+            e.getValue().forEach(System.out::println);
+        }
+    }
+
+    /** Runs {@code model} in a new JVM (this one's class path and options), echoes its table, returns its ratios. */
+    private static double[][] fork(String model, int runs, long runMs) throws Exception {
+        List<String> command = new ArrayList<>();
+        command.add(Path.of(System.getProperty("java.home"), "bin", "java").toString());
+        command.addAll(ManagementFactory.getRuntimeMXBean().getInputArguments());
+        command.addAll(List.of("-cp", System.getProperty("java.class.path"), ModelLatency.class.getName(),
+                "--forks", "0", "--runs", Integer.toString(runs), "--run-ms", Long.toString(runMs), model));
+        Process p = new ProcessBuilder(command).redirectError(ProcessBuilder.Redirect.INHERIT).start();
+        double[][] ratio = new double[WAYS.length][];
+        try (java.io.BufferedReader in = new java.io.BufferedReader(
+                new java.io.InputStreamReader(p.getInputStream(), java.nio.charset.StandardCharsets.UTF_8))) {
+            for (String line; (line = in.readLine()) != null; ) {
+                if (line.startsWith(RATIOS)) {
+                    String[] f = line.substring(RATIOS.length()).split(" ");
+                    ratio[Integer.parseInt(f[0])] = Arrays.stream(f, 1, f.length).mapToDouble(Double::parseDouble).toArray();
+                } else {
+                    System.out.println(line);
+                }
+            }
+        }
+        if (p.waitFor() != 0 || ratio[1] == null) {
+            throw new IllegalStateException("the fork measuring " + model + " failed (exit " + p.exitValue() + ")");
+        }
+        return ratio;
+    }
+
+    private static double load() {
+        return ManagementFactory.getOperatingSystemMXBean().getSystemLoadAverage();
+    }
+
+    private static double[] concat(double[] a, double[] b) {
+        double[] c = Arrays.copyOf(a, a.length + b.length);
+        System.arraycopy(b, 0, c, a.length, b.length);
+        return c;
     }
 
     private static Model model(String name) throws Exception {
@@ -127,7 +216,8 @@ public final class ModelLatency {
         double score(int k);
     }
 
-    private static void measure(String title, Model model, int runs, long runNanos) {
+    /** Measures every way on {@code model}, prints its table and returns the ratios per way and round. */
+    private static double[][] measure(String title, Model model, int runs, long runNanos) {
         List<Variable> vars = model.variables();
         int nv = vars.size();
         SplittableRandom rnd = new SplittableRandom(SEED);
@@ -220,8 +310,8 @@ public final class ModelLatency {
                 }
             }
         }
-        System.out.printf(Locale.ROOT, "%s: %d variables, %d nodes, %d edges; %d rows per round, cycling over %d distinct rows (checksum %.3f)%n",
-                title, nv, model.circuit().nodeCount(), model.circuit().edgeCount(), rows, distinct, sink);
+        System.out.printf(Locale.ROOT, "%s: %d variables, %d nodes, %d edges; %d rounds of %d rows, cycling over %d "
+                + "distinct rows; load average %.1f (checksum %.3f)%n", title, nv, model.circuit().nodeCount(), model.circuit().edgeCount(), runs, rows, distinct, load(), sink);
         System.out.printf(Locale.ROOT, "  %-46s %11s  %-6s %-28s%n", "way", "median ns", "ratio",
                 "spread: quartiles [min, max]");
         for (int s = 0; s < scorers.length; s++) {
@@ -235,6 +325,7 @@ public final class ModelLatency {
                     s == 0 ? "1" : String.format(Locale.ROOT, "%.3f", quantile(r, 0.5)), quantile(r, 0.25),
                     quantile(r, 0.75), r[0], r[r.length - 1], verdict);
         }
+        return ratio;
     }
 
     private static double quantile(double[] sorted, double q) {
