@@ -1,10 +1,8 @@
 package dev.circa.model;
 
 import java.util.Arrays;
-import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.Map;
-import java.util.function.BiConsumer;
 
 /**
  * One row of values by variable name, reusable from call to call so that scoring allocates nothing:
@@ -18,7 +16,6 @@ public final class Row {
     private final Model model;
     private final VariableCodec codec;
     final double[] cells;
-    private final Entries entries = new Entries();
 
     Row(Model model, VariableCodec codec) {
         this.model = model;
@@ -124,11 +121,6 @@ public final class Row {
      */
     public Row setAll(Map<String, ?> values) {
         clear();
-        Class<?> type = values.getClass();
-        if ((type == HashMap.class || type == LinkedHashMap.class) && entries.fill(values)) {
-            return this;
-        }
-        clear();
         int observed = 0;
         for (int v = 0; v < cells.length; v++) {
             Object x = values.get(codec.name(v));
@@ -141,38 +133,6 @@ public final class Row {
             refuseUnknownNames(values, observed);
         }
         return this;
-    }
-
-    /**
-     * Fills the row from the entries of a {@link HashMap} or {@link LinkedHashMap} in one walk over the map,
-     * each name looked up in the model's table: only the names given are looked up, and none is hashed
-     * again. Any entry that is not a variable's name and value stops the walk, and {@link #setAll} starts
-     * over by variable, so that what it refuses, and with which message, stays as it was. Allocates
-     * nothing (the maps' own {@code forEach}).
-     */
-    private final class Entries implements BiConsumer<Object, Object> {
-        private boolean refused;
-
-        /** Whether every entry was a variable's name and value; the row holds them when true. */
-        boolean fill(Map<String, ?> values) {
-            refused = false;
-            try {
-                values.forEach(this);
-            } catch (IllegalArgumentException e) {
-                return false;
-            }
-            return !refused;
-        }
-
-        @Override
-        public void accept(Object name, Object value) {
-            int v = name instanceof String s ? codec.find(s) : -1;
-            if (v < 0) {
-                refused = true;
-            } else if (!refused) {
-                cells[v] = codec.encode(v, value);
-            }
-        }
     }
 
     /**
