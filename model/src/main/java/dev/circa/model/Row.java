@@ -11,6 +11,10 @@ import java.util.Map;
  * non-negative integer, a categorical or binary value a state label or a state index (binary also a
  * boolean); {@code null} or NaN makes the variable missing. Not thread-safe: one row per thread (the
  * model itself is shared).
+ *
+ * <p>Setting by name looks the name up each time (a hash and a comparison of characters, or of references
+ * for a string literal); where every nanosecond counts, look the names up once with
+ * {@link Model#variableIndex(String)} and set by index ({@link #set(int, double)}).
  */
 public final class Row {
     private final Model model;
