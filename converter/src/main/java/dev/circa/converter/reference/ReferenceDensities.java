@@ -94,6 +94,38 @@ public final class ReferenceDensities {
         }
     }
 
+    /**
+     * {@link #addLogValues} of a normal input at {@code n} contiguous cells {@code data[from + i]}, for
+     * {@link #plain} cells and mean (where x - mean cannot overflow while x is finite), the missing cells listed
+     * in {@code missing[m0 .. m1-1]} (as offsets i): the same numbers, in a loop the JIT vectorises (the
+     * formula added at every cell, a missing one's {@code dst} kept in {@code kept} before and put back
+     * after) instead of a branch per cell. {@code logSd} is {@code Math.log(sd)}, taken once by the caller.
+     */
+    public static void addNormalLogValues(double mean, double sd, double logSd, double[] data, int from, int n,
+            int[] missing, int m0, int m1, double[] kept, double[] dst, int at) {
+        for (int k = m0; k < m1; k++) {
+            kept[k - m0] = dst[at + missing[k]];
+        }
+        for (int i = 0; i < n; i++) {
+            double z = (data[from + i] - mean) / sd;
+            dst[at + i] += -0.5 * z * z - logSd - HALF_LOG_2PI;
+        }
+        for (int k = m0; k < m1; k++) {
+            dst[at + missing[k]] = kept[k - m0];
+        }
+    }
+
+    /**
+     * Whether a cell, or with {@code mean} a normal's mean, is small enough for {@link #addNormalLogValues}:
+     * below {@value #PLAIN} in magnitude, or an infinite cell.
+     */
+    public static boolean plain(double x, boolean mean) {
+        return Math.abs(x) < PLAIN || !mean && Math.abs(x) == Double.POSITIVE_INFINITY;
+    }
+
+    /** Magnitude below which the difference of two numbers cannot overflow. */
+    private static final double PLAIN = 1e307;
+
     /** The normal log-density; a difference x - mean beyond double range is divided term by term. */
     private static double normal(double x, double mean, double sd, double logSd) {
         double d = x - mean;

@@ -154,6 +154,58 @@ class ReferenceDensitiesTest {
     }
 
     @Test
+    void addNormalLogValues_plainCellsWithMissingOnes_bitIdenticalToAddLogValuesAndCommonsMath() {
+        double[] cells = {0, 1.5, -3, Double.NaN, 1e-300, 6e-310, 40, -55, 1e5, -3e7, 1e154, -1e200, 1e300, 9e306,
+            -9e306, Double.NaN, Double.POSITIVE_INFINITY, Double.NEGATIVE_INFINITY, 0.25, Double.NaN, 7};
+        int n = cells.length;
+        int[] missing = new int[n + 3];
+        int m = 3;
+        for (int i = 0; i < n; i++) {
+            if (Double.isNaN(cells[i])) {
+                missing[m++] = i;
+            }
+        }
+        double[] data = new double[n + 2];
+        System.arraycopy(cells, 0, data, 2, n);
+        double[] means = {0, 1.5, -2, 1e-300, 1e5, -4e306, 9e306};
+        double[] sds = {1e-300, 1e-150, 0.01, 1, 7.5, 1e150, 1e300, MAX};
+        double[] term = new double[n];
+        for (double mean : means) {
+            for (double sd : sds) {
+                assertTrue(ReferenceDensities.plain(mean, true));
+                double[] want = new double[n + 1];
+                double[] got = new double[n + 1];
+                for (int i = 0; i <= n; i++) {
+                    want[i] = i * 0.5 - 3;
+                    got[i] = want[i];
+                }
+                ReferenceDensities.addLogValues(Family.NORMAL, new double[] {mean, sd}, data, 2, 1, n, want, 1);
+                ReferenceDensities.addNormalLogValues(mean, sd, Math.log(sd), data, 2, n, missing, 3, m, term, got, 1);
+                for (int i = 0; i <= n; i++) {
+                    // the general loop is the reference: the same doubles, cell by cell
+                    assertEquals(Double.doubleToRawLongBits(want[i]), Double.doubleToRawLongBits(got[i]),
+                            "mean " + mean + ", sd " + sd + ", cell " + i + ": " + want[i] + " against " + got[i]);
+                }
+                for (int i = 0; i < n; i++) {
+                    double x = cells[i];
+                    if (Double.isFinite(x) && Double.isFinite(mean) && Math.abs(x - mean) < 1e6 * sd) {
+                        // commons-math3 3.6.1 NormalDistribution.logDensity, from the observed cell's value
+                        close(new NormalDistribution(null, mean, sd).logDensity(x), got[i + 1] - (i + 1) * 0.5 + 3,
+                                "normal(" + mean + ", " + sd + ") at " + x);
+                    }
+                }
+            }
+        }
+        for (double x : cells) {
+            assertTrue(Double.isNaN(x) || ReferenceDensities.plain(x, false));
+        }
+        assertFalse(ReferenceDensities.plain(1e307, false));
+        assertFalse(ReferenceDensities.plain(-MAX, false));
+        assertFalse(ReferenceDensities.plain(Double.NaN, false));
+        assertFalse(ReferenceDensities.plain(Double.POSITIVE_INFINITY, true));
+    }
+
+    @Test
     void logBeta_equalsCommonsMath() {
         // commons-math3 3.6.1 Beta.logBeta and Gamma.logGamma
         double[] shapes = {TINY, 1e-300, 1e-8, 0.5, 1, 3.7, 9.99, 10, 12.5, 40, 1e3, 1e8, 1e15, 1e100, 1e300};

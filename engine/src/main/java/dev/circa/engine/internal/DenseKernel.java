@@ -47,16 +47,18 @@ public final class DenseKernel {
         if (sweep) {
             inputSweep(c, blocks, data, row0 * c.variableCount, ws.fused);
             fusedSums(blocks, ws.fused, ws.fusedValue);
+        } else if (rows > 1) {
+            ws.columns.load(data, row0, rows, c.variableCount);
         }
         for (int i : blocks.steps) {
             byte a = action[i];
             if (a == DenseBlocks.GENERIC) {
-                node(c, blocks, i, data, row0, rows, hide, value, scratch, mvn);
+                node(c, blocks, i, data, row0, rows, hide, value, scratch, mvn, ws);
             } else if (a == DenseBlocks.FUSED) {
                 if (sweep) {
                     value[blocks.nodeSlot[i]] = ws.fusedValue[blocks.fusedOut[i]];
                 } else {
-                    fused(c, blocks, i, data, row0, rows, hide, value);
+                    fused(c, blocks, i, data, row0, rows, hide, value, ws);
                 }
             } else if (a == DenseBlocks.BLOCK) {
                 if (rows == 1) {
@@ -112,7 +114,7 @@ public final class DenseKernel {
 
     /** {@link ForwardKernel#node} in slots. */
     private static void node(CircuitData c, DenseBlocks d, int i, double[] data, int row0, int rows, boolean[] hide,
-            double[] value, double[] scratch, MvNormalWorkspace mvn) {
+            double[] value, double[] scratch, MvNormalWorkspace mvn, DenseWorkspace ws) {
         final int[] childSlot = d.childSlot;
         final int base = d.nodeSlot[i] * rows;
         final int s = c.childStart[i];
@@ -143,6 +145,8 @@ public final class DenseKernel {
             ForwardKernel.logSumExp(value, base, rows, s, end, childSlot, logWeight, scratch);
         } else if (c.family[c.inputSlot[i]] == Families.MVNORMAL) {
             ForwardKernel.input(c, data, row0, rows, hide, false, value, base, c.inputSlot[i], c.variableCount, mvn);
+        } else if (rows > 1 && ws.columns.loaded()) {
+            ws.columns.input(c, d, c.inputSlot[i], hide, value, base);
         } else {
             input(c, d, c.inputSlot[i], data, row0, rows, hide, value, base, false);
         }
@@ -150,10 +154,14 @@ public final class DenseKernel {
 
     /** A {@link DenseBlocks#FUSED} product: the sum of its inputs' log-densities, in child order. */
     private static void fused(CircuitData c, DenseBlocks d, int i, double[] data, int row0, int rows, boolean[] hide,
-            double[] value) {
+            double[] value, DenseWorkspace ws) {
         final int base = d.nodeSlot[i] * rows;
         final int s = c.childStart[i];
         final int end = c.childStart[i + 1];
+        if (rows > 1 && ws.columns.loaded()) {
+            ws.columns.fused(c, d, i, hide, value, base);
+            return;
+        }
         for (int e = s; e < end; e++) {
             input(c, d, c.inputSlot[c.childIndex[e]], data, row0, rows, hide, value, base, e > s);
         }

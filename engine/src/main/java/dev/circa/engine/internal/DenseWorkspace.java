@@ -28,6 +28,8 @@ public final class DenseWorkspace {
     final double[] fused;
     /** One row's value of every fused product, by {@link DenseBlocks#fusedOut}. */
     final double[] fusedValue;
+    /** The chunk's data variable-major, for the input log-densities of several rows. */
+    final InputColumns columns;
 
     /** Buffers for {@code blocks} and chunks of up to {@code rows} rows. */
     public DenseWorkspace(DenseBlocks blocks, int rows) {
@@ -42,5 +44,6 @@ public final class DenseWorkspace {
         this.row = new double[rows];
         this.fused = new double[blocks.fusedVar.length];
         this.fusedValue = new double[blocks.fusedCount];
+        this.columns = new InputColumns(rows);
     }
 }
