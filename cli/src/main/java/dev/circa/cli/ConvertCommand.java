@@ -60,8 +60,8 @@ final class ConvertCommand implements Callable<Integer> {
     @Option(names = "--normalize-weights", description = "Rescale mixture weights that do not add to 1 (otherwise an error).")
     boolean normalizeWeights;
 
-    @Option(names = "--verify", paramLabel = "N", description = "Points sampled from the source for verification (default: 1000; for a region graph, fewer above 10^6 edges, 10^9 / edges but at least 100).")
-    Integer verify;
+    @Option(names = "--verify", paramLabel = "N", description = "Points sampled from the source for verification (default: ${DEFAULT-VALUE}).")
+    int verify = 1000;
 
     @Option(names = "--atol", paramLabel = "A", description = "Absolute tolerance of the verification (default: ${DEFAULT-VALUE}).")
     double atol = 1e-9;
@@ -85,7 +85,7 @@ final class ConvertCommand implements Callable<Integer> {
     public Integer call() throws Exception {
         PrintWriter err = spec.commandLine().getErr();
         ReadLimits limits = read.limits();
-        if (verify != null && verify < 0) {
+        if (verify < 0) {
             throw new UsageException("--verify must be >= 0, got " + verify);
         }
         if (toParams != null) {
@@ -109,7 +109,7 @@ final class ConvertCommand implements Callable<Integer> {
             throw new UsageException("--params applies to region graphs; " + source + " is a mixture document");
         }
         MixtureOptions options = MixtureOptions.DEFAULT.withNormalizeWeights(normalizeWeights)
-                .withVerifyPoints(verify == null ? MixtureOptions.DEFAULT.verifyPoints() : verify).withTolerances(atol, rtol).withSeed(seed);
+                .withVerifyPoints(verify).withTolerances(atol, rtol).withSeed(seed);
         MixtureConverter.Result result;
         try (Progress progress = Progress.start(err, "circa convert: converting and verifying " + source)) {
             result = MixtureConverter.convert(MixtureReader.read(source, limits), options);
@@ -134,7 +134,7 @@ final class ConvertCommand implements Callable<Integer> {
         RegionConverter.Result r;
         try (Progress progress = Progress.start(err, "circa convert: compiling and verifying " + source)) {
             r = RegionConverter.convert(graph, options, params == null ? ParameterSource.seed(seed) : ParameterSource.file(params),
-                    new RegionConverter.Verification(verify == null ? RegionConverter.Verification.BY_SIZE : verify, seed, atol, rtol), limits);
+                    new RegionConverter.Verification(verify, seed, atol, rtol), limits);
         }
         err.println(r.summary());
         return out.finish(r.circuit(), r.verification().passed(), r.validation());

@@ -31,19 +31,15 @@ public final class RegionConverter {
     /**
      * How a conversion is verified.
      *
-     * @param points points sampled from the source (then each with random variables missing), or
-     *     {@link #BY_SIZE} for as many as {@link RegionVerifier#pointsFor} gives the compiled circuit
+     * @param points points sampled from the source (then each with random variables missing)
      * @param seed the seed of the sampled points
      * @param atol absolute tolerance
      * @param rtol relative tolerance
      */
     public record Verification(int points, long seed, double atol, double rtol) {
-        /** The number of points that follows the compiled circuit's size: what {@code convert} does without {@code --verify}. */
-        public static final int BY_SIZE = -1;
-
         /** Checks the numbers. */
         public Verification {
-            if (points < 0 && points != BY_SIZE) {
+            if (points < 0) {
                 throw new IllegalArgumentException("--verify must be >= 0, got " + points);
             }
         }
@@ -104,8 +100,8 @@ public final class RegionConverter {
         } catch (CompileException e) {
             throw new FormatException(name(graph), 0, 0, null, "the compiled circuit is broken: " + e.getMessage());
         }
-        int points = verify.points() == Verification.BY_SIZE ? RegionVerifier.pointsFor(circuit.edgeCount()) : verify.points();
-        RegionVerifier.Result v = RegionVerifier.verify(p, compiled, points, verify.seed(), verify.atol(), verify.rtol());
+        RegionVerifier.Result v = RegionVerifier.verify(p, compiled, verify.points(), verify.seed(), verify.atol(),
+                verify.rtol());
         long t2 = System.nanoTime();
         ValidationReport report = new Validator(ValidationOptions.defaults()).validate(circuit);
         long t3 = System.nanoTime();

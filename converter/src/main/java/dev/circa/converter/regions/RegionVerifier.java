@@ -16,14 +16,6 @@ import java.util.Locale;
  * Both sides take all rows in one batch on every processor: the engine through a {@link BatchRunner}
  * (its dense-block fast path), the direct evaluation in blocks of rows on as many threads; neither
  * side's values depend on the thread count. Stateless.
- *
- * <p>Without {@code --verify}, N follows the circuit's size ({@link #pointsFor}): {@value #DEFAULT_POINTS}
- * up to {@value #FULL_EDGES} edges, then as many as keep (3N + 1) x edges near {@value #DEFAULT_POINTS} x
- * {@value #FULL_EDGES} x 3 edge evaluations per side, but never fewer than {@value #MIN_POINTS}. Every row
- * evaluates every edge of the circuit on both sides, so a larger circuit is not checked less per point; what
- * the number of points buys is variety (which variables are missing together, which cells fall outside a
- * support), and at {@value #MIN_POINTS} points each variable is already missing in about 100 rows and observed
- * in about 200. Every kind of row stays, and every row is compared under the same tolerances.
  */
 public final class RegionVerifier {
     /** A circuit evaluation: {@code out[row * outputs + o]} = log value of output o at row (NaN = missing). */
@@ -49,23 +41,7 @@ public final class RegionVerifier {
         }
     }
 
-    /** Points (N) of a verification without {@code --verify}, for circuits up to {@value #FULL_EDGES} edges. */
-    public static final int DEFAULT_POINTS = 1000;
-    /** Edges up to which a verification without {@code --verify} takes {@value #DEFAULT_POINTS} points. */
-    public static final long FULL_EDGES = 1_000_000;
-    /** Fewest points (N) of a verification without {@code --verify}. */
-    public static final int MIN_POINTS = 100;
-
     private RegionVerifier() {
-    }
-
-    /**
-     * N for a circuit of {@code edges} edges when {@code --verify} is not given: {@value #DEFAULT_POINTS} x
-     * {@value #FULL_EDGES} / edges, between {@value #MIN_POINTS} and {@value #DEFAULT_POINTS} (100 at 10^7 edges).
-     */
-    public static int pointsFor(long edges) {
-        long n = DEFAULT_POINTS * FULL_EDGES / Math.max(1, edges);
-        return (int) Math.max(MIN_POINTS, Math.min(DEFAULT_POINTS, n));
     }
 
     /**

@@ -52,29 +52,6 @@ class RegionConverterTest {
     }
 
     @Test
-    void convert_pointsBySize_smallCircuitTakesTheFullThousand() throws Exception {
-        // the default of docs/command-line.md: 1000 points up to 10^6 edges
-        RegionConverter.Result r = RegionConverter.convert(GridRegions.generate(2, 2),
-                new CompileOptions(2, 2, 1, java.util.Map.of()), ParameterSource.seed(3),
-                new RegionConverter.Verification(RegionConverter.Verification.BY_SIZE, 1, 1e-9, 1e-9), ReadLimits.DEFAULT);
-        assertTrue(r.passed(), r.summary());
-        assertEquals(3 * 1000 + 1, r.verification().points(), r.summary());
-        assertThrows(IllegalArgumentException.class, () -> new RegionConverter.Verification(-2, 1, 1e-9, 1e-9));
-    }
-
-    @Test
-    void pointsFor_largeCircuits_followTheSizeDownToAHundred() {
-        // the rule of docs/command-line.md: 1000 up to 10^6 edges, then 10^9 / edges, at least 100
-        assertEquals(1000, RegionVerifier.pointsFor(1));
-        assertEquals(1000, RegionVerifier.pointsFor(1_000_000));
-        assertEquals(999, RegionVerifier.pointsFor(1_000_001));
-        assertEquals(333, RegionVerifier.pointsFor(3_000_000));
-        assertEquals(111, RegionVerifier.pointsFor(9_002_720));
-        assertEquals(100, RegionVerifier.pointsFor(10_000_000));
-        assertEquals(100, RegionVerifier.pointsFor(Long.MAX_VALUE));
-    }
-
-    @Test
     void convert_overMaxNodes_refusedBeforeReadingParameters() throws Exception {
         // a missing parameter file is not read: the size guard comes first
         FormatException e = assertThrows(LimitExceededException.class, () -> RegionConverter.convert(
