@@ -19,8 +19,8 @@ import java.util.Map;
 /**
  * The cost of a region-graph conversion's numerical proof at about 10^6 and 10^7 edges: one
  * {@link RegionConverter#convert} as {@code circa convert} runs it (compile, engine compile, verification
- * on 3N + 1 rows, N as without {@code --verify}: {@link RegionVerifier#pointsFor} the circuit's edges, or N set by
- * {@code -Dcirca.points=N}, e.g. 1000 for the rows of a small circuit; validation), wall and CPU time per
+ * on 3N + 1 rows, N = 1000 as without {@code --verify}, or N set by {@code -Dcirca.points=N}; validation), wall
+ * and CPU time per
  * phase, then the two sides of the verification timed alone on the same rows: the region-by-region
  * evaluation ({@link RegionTensorEvaluator}) and the engine ({@link Evaluator}, one thread), each in edge
  * evaluations per CPU second. CPU time is the process's (every thread, garbage collection and the JIT
@@ -40,8 +40,8 @@ public final class ConvertScale {
     private static final int VARS = Integer.getInteger("circa.vars", 256);
     private static final int DEPTH = Integer.getInteger("circa.depth", 6);
     private static final int SUMS = Integer.getInteger("circa.sums", 24);
-    /** N, or {@link RegionConverter.Verification#BY_SIZE}. */
-    private static final int POINTS = Integer.getInteger("circa.points", RegionConverter.Verification.BY_SIZE);
+    /** N: 1000, the command line's default for {@code --verify}. */
+    private static final int POINTS = Integer.getInteger("circa.points", 1000);
 
     private ConvertScale() {
     }
@@ -52,8 +52,7 @@ public final class ConvertScale {
             sizes[i] = Long.parseLong(args[i]);
         }
         System.out.printf(Locale.ROOT, "%d processors; verification points: %s; %d variables, depth %d, K = I = %d%n",
-                Runtime.getRuntime().availableProcessors(), POINTS == RegionConverter.Verification.BY_SIZE
-                        ? "by size, as convert without --verify" : POINTS + " (" + (3 * POINTS + 1) + " rows)", VARS, DEPTH, SUMS);
+                Runtime.getRuntime().availableProcessors(), POINTS + " (" + (3 * POINTS + 1) + " rows)", VARS, DEPTH, SUMS);
         for (long size : sizes) {
             run(size);
         }
@@ -87,7 +86,6 @@ public final class ConvertScale {
         double[][] rows = new double[1][];
         long vw0 = System.nanoTime();
         long vc0 = cpu();
-        int points = POINTS == RegionConverter.Verification.BY_SIZE ? RegionVerifier.pointsFor(edges) : POINTS;
         RegionVerifier.Result v = RegionVerifier.verify(p, (data, n, out) -> {
             rows[0] = data.clone();
             long ew = System.nanoTime();
@@ -95,7 +93,7 @@ public final class ConvertScale {
             engine.logDensity(data, n, out);
             engineTime[0] = System.nanoTime() - ew;
             engineTime[1] = cpu() - ec;
-        }, points, 3, 1e-9, 1e-9);
+        }, POINTS, 3, 1e-9, 1e-9);
         long vw1 = System.nanoTime();
         long vc1 = cpu();
         int n = v.points();
