@@ -234,19 +234,27 @@ public final class NodeTable {
 
     /** A growable column of doubles in blocks. */
     private static final class Doubles {
-        private double[][] blocks = new double[4][];
+        // volatile: a decoding thread may {@link #set} entries handed to it while the column grows
+        private volatile double[][] blocks = new double[4][];
         private int size;
 
         void add(double v) {
             int b = size >>> SHIFT;
-            if (b == blocks.length) {
-                blocks = Arrays.copyOf(blocks, b * 2);
+            double[][] bl = blocks;
+            if (b == bl.length) {
+                bl = Arrays.copyOf(bl, b * 2);
+                bl[b] = new double[BLOCK];
+                blocks = bl;
+            } else if (bl[b] == null) {
+                bl[b] = new double[BLOCK];
             }
-            if (blocks[b] == null) {
-                blocks[b] = new double[BLOCK];
-            }
-            blocks[b][size & MASK] = v;
+            bl[b][size & MASK] = v;
             size++;
+        }
+
+        /** Replaces entry {@code k} (below the size); the block holding it exists and never moves. */
+        void set(int k, double v) {
+            blocks[k >>> SHIFT][k & MASK] = v;
         }
 
         double[][] blocks() {
@@ -312,6 +320,20 @@ public final class NodeTable {
         public void appendValue(double v) {
             check(values.size);
             values.add(v);
+        }
+
+        /** The number of numbers appended so far: the position the next {@link #appendValue} takes. */
+        public int valueCount() {
+            return values.size;
+        }
+
+        /**
+         * Replaces the number at {@code position}, appended earlier as a placeholder. The one exception to
+         * "not thread-safe": another thread may replace numbers at positions handed to it (after they were
+         * appended) while this builder grows, as long as it is done before {@link #build()}.
+         */
+        public void setValue(int position, double v) {
+            values.set(position, v);
         }
 
         /** Appends a variable index to the node being read. */

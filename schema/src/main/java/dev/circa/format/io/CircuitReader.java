@@ -43,7 +43,10 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
 
     @Override
     protected CircuitDocument read(JsonInput in) throws FormatException {
-        return new Pass(in, limits()).run();
+        Pass pass = new Pass(in, limits());
+        try (DeferredNumbers numbers = pass.numbers) {
+            return pass.run();
+        }
     }
 
     /** The state of one read. */
@@ -55,6 +58,8 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         private final DocumentLocations.Recorder locations = new DocumentLocations.Recorder();
         private final NodeLocations.Recorder nodeLocations = new NodeLocations.Recorder();
         private final NodeTable.Builder table = new NodeTable.Builder();
+        /** Decodes the weights on a second thread while the read goes on. */
+        final DeferredNumbers numbers = new DeferredNumbers(table);
         private int nodeCount;
         private final NodeFields fields = new NodeFields();
         /** The position of the node being read in the nodes array. */
@@ -151,6 +156,7 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                                 f.message() + " (ignored: the document is version " + version + ")", f.location())
                         : f);
             }
+            numbers.finish();
             return b.nodeTable(table.build()).nodeLocations(nodeLocations.build()).locations(locations.build())
                     .findings(findings).build();
         }
@@ -373,8 +379,10 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             }
             int n = 0;
             while (in.nextElement()) {
-                double v = in.finiteOrNaN();
-                table.appendValue(Double.isFinite(v) ? v : in.readDouble(nodePointer() + "/" + m + "/" + n));
+                if (!numbers.offer(in.parser())) {
+                    double v = in.finiteOrNaN();
+                    table.appendValue(Double.isFinite(v) ? v : in.readDouble(nodePointer() + "/" + m + "/" + n));
+                }
                 n++;
             }
         }
