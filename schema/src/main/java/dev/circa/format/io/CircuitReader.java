@@ -339,12 +339,12 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                         f.vars = in.readIntArray(nodePointer() + "/" + m, 0, Integer.MAX_VALUE);
                     }
                     default -> {
-                        String q = nodePointer() + "/" + m;
                         if (ParamNames.isParameter(m)) {
-                            f.paramLocations.put(m, new int[] {in.line(), in.column()});
-                            f.params.put(m, readParamValue(q));
+                            long at = in.position();
+                            f.paramLocations.put(m, new int[] {(int) (at >>> 32), (int) at});
+                            f.params.put(m, readParamValue(m));
                         } else {
-                            unknown(q, "unknown property \"" + m + "\" in a node");
+                            unknown(nodePointer() + "/" + m, "unknown property \"" + m + "\" in a node");
                             in.skipValue();
                         }
                     }
@@ -387,29 +387,34 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             }
         }
 
-        /** A parameter value: a number, an array of numbers or an array of arrays of numbers. */
-        private Object readParamValue(String q) throws FormatException {
+        /**
+         * Parameter {@code m} of the node being read: a number, an array of numbers or an array of arrays
+         * of numbers. Pointers are made only for a message.
+         */
+        private Object readParamValue(String m) throws FormatException {
             if (in.token() == JsonToken.START_ARRAY) {
                 List<Object> rows = new ArrayList<>();
                 double[] flat = new double[8];
                 int n = 0;
                 boolean nested = false;
                 while (in.nextElement()) {
-                    String r = q + "/" + (nested ? rows.size() : n);
+                    int k = nested ? rows.size() : n;
                     if (in.token() == JsonToken.START_ARRAY) {
                         if (n > 0) {
-                            throw in.error(r, "expected a number like the elements before it, found an array");
+                            throw in.error(paramPointer(m, k), "expected a number like the elements before it, found an array");
                         }
                         nested = true;
-                        rows.add(in.readDoubleArray(r));
+                        rows.add(in.readDoubleArray(paramPointer(m, k)));
                     } else {
                         if (nested) {
-                            throw in.error(r, "expected an array like the rows before it, found " + JsonInput.describe(in.token()));
+                            throw in.error(paramPointer(m, k), "expected an array like the rows before it, found "
+                                    + JsonInput.describe(in.token()));
                         }
                         if (n == flat.length) {
                             flat = Arrays.copyOf(flat, n * 2);
                         }
-                        flat[n++] = in.readDouble(r);
+                        double v = in.finiteOrNaN();
+                        flat[n++] = Double.isFinite(v) ? v : in.readDouble(paramPointer(m, k));
                     }
                 }
                 if (nested) {
@@ -417,7 +422,12 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                 }
                 return Arrays.copyOf(flat, n);
             }
-            return in.readDouble(q);
+            double v = in.finiteOrNaN();
+            return Double.isFinite(v) ? v : in.readDouble(nodePointer() + "/" + m);
+        }
+
+        private String paramPointer(String m, int k) {
+            return nodePointer() + "/" + m + "/" + k;
         }
 
         FormatException error(String pointer, int line, int col, String problem) {
