@@ -142,7 +142,7 @@ class NodeTableTest {
         assertEquals(edges, t.edgeCount());
         assertEquals(values, t.valueCount());
         long content = 4 * edges + 8 * values + 4 + 19L * nodes;
-        assertTrue(t.retainedBytes() <= content + 12L * 8 * NodeTable.BLOCK,
+        assertTrue(t.retainedBytes() <= content + 12L * NodeTable.BLOCK_BYTES,
                 "the columns hold " + t.retainedBytes() + " bytes for " + content + " bytes of content");
     }
 }

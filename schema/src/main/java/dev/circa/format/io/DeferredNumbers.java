@@ -1,8 +1,10 @@
 package dev.circa.format.io;
 
 import dev.circa.format.NodeTable;
+import java.util.Queue;
 import java.util.concurrent.ArrayBlockingQueue;
 import java.util.concurrent.BlockingQueue;
+import java.util.concurrent.ConcurrentLinkedQueue;
 import tools.jackson.core.JsonParser;
 import tools.jackson.core.JsonToken;
 import tools.jackson.core.io.NumberInput;
@@ -11,9 +13,10 @@ import tools.jackson.core.io.NumberInput;
  * Turns the text of a circuit's weights into doubles on a second thread while the reader goes on
  * with the next tokens: decoding a number costs about as much as finding it in the text, so the read
  * of a large circuit waits on the parser alone. The reader copies a number's characters into a batch
- * and appends a placeholder to the table; a full batch goes to the decoder thread, which writes the
- * values over their placeholders; {@link #finish()} decodes what is left and waits, before the table
- * is built.
+ * and appends a placeholder to the table; a full batch goes to the decoder thread, which decodes it
+ * into the batch and hands it back; the reader writes the values over their placeholders when it next
+ * hands a batch, and {@link #finish()} decodes what is left and waits, before the table is built.
+ * Only the reading thread touches the table.
  *
  * <p>Only a decimal number that cannot leave the range of a double is deferred: no exponent or a
  * negative one, and at most {@value #MAX_DEFERRED_LENGTH} characters (below 10^300 and above
@@ -31,7 +34,7 @@ final class DeferredNumbers implements AutoCloseable {
 
     private final NodeTable.Builder table;
     private final BlockingQueue<Batch> full = new ArrayBlockingQueue<>(4);
-    private final BlockingQueue<Batch> free = new ArrayBlockingQueue<>(6);
+    private final Queue<Batch> decoded = new ConcurrentLinkedQueue<>();
     private Batch current = new Batch(BATCH);
     private Thread decoder;
     private volatile Throwable failure;
@@ -82,7 +85,11 @@ final class DeferredNumbers implements AutoCloseable {
             decoder.start();
         }
         put(full, b);
-        Batch next = free.poll();
+        Batch next = null;
+        for (Batch d = decoded.poll(); d != null; d = decoded.poll()) {
+            apply(d);
+            next = d;
+        }
         if (next == null) {
             next = new Batch(BATCH);
         }
@@ -91,18 +98,25 @@ final class DeferredNumbers implements AutoCloseable {
         return next;
     }
 
+    /** Writes a decoded batch's values over their placeholders (on the reading thread). */
+    private void apply(Batch b) {
+        for (int k = 0; k < b.count; k++) {
+            table.setValue(b.position[k], b.value[k]);
+        }
+    }
+
     private void decodeBatches() {
         try {
             for (Batch b = full.take(); b != END; b = full.take()) {
                 if (failure == null) {
                     try {
                         decode(b);
+                        decoded.add(b);
                     } catch (RuntimeException | Error e) {
                         // kept for the reader; the batches that follow are drained so that it never waits
                         failure = e;
                     }
                 }
-                free.offer(b);
             }
         } catch (InterruptedException e) {
             // an abandoned read: nothing waits for the values
@@ -110,10 +124,10 @@ final class DeferredNumbers implements AutoCloseable {
         }
     }
 
-    private void decode(Batch b) {
+    private static void decode(Batch b) {
         int start = 0;
         for (int k = 0; k < b.count; k++) {
-            table.setValue(b.position[k], NumberInput.parseDouble(b.chars, start, b.end[k] - start, true));
+            b.value[k] = NumberInput.parseDouble(b.chars, start, b.end[k] - start, true);
             start = b.end[k];
         }
     }
@@ -121,6 +135,7 @@ final class DeferredNumbers implements AutoCloseable {
     /** Decodes every number taken and waits for the decoder: the table's values are complete after this. */
     void finish() {
         decode(current);
+        apply(current);
         current.count = 0;
         current.used = 0;
         if (decoder == null) {
@@ -140,6 +155,9 @@ final class DeferredNumbers implements AutoCloseable {
         }
         if (f instanceof Error r) {
             throw r;
+        }
+        for (Batch d = decoded.poll(); d != null; d = decoded.poll()) {
+            apply(d);
         }
     }
 
@@ -178,11 +196,12 @@ final class DeferredNumbers implements AutoCloseable {
         }
     }
 
-    /** The texts of up to {@value #BATCH} numbers and where their values go. */
+    /** The texts of up to {@value #BATCH} numbers, where their values go and, once decoded, the values. */
     private static final class Batch {
         final char[] chars;
         final int[] end;
         final int[] position;
+        final double[] value;
         int count;
         int used;
 
@@ -190,6 +209,7 @@ final class DeferredNumbers implements AutoCloseable {
             chars = new char[capacity * 24];
             end = new int[capacity];
             position = new int[capacity];
+            value = new double[capacity];
         }
     }
 }
