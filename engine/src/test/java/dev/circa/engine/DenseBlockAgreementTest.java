@@ -167,10 +167,15 @@ class DenseBlockAgreementTest {
         }
     }
 
-    /** Automatic and forced dense paths both agree with the generic one on every row and output. */
+    /**
+     * Automatic and forced dense paths both agree with the generic one on every row and output, and give
+     * the same bits for each row evaluated alone (the one-row kernels) as in the whole batch.
+     */
     static void assertAgree(CompiledCircuit circuit, double[] data, String what) {
-        int rows = data.length / circuit.variableCount();
-        int size = rows * circuit.outputCount();
+        int nv = circuit.variableCount();
+        int outs = circuit.outputCount();
+        int rows = data.length / nv;
+        int size = rows * outs;
         double[] generic = new double[size];
         new Evaluator(circuit, Evaluator.Mode.GENERIC).logDensity(data, rows, generic);
         Evaluator[] variants = {new Evaluator(circuit), Evaluator.everyCandidateBlock(circuit)};
@@ -178,6 +183,14 @@ class DenseBlockAgreementTest {
         for (Evaluator e : variants) {
             double[] out = new double[size];
             e.logDensity(data, rows, out);
+            double[] one = new double[outs];
+            for (int r = 0; r < rows; r++) {
+                e.logDensity(Arrays.copyOfRange(data, r * nv, (r + 1) * nv), 1, one);
+                for (int o = 0; o < outs; o++) {
+                    assertEquals(Double.doubleToRawLongBits(out[r * outs + o]), Double.doubleToRawLongBits(one[o]),
+                            what + " row " + r + " alone, output " + o + ": " + out[r * outs + o] + " vs " + one[o]);
+                }
+            }
             for (int i = 0; i < size; i++) {
                 Tolerances.assertClose(generic[i], out[i], what + " entry " + i + (e.usesDenseBlocks() ? " (dense)" : ""));
                 if (Double.isFinite(generic[i])) {

@@ -53,11 +53,28 @@ public final class DenseBlocks {
     public final double[][] weightsT;
     public final double[] inputLogSd;
     /**
-     * The children of the fused products, flat in node and child order: fused product i's child e is entry
-     * {@code fusedBase[i] + e - childStart[i]}, with its input slot, variable, and for a normal its mean,
-     * sd and log sd (NaN for other families), so that one row reads them in sequence.
+     * The children of the fused products, flat, with their input slot, variable, and for a normal its mean,
+     * sd and log sd (NaN for other families). Fused products with the same number of children c form a
+     * group of q products, in node order; the group's entries are child-major, a q x c table stored by
+     * columns: fused product i's child e is entry {@code fusedBase[i] + (e - childStart[i]) * fusedStride[i]}
+     * (the stride is the group's q). So one row adds the j-th children of a whole group in one loop the JIT
+     * turns into vector instructions, each product's sum still in child order.
      */
     public final int[] fusedBase;
+    /** Per node, the distance between a fused product's consecutive children (0 for other nodes). */
+    public final int[] fusedStride;
+    /** Per node, the index of a fused product among all fused products, in group order (-1 for other nodes). */
+    public final int[] fusedOut;
+    /**
+     * Group g of fused products: entries from {@code fusedGroupStart[g]}, {@code fusedGroupSize[g]}
+     * products of {@code fusedGroupWidth[g]} children each, the first with index {@code fusedGroupOut[g]}.
+     */
+    public final int[] fusedGroupStart;
+    public final int[] fusedGroupSize;
+    public final int[] fusedGroupWidth;
+    public final int[] fusedGroupOut;
+    /** Number of fused products. */
+    public final int fusedCount;
     public final int[] fusedSlot;
     public final int[] fusedVar;
     public final double[] fusedMean;
@@ -122,12 +139,43 @@ public final class DenseBlocks {
             weightsT[b] = t;
         }
         this.fusedBase = new int[action.length];
+        this.fusedStride = new int[action.length];
+        this.fusedOut = new int[action.length];
+        java.util.TreeMap<Integer, Integer> productsByWidth = new java.util.TreeMap<>();
+        for (int i = 0; i < action.length; i++) {
+            if (action[i] == FUSED) {
+                productsByWidth.merge(c.childStart[i + 1] - c.childStart[i], 1, Integer::sum);
+            }
+        }
+        int groups = productsByWidth.size();
+        this.fusedGroupStart = new int[groups];
+        this.fusedGroupSize = new int[groups];
+        this.fusedGroupWidth = new int[groups];
+        this.fusedGroupOut = new int[groups];
+        java.util.HashMap<Integer, Integer> groupOfWidth = new java.util.HashMap<>();
         int fusedEdges = 0;
+        int products = 0;
+        for (var entry : productsByWidth.entrySet()) {
+            int g = groupOfWidth.size();
+            groupOfWidth.put(entry.getKey(), g);
+            fusedGroupStart[g] = fusedEdges;
+            fusedGroupSize[g] = entry.getValue();
+            fusedGroupWidth[g] = entry.getKey();
+            fusedGroupOut[g] = products;
+            fusedEdges += entry.getKey() * entry.getValue();
+            products += entry.getValue();
+        }
+        this.fusedCount = products;
+        int[] filled = new int[groups];
         for (int i = 0; i < action.length; i++) {
             fusedBase[i] = -1;
+            fusedOut[i] = -1;
             if (action[i] == FUSED) {
-                fusedBase[i] = fusedEdges;
-                fusedEdges += c.childStart[i + 1] - c.childStart[i];
+                int g = groupOfWidth.get(c.childStart[i + 1] - c.childStart[i]);
+                int q = filled[g]++;
+                fusedBase[i] = fusedGroupStart[g] + q;
+                fusedStride[i] = fusedGroupSize[g];
+                fusedOut[i] = fusedGroupOut[g] + q;
             }
         }
         this.fusedSlot = new int[fusedEdges];
@@ -140,7 +188,7 @@ public final class DenseBlocks {
                 continue;
             }
             for (int e = c.childStart[i]; e < c.childStart[i + 1]; e++) {
-                int f = fusedBase[i] + e - c.childStart[i];
+                int f = fusedBase[i] + (e - c.childStart[i]) * fusedStride[i];
                 int slot = c.inputSlot[c.childIndex[e]];
                 int off = c.paramStart[slot];
                 boolean normal = c.family[slot] == Families.NORMAL;

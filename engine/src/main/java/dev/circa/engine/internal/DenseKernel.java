@@ -46,6 +46,7 @@ public final class DenseKernel {
         final boolean sweep = rows == 1 && hide == null;
         if (sweep) {
             inputSweep(c, blocks, data, row0 * c.variableCount, ws.fused);
+            fusedSums(blocks, ws.fused, ws.fusedValue);
         }
         for (int i : blocks.steps) {
             byte a = action[i];
@@ -53,12 +54,16 @@ public final class DenseKernel {
                 node(c, blocks, i, data, row0, rows, hide, value, scratch, mvn);
             } else if (a == DenseBlocks.FUSED) {
                 if (sweep) {
-                    value[blocks.nodeSlot[i]] = fusedSum(ws.fused, blocks.fusedBase[i], c.childStart[i + 1] - c.childStart[i]);
+                    value[blocks.nodeSlot[i]] = ws.fusedValue[blocks.fusedOut[i]];
                 } else {
                     fused(c, blocks, i, data, row0, rows, hide, value);
                 }
             } else if (a == DenseBlocks.BLOCK) {
-                block(c, blocks, blocks.blockAt[i], rows, value, ws);
+                if (rows == 1) {
+                    blockRow(c, blocks, blocks.blockAt[i], value, ws);
+                } else {
+                    block(c, blocks, blocks.blockAt[i], rows, value, ws);
+                }
             }
         }
     }
@@ -78,11 +83,12 @@ public final class DenseKernel {
             if (a == DenseBlocks.FUSED) {
                 final int base = i * rows;
                 final int f0 = d.fusedBase[i];
-                final int count = c.childStart[i + 1] - c.childStart[i];
+                final int stride = d.fusedStride[i];
+                final int last = f0 + (c.childStart[i + 1] - c.childStart[i]) * stride;
                 for (int r = 0; r < rows; r++) {
                     final int rowBase = (row0 + r) * nv;
                     double acc = 0;
-                    for (int f = f0; f < f0 + count; f++) {
+                    for (int f = f0; f < last; f += stride) {
                         int slot = d.fusedSlot[f];
                         double x = data[rowBase + d.fusedVar[f]];
                         double g;
@@ -148,10 +154,6 @@ public final class DenseKernel {
         final int base = d.nodeSlot[i] * rows;
         final int s = c.childStart[i];
         final int end = c.childStart[i + 1];
-        if (rows == 1 && hide == null) {
-            value[base] = fusedRow(c, d, s, end, d.fusedBase[i], data, row0 * c.variableCount);
-            return;
-        }
         for (int e = s; e < end; e++) {
             input(c, d, c.inputSlot[c.childIndex[e]], data, row0, rows, hide, value, base, e > s);
         }
@@ -160,7 +162,7 @@ public final class DenseKernel {
     /**
      * One row: every fused product's input log-densities, {@code g[f]} for fused child f, in three loops
      * (gather the cells; the normal formula over all, which the JIT vectorises; then every entry that is
-     * NaN, i.e. a missing cell or another family, again by itself). The same values as {@link #fusedRow}.
+     * NaN, i.e. a missing cell or another family, again by itself). The same values as {@link #input}.
      */
     private static void inputSweep(CircuitData c, DenseBlocks d, double[] data, int rowBase, double[] g) {
         final int[] fVar = d.fusedVar;
@@ -190,36 +192,25 @@ public final class DenseKernel {
         return Families.logDensity(c.family[slot], c.params, off, c.paramStart[slot + 1] - off, x);
     }
 
-    /** The sum of {@code g[f0 .. f0+count-1]} in order, as {@link #fusedRow} adds them. */
-    private static double fusedSum(double[] g, int f0, int count) {
-        double acc = g[f0];
-        for (int f = f0 + 1; f < f0 + count; f++) {
-            acc += g[f];
-        }
-        return acc;
-    }
-
-    /** {@link #fused} at one row: the same sum in the same order. */
-    private static double fusedRow(CircuitData c, DenseBlocks d, int s, int end, int f0, double[] data, int rowBase) {
-        final int[] fVar = d.fusedVar;
-        final double[] fMean = d.fusedMean;
-        final double[] fSd = d.fusedSd;
-        final double[] fLogSd = d.fusedLogSd;
-        double acc = 0;
-        for (int f = f0, last = f0 + end - s; f < last; f++) {
-            double x = data[rowBase + fVar[f]];
-            double sd = fSd[f];
-            double g;
-            if (sd == sd && x == x) {
-                double z = (x - fMean[f]) / sd;
-                g = -0.5 * z * z - fLogSd[f] - HALF_LOG_2PI;
-            } else {
-                int slot = d.fusedSlot[f];
-                g = x != x ? d.inputMissing[slot] : density(c, slot, x);
+    /**
+     * One row: every fused product's sum of its children's log-densities {@code g} (from {@link #inputSweep}),
+     * in child order as {@link #fused} adds them, into {@code out} by {@link DenseBlocks#fusedOut}: per
+     * group of products with the same number of children, the j-th children of all of them at once.
+     */
+    private static void fusedSums(DenseBlocks d, double[] g, double[] out) {
+        for (int grp = 0; grp < d.fusedGroupStart.length; grp++) {
+            final int base = d.fusedGroupStart[grp];
+            final int q = d.fusedGroupSize[grp];
+            final int width = d.fusedGroupWidth[grp];
+            final int o = d.fusedGroupOut[grp];
+            System.arraycopy(g, base, out, o, q);
+            for (int j = 1; j < width; j++) {
+                final int gb = base + j * q;
+                for (int p = 0; p < q; p++) {
+                    out[o + p] += g[gb + p];
+                }
             }
-            acc = f == f0 ? g : acc + g;
         }
-        return acc;
     }
 
     /**
@@ -257,6 +248,99 @@ public final class DenseKernel {
             double x = data[(row0 + r) * nv + v];
             double f = x != x ? missing : Families.logDensity(code, p, off, len, x);
             value[base + r] = add ? value[base + r] + f : f;
+        }
+    }
+
+    /**
+     * {@link #block} at one row, with the same values bit for bit: the same part maxima, exponentials,
+     * products and matrix product, without the loops over rows; a row that goes the exact way skips the
+     * linear work, and a part's exponentials go straight into the product list when it is the first part.
+     */
+    private static void blockRow(CircuitData c, DenseBlocks d, int b, double[] value, DenseWorkspace ws) {
+        final int seg0 = d.segStart[b];
+        final int seg1 = d.segStart[b + 1];
+        final int part0 = d.partStart[seg0];
+        final int[] groupStart = d.groupStart;
+        final int[] groupSlot = d.groupSlot;
+        final double[] partMax = ws.partMax;
+        final double[] segMax = ws.segMax;
+        final double neg = Double.NEGATIVE_INFINITY;
+        double blockMax = neg;
+        boolean check = false;
+        for (int s = seg0; s < seg1; s++) {
+            double sm = 0;
+            for (int p = d.partStart[s]; p < d.partStart[s + 1]; p++) {
+                final int g1 = groupStart[p + 1];
+                double pm = value[groupSlot[groupStart[p]]];
+                for (int g = groupStart[p] + 1; g < g1; g++) {
+                    double v = value[groupSlot[g]];
+                    pm = v > pm ? v : pm;
+                }
+                partMax[p - part0] = pm;
+                sm += pm;
+            }
+            segMax[s - seg0] = sm;
+            if (sm > blockMax) {
+                blockMax = sm;
+            }
+            check |= sm != sm || sm == Double.POSITIVE_INFINITY;
+        }
+        final int k0 = d.sumStart[b];
+        final int k1 = d.sumStart[b + 1];
+        if (check || blockMax == neg) {
+            for (int k = k0; k < k1; k++) {
+                value[d.sumSlot[k]] = check ? exact(c, d.childSlot, d.sumNode[k], 1, 0, value) : neg;
+            }
+            return;
+        }
+        final double[] pt = ws.products.data;
+        final double[] e = ws.partExp;
+        final boolean single = seg1 - seg0 == 1;
+        for (int s = seg0; s < seg1; s++) {
+            final int out = d.segOffset[s];
+            final double sm = segMax[s - seg0];
+            double t = single ? 1 : sm == neg ? 0 : Math.exp(sm - blockMax);
+            int cur = 1;
+            for (int p = d.partStart[s]; p < d.partStart[s + 1]; p++) {
+                final int g0 = groupStart[p];
+                final int size = groupStart[p + 1] - g0;
+                if (size == 1) {
+                    continue;
+                }
+                final double pm = partMax[p - part0];
+                final double[] dst = cur == 1 ? pt : e;
+                final int at = cur == 1 ? out : 0;
+                for (int j = 0; j < size; j++) {
+                    double v = value[groupSlot[g0 + j]];
+                    dst[at + j] = v == neg ? 0 : Math.exp(v - pm);
+                }
+                if (cur == 1) {
+                    for (int j = 0; j < size; j++) {
+                        pt[out + j] = t * pt[out + j];
+                    }
+                } else {
+                    expand(pt, out, cur, size, e, 1, null);
+                }
+                cur *= size;
+            }
+            if (cur == 1) {
+                pt[out] = t;
+            }
+        }
+        final double[] ct = ws.sums.data;
+        multiply(d, b, pt, d.width[b], 1, ct);
+        for (int k = k0; k < k1; k++) {
+            double lw = d.maxLogWeight[k];
+            double sum = ct[k - k0];
+            double v;
+            if (lw == neg) {
+                v = neg;
+            } else if (sum >= TINY) {
+                v = Math.log(sum) + (lw + blockMax);
+            } else {
+                v = exact(c, d.childSlot, d.sumNode[k], 1, 0, value);
+            }
+            value[d.sumSlot[k]] = v;
         }
     }
 
@@ -381,76 +465,28 @@ public final class DenseKernel {
         final double[] w = d.weights[b].data;
         if (rows == 1) {
             int k = 0;
-            for (; k + 8 <= kk; k += 8) {
-                final int w0 = k * n;
-                double a0 = 0;
-                double a1 = 0;
-                double a2 = 0;
-                double a3 = 0;
-                double a4 = 0;
-                double a5 = 0;
-                double a6 = 0;
-                double a7 = 0;
-                for (int j = 0; j < n; j++) {
-                    double pj = pt[j];
-                    a0 += w[w0 + j] * pj;
-                    a1 += w[w0 + n + j] * pj;
-                    a2 += w[w0 + 2 * n + j] * pj;
-                    a3 += w[w0 + 3 * n + j] * pj;
-                    a4 += w[w0 + 4 * n + j] * pj;
-                    a5 += w[w0 + 5 * n + j] * pj;
-                    a6 += w[w0 + 6 * n + j] * pj;
-                    a7 += w[w0 + 7 * n + j] * pj;
+            while (k < kk) {
+                int left = kk - k;
+                if (left >= 12 || left == 8) {
+                    oneRow8(w, k * n, n, pt, ct, k);
+                    k += 8;
+                } else if (left >= 5) {
+                    oneRow5(w, k * n, n, pt, ct, k);
+                    k += 5;
+                } else if (left == 4) {
+                    oneRow4(w, k * n, n, pt, ct, k);
+                    k += 4;
+                } else if (left >= 2) {
+                    oneRow2(w, k * n, n, pt, ct, k);
+                    k += 2;
+                } else {
+                    double a0 = 0;
+                    for (int j = 0, w0 = k * n; j < n; j++) {
+                        a0 += w[w0 + j] * pt[j];
+                    }
+                    ct[k] = a0;
+                    k++;
                 }
-                ct[k] = a0;
-                ct[k + 1] = a1;
-                ct[k + 2] = a2;
-                ct[k + 3] = a3;
-                ct[k + 4] = a4;
-                ct[k + 5] = a5;
-                ct[k + 6] = a6;
-                ct[k + 7] = a7;
-            }
-            for (; k + 5 <= kk; k += 5) {
-                final int w0 = k * n;
-                double a0 = 0;
-                double a1 = 0;
-                double a2 = 0;
-                double a3 = 0;
-                double a4 = 0;
-                for (int j = 0; j < n; j++) {
-                    double pj = pt[j];
-                    a0 += w[w0 + j] * pj;
-                    a1 += w[w0 + n + j] * pj;
-                    a2 += w[w0 + 2 * n + j] * pj;
-                    a3 += w[w0 + 3 * n + j] * pj;
-                    a4 += w[w0 + 4 * n + j] * pj;
-                }
-                ct[k] = a0;
-                ct[k + 1] = a1;
-                ct[k + 2] = a2;
-                ct[k + 3] = a3;
-                ct[k + 4] = a4;
-            }
-            for (; k + 2 <= kk; k += 2) {
-                final int w0 = k * n;
-                double a0 = 0;
-                double a1 = 0;
-                for (int j = 0; j < n; j++) {
-                    double pj = pt[j];
-                    a0 += w[w0 + j] * pj;
-                    a1 += w[w0 + n + j] * pj;
-                }
-                ct[k] = a0;
-                ct[k + 1] = a1;
-            }
-            for (; k < kk; k++) {
-                final int w0 = k * n;
-                double a0 = 0;
-                for (int j = 0; j < n; j++) {
-                    a0 += w[w0 + j] * pt[j];
-                }
-                ct[k] = a0;
             }
             return;
         }
@@ -491,6 +527,93 @@ public final class DenseKernel {
                 }
             }
         }
+    }
+
+    /*
+     * One row, sums k .. k+m-1 at once with m accumulators in registers, each summed over j in order from 0.
+     * A pass costs about max(m, 4) cycles per j (two multiply-adds per cycle; an add waits 4 cycles for the
+     * previous one of its chain), so K sums go in passes of 4 to 8 (K = 10: 5 + 5, not 8 + 2).
+     */
+
+    private static void oneRow8(double[] w, int w0, int n, double[] pt, double[] ct, int k) {
+        double a0 = 0;
+        double a1 = 0;
+        double a2 = 0;
+        double a3 = 0;
+        double a4 = 0;
+        double a5 = 0;
+        double a6 = 0;
+        double a7 = 0;
+        for (int j = 0; j < n; j++) {
+            double pj = pt[j];
+            a0 += w[w0 + j] * pj;
+            a1 += w[w0 + n + j] * pj;
+            a2 += w[w0 + 2 * n + j] * pj;
+            a3 += w[w0 + 3 * n + j] * pj;
+            a4 += w[w0 + 4 * n + j] * pj;
+            a5 += w[w0 + 5 * n + j] * pj;
+            a6 += w[w0 + 6 * n + j] * pj;
+            a7 += w[w0 + 7 * n + j] * pj;
+        }
+        ct[k] = a0;
+        ct[k + 1] = a1;
+        ct[k + 2] = a2;
+        ct[k + 3] = a3;
+        ct[k + 4] = a4;
+        ct[k + 5] = a5;
+        ct[k + 6] = a6;
+        ct[k + 7] = a7;
+    }
+
+    private static void oneRow5(double[] w, int w0, int n, double[] pt, double[] ct, int k) {
+        double a0 = 0;
+        double a1 = 0;
+        double a2 = 0;
+        double a3 = 0;
+        double a4 = 0;
+        for (int j = 0; j < n; j++) {
+            double pj = pt[j];
+            a0 += w[w0 + j] * pj;
+            a1 += w[w0 + n + j] * pj;
+            a2 += w[w0 + 2 * n + j] * pj;
+            a3 += w[w0 + 3 * n + j] * pj;
+            a4 += w[w0 + 4 * n + j] * pj;
+        }
+        ct[k] = a0;
+        ct[k + 1] = a1;
+        ct[k + 2] = a2;
+        ct[k + 3] = a3;
+        ct[k + 4] = a4;
+    }
+
+    private static void oneRow4(double[] w, int w0, int n, double[] pt, double[] ct, int k) {
+        double a0 = 0;
+        double a1 = 0;
+        double a2 = 0;
+        double a3 = 0;
+        for (int j = 0; j < n; j++) {
+            double pj = pt[j];
+            a0 += w[w0 + j] * pj;
+            a1 += w[w0 + n + j] * pj;
+            a2 += w[w0 + 2 * n + j] * pj;
+            a3 += w[w0 + 3 * n + j] * pj;
+        }
+        ct[k] = a0;
+        ct[k + 1] = a1;
+        ct[k + 2] = a2;
+        ct[k + 3] = a3;
+    }
+
+    private static void oneRow2(double[] w, int w0, int n, double[] pt, double[] ct, int k) {
+        double a0 = 0;
+        double a1 = 0;
+        for (int j = 0; j < n; j++) {
+            double pj = pt[j];
+            a0 += w[w0 + j] * pj;
+            a1 += w[w0 + n + j] * pj;
+        }
+        ct[k] = a0;
+        ct[k + 1] = a1;
     }
 
     /**

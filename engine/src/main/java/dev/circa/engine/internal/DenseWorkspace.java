@@ -26,6 +26,8 @@ public final class DenseWorkspace {
     final double[] row;
     /** One row's input log-densities of every fused product's children. */
     final double[] fused;
+    /** One row's value of every fused product, by {@link DenseBlocks#fusedOut}. */
+    final double[] fusedValue;
 
     /** Buffers for {@code blocks} and chunks of up to {@code rows} rows. */
     public DenseWorkspace(DenseBlocks blocks, int rows) {
@@ -39,5 +41,6 @@ public final class DenseWorkspace {
         this.partExp = new double[Math.max(1, blocks.maxPartSize) * rows];
         this.row = new double[rows];
         this.fused = new double[blocks.fusedVar.length];
+        this.fusedValue = new double[blocks.fusedCount];
     }
 }
