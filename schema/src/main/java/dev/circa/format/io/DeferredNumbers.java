@@ -22,7 +22,8 @@ import tools.jackson.core.io.NumberInput;
  * negative one, and at most {@value #MAX_DEFERRED_LENGTH} characters (below 10^300 and above
  * -10^300). Any other number is decoded at once by the reader, which reports one out of range at its
  * own line and column. The value is the same either way: both decode the same text to the nearest
- * double. The thread starts only when a first batch fills, so small documents never start one.
+ * double. The thread starts only when a first batch of {@value #FIRST_BATCH} fills, so small documents
+ * never start one.
  * One instance per read; used by the reading thread only (the decoder thread is internal).
  */
 final class DeferredNumbers implements AutoCloseable {
@@ -30,12 +31,14 @@ final class DeferredNumbers implements AutoCloseable {
     static final int MAX_DEFERRED_LENGTH = 300;
     /** Numbers per batch. */
     static final int BATCH = 8192;
+    /** Numbers in the first batch (made on the first number): a small document costs little. */
+    static final int FIRST_BATCH = 1024;
     private static final Batch END = new Batch(0);
 
     private final NodeTable.Builder table;
     private final BlockingQueue<Batch> full = new ArrayBlockingQueue<>(4);
     private final Queue<Batch> decoded = new ConcurrentLinkedQueue<>();
-    private Batch current = new Batch(BATCH);
+    private Batch current;
     private Thread decoder;
     private volatile Throwable failure;
 
@@ -64,7 +67,10 @@ final class DeferredNumbers implements AutoCloseable {
             }
         }
         Batch b = current;
-        if (b.count == BATCH || b.used + len > b.chars.length) {
+        if (b == null) {
+            b = new Batch(FIRST_BATCH);
+            current = b;
+        } else if (b.count == b.end.length || b.used + len > b.chars.length) {
             b = hand(b);
             current = b;
         }
@@ -134,10 +140,12 @@ final class DeferredNumbers implements AutoCloseable {
 
     /** Decodes every number taken and waits for the decoder: the table's values are complete after this. */
     void finish() {
-        decode(current);
-        apply(current);
-        current.count = 0;
-        current.used = 0;
+        if (current != null) {
+            decode(current);
+            apply(current);
+            current.count = 0;
+            current.used = 0;
+        }
         if (decoder == null) {
             return;
         }
