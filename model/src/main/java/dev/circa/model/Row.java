@@ -11,6 +11,10 @@ import java.util.Map;
  * non-negative integer, a categorical or binary value a state label or a state index (binary also a
  * boolean); {@code null} or NaN makes the variable missing. Not thread-safe: one row per thread (the
  * model itself is shared).
+ *
+ * <p>Setting by name looks the name up each time (a hash and a comparison of characters, or of references
+ * for a string literal); where every nanosecond counts, look the names up once with
+ * {@link Model#variableIndex(String)} and set by index ({@link #set(int, double)}).
  */
 public final class Row {
     private final Model model;
@@ -121,14 +125,30 @@ public final class Row {
      */
     public Row setAll(Map<String, ?> values) {
         clear();
-        int found = 0;
+        int observed = 0;
         for (int v = 0; v < cells.length; v++) {
-            String name = model.variables().get(v).name();
-            Object x = values.get(name);
+            Object x = values.get(codec.name(v));
             if (x != null) {
                 cells[v] = codec.encode(v, x);
-                found++;
-            } else if (values.containsKey(name)) {
+                observed++;
+            }
+        }
+        if (observed < values.size()) {
+            refuseUnknownNames(values, observed);
+        }
+        return this;
+    }
+
+    /**
+     * Throws for the first name of {@code values} that is not a variable, if any; reached only when the map
+     * holds more entries than observed variables (null values, or names that are not variables), so that
+     * the usual call looks each variable up once and no key twice.
+     */
+    private void refuseUnknownNames(Map<String, ?> values, int observed) {
+        int found = observed;
+        for (int v = 0; v < cells.length; v++) {
+            String name = codec.name(v);
+            if (values.get(name) == null && values.containsKey(name)) {
                 found++;
             }
         }
@@ -137,7 +157,6 @@ public final class Row {
                 codec.indexOf(String.valueOf(key));
             }
         }
-        return this;
     }
 
     /**
@@ -183,7 +202,7 @@ public final class Row {
     public Map<String, Object> toMap() {
         Map<String, Object> m = new LinkedHashMap<>();
         for (int v = 0; v < cells.length; v++) {
-            m.put(model.variables().get(v).name(), codec.decode(v, cells[v]));
+            m.put(codec.name(v), codec.decode(v, cells[v]));
         }
         return m;
     }

@@ -118,8 +118,8 @@ public final class ForwardKernel {
             return;
         }
         int v = c.varIndex[c.varStart[slot]];
-        double missing = max ? Families.maxLogDensity(code, p, off, len) : Families.logTotalMass(code, p, off, len);
         if (hide != null && hide[v]) {
+            double missing = missingValue(code, p, off, len, max);
             for (int r = 0; r < rows; r++) {
                 value[base + r] = missing;
             }
@@ -127,7 +127,13 @@ public final class ForwardKernel {
         }
         for (int r = 0; r < rows; r++) {
             double x = data[(row0 + r) * nv + v];
-            value[base + r] = Double.isNaN(x) ? missing : Families.logDensity(code, p, off, len, x);
+            value[base + r] = Double.isNaN(x) ? missingValue(code, p, off, len, max)
+                    : Families.logDensity(code, p, off, len, x);
         }
+    }
+
+    /** An input's value over a missing variable: its largest log-density (max-product) or its log total mass. */
+    private static double missingValue(int code, double[] p, int off, int len, boolean max) {
+        return max ? Families.maxLogDensity(code, p, off, len) : Families.logTotalMass(code, p, off, len);
     }
 }
