@@ -23,7 +23,8 @@ import java.util.Locale;
  * ({@code VmHWM}, Linux).
  *
  * <p>Run: {@code java -Xmx512m -cp bench/target/benchmarks.jar dev.circa.bench.ValidateRun
- * parse|numbers|validate|schema|phases FILE} ({@code phases}: validate with the read and the rules timed apart).
+ * parse|numbers|validate|schema|phases|warm FILE} ({@code phases}: validate with the read and the rules timed apart;
+ * {@code warm}: parse, parse+num and validate repeated in this JVM, best of {@code -Dwarm=5} each, and their ratios).
  */
 public final class ValidateRun {
     private ValidateRun() {
@@ -53,6 +54,7 @@ public final class ValidateRun {
                 outcome = String.format(Locale.ROOT, "read=%.3f,rules=%.3f,%s", read, (System.nanoTime() - t1) / 1e9,
                         r.valid() ? "valid" : "NOT-valid");
             }
+            case "warm" -> outcome = warm(file, Integer.getInteger("warm", 5));
             default -> throw new IllegalArgumentException("unknown step " + step);
         }
         double seconds = (System.nanoTime() - t0) / 1e9;
@@ -60,6 +62,42 @@ public final class ValidateRun {
                 .getProcessCpuTime() / 1e9;
         System.out.printf(Locale.ROOT, "%s %.3f %.3f %.0f %.0f %.0f %s%n", step, seconds, cpu, ScaleTable.peaks() / 1048576.0,
                 LIVE_PEAK.get() / 1048576.0, peakRss() / 1024.0, outcome);
+    }
+
+    /**
+     * The same steps repeated in this JVM, the best of {@code reps} each once the code is compiled: a
+     * view of the work itself, steadier than one fresh JVM on a busy machine (JIT warm-up and scheduling
+     * weigh less). Returns {@code parse=..,num=..,read=..,rules=..,val/parse=..,val/num=..}.
+     */
+    private static String warm(Path file, int reps) throws Exception {
+        double parse = Double.MAX_VALUE;
+        double num = Double.MAX_VALUE;
+        double read = Double.MAX_VALUE;
+        double rules = Double.MAX_VALUE;
+        double both = Double.MAX_VALUE;
+        Validator v = new Validator(ValidationOptions.defaults());
+        for (int i = 0; i < reps; i++) {
+            long t0 = System.nanoTime();
+            ValidateScale.parse(file);
+            long t1 = System.nanoTime();
+            ValidateScale.parseNumbers(file);
+            long t2 = System.nanoTime();
+            dev.circa.format.CircuitDocument doc = new dev.circa.format.io.CircuitReader().read(file);
+            long t3 = System.nanoTime();
+            if (!v.validate(doc).valid()) {
+                return "NOT-valid";
+            }
+            long t4 = System.nanoTime();
+            // not held through the next read (two 10^7-edge documents do not fit in 512m together)
+            doc = null;
+            parse = Math.min(parse, (t1 - t0) / 1e9);
+            num = Math.min(num, (t2 - t1) / 1e9);
+            read = Math.min(read, (t3 - t2) / 1e9);
+            rules = Math.min(rules, (t4 - t3) / 1e9);
+            both = Math.min(both, (t4 - t2) / 1e9);
+        }
+        return String.format(Locale.ROOT, "parse=%.3f,num=%.3f,read=%.3f,rules=%.3f,val/parse=%.2f,val/num=%.2f",
+                parse, num, read, rules, both / parse, both / num);
     }
 
     /** The largest heap occupancy seen right after a collection: the live data at its peak, garbage excluded. */

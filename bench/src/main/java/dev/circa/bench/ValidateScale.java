@@ -104,6 +104,8 @@ public final class ValidateScale {
                     outcome[2] + (outcome[3].equals(outcome[2]) ? "" : " (+schema: " + outcome[3] + ")"));
             best("phases", file, xmx, 1);
             System.out.println("           phases of validate in one JVM (s): " + lastOutcome);
+            best("warm", file, xmx, 1);
+            System.out.println("           warm in one JVM, best of 5 (s): " + lastOutcome);
             if (!Boolean.getBoolean("keep")) {
                 Files.delete(file);
             }

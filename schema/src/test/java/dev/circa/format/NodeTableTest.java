@@ -94,6 +94,39 @@ class NodeTableTest {
     }
 
     @Test
+    void builder_pastSeveralFullBlocksOfEveryColumn_everyEntryAsAppended() {
+        // more nodes than a byte column's block holds, so every column crosses block boundaries and its
+        // first block grows to full size on the way; the expected entries are the ones appended
+        int n = 1_100_000;
+        NodeTable.Builder b = new NodeTable.Builder();
+        Family[] families = Family.values();
+        for (int i = 0; i < n; i++) {
+            b.appendChild(3 * i);
+            b.appendValue(i + 0.25);
+            b.appendVar(i % 11);
+            byte kind = (byte) (i % 3);
+            b.close(kind, 2 * i, i % 100_000 == 0 ? "valve_" + i : null,
+                    kind == NodeTable.INPUT ? families[i % families.length] : null, i % 5 == 0);
+        }
+        NodeTable t = b.build();
+        assertEquals(n, t.size());
+        assertEquals(n, t.edgeCount());
+        assertEquals(n, t.valueCount());
+        for (int i = 0; i < n; i++) {
+            assertEquals((byte) (i % 3), t.kind(i));
+            assertEquals(2 * i, t.id(i));
+            assertEquals(i % 100_000 == 0 ? "valve_" + i : null, t.label(i));
+            assertEquals(t.kind(i) == NodeTable.INPUT ? families[i % families.length] : null, t.family(i));
+            assertEquals(i % 5 == 0, t.logForm(i));
+            assertEquals(i, t.childStart(i));
+            assertEquals(3 * i, t.childId(t.childStart(i)));
+            assertEquals(i + 0.25, t.value(t.valueStart(i)));
+            assertEquals(i % 11, t.var(t.varStart(i)));
+            assertEquals(i + 1, t.varEnd(i));
+        }
+    }
+
+    @Test
     void readFromTextShowsTheNodesWritten() throws Exception {
         Random rnd = new Random(15);
         List<Node> nodes = randomNodes(rnd, 2000);
@@ -142,7 +175,7 @@ class NodeTableTest {
         assertEquals(edges, t.edgeCount());
         assertEquals(values, t.valueCount());
         long content = 4 * edges + 8 * values + 4 + 19L * nodes;
-        assertTrue(t.retainedBytes() <= content + 12L * 8 * NodeTable.BLOCK,
+        assertTrue(t.retainedBytes() <= content + 12L * NodeTable.BLOCK_BYTES,
                 "the columns hold " + t.retainedBytes() + " bytes for " + content + " bytes of content");
     }
 }

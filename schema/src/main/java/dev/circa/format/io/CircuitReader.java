@@ -43,7 +43,10 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
 
     @Override
     protected CircuitDocument read(JsonInput in) throws FormatException {
-        return new Pass(in, limits()).run();
+        Pass pass = new Pass(in, limits());
+        try (DeferredNumbers numbers = pass.numbers) {
+            return pass.run();
+        }
     }
 
     /** The state of one read. */
@@ -55,9 +58,12 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         private final DocumentLocations.Recorder locations = new DocumentLocations.Recorder();
         private final NodeLocations.Recorder nodeLocations = new NodeLocations.Recorder();
         private final NodeTable.Builder table = new NodeTable.Builder();
+        /** Decodes the weights on a second thread while the read goes on. */
+        final DeferredNumbers numbers = new DeferredNumbers(table);
         private int nodeCount;
         private final NodeFields fields = new NodeFields();
-        private int[] intBuffer = new int[64];
+        /** The position of the node being read in the nodes array. */
+        private int nodeIndex;
 
         Pass(JsonInput in, ReadLimits limits) {
             this.in = in;
@@ -150,6 +156,7 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                                 f.message() + " (ignored: the document is version " + version + ")", f.location())
                         : f);
             }
+            numbers.finish();
             return b.nodeTable(table.build()).nodeLocations(nodeLocations.build()).locations(locations.build())
                     .findings(findings).build();
         }
@@ -270,30 +277,38 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                 int line = (int) (at >>> 32);
                 int column = (int) at;
                 nodeLocations.add(line, column);
-                readNode(ptr + "/" + index, line, column);
+                nodeIndex = index;
+                readNode(line, column);
                 nodeCount++;
             }
         }
 
-        private void readNode(String p, int line, int col) throws FormatException {
-            in.expect(JsonToken.START_OBJECT, p, "a node object");
+        /** The pointer of the node being read, made only for a message or a finding (not once per node). */
+        String nodePointer() {
+            return "/nodes/" + nodeIndex;
+        }
+
+        private void readNode(int line, int col) throws FormatException {
+            if (in.token() != JsonToken.START_OBJECT) {
+                in.expect(JsonToken.START_OBJECT, nodePointer(), "a node object");
+            }
             NodeFields f = fields;
             f.reset();
             String m;
             while ((m = in.nextProperty()) != null) {
-                // a member's pointer (p + "/" + m) is built only where it is needed, for a message or a finding
+                // a member's pointer is built only where it is needed, for a message or a finding
                 switch (m) {
                     case "id" -> {
-                        f.id = intMember(p, m);
+                        f.id = intMember(m);
                         f.hasId = true;
                     }
-                    case "label" -> f.label = in.readString(p + "/" + m);
+                    case "label" -> f.label = in.readString(nodePointer() + "/" + m);
                     case "input" -> {
                         f.kinds++;
                         String written = in.stringOrNull();
                         f.family = written == null ? null : Family.fromJsonName(written);
                         if (f.family == null) {
-                            String q = p + "/" + m;
+                            String q = nodePointer() + "/" + m;
                             String fam = in.readString(q);
                             throw in.error(q, "unknown input family \"" + fam + "\"; expected one of "
                                     + familyNames());
@@ -302,95 +317,104 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                     case "product" -> {
                         f.kinds++;
                         f.isProduct = true;
-                        readIds(p, m);
+                        readIds(m);
                     }
                     case "sum" -> {
                         f.kinds++;
                         f.isSum = true;
-                        readIds(p, m);
+                        readIds(m);
                     }
                     case "weights" -> {
                         f.weightForms++;
-                        readWeights(p, m);
+                        readWeights(m);
                     }
                     case "logWeights" -> {
                         f.weightForms++;
-                        readWeights(p, m);
+                        readWeights(m);
                         f.logWeights = true;
                     }
-                    case "var" -> f.vars = new int[] {intMember(p, m)};
+                    case "var" -> f.vars = new int[] {intMember(m)};
                     case "vars" -> {
                         f.varsArray = true;
-                        f.vars = in.readIntArray(p + "/" + m, 0, Integer.MAX_VALUE);
+                        f.vars = in.readIntArray(nodePointer() + "/" + m, 0, Integer.MAX_VALUE);
                     }
                     default -> {
-                        String q = p + "/" + m;
                         if (ParamNames.isParameter(m)) {
-                            f.paramLocations.put(m, new int[] {in.line(), in.column()});
-                            f.params.put(m, readParamValue(q));
+                            long at = in.position();
+                            f.paramLocations.put(m, new int[] {(int) (at >>> 32), (int) at});
+                            f.params.put(m, readParamValue(m));
                         } else {
-                            unknown(q, "unknown property \"" + m + "\" in a node");
+                            unknown(nodePointer() + "/" + m, "unknown property \"" + m + "\" in a node");
                             in.skipValue();
                         }
                     }
                 }
             }
-            f.build(p, line, col, this);
+            f.build(line, col, this);
         }
 
-        /** A non-negative int member {@code m} of the node at {@code p}. */
-        private int intMember(String p, String m) throws FormatException {
-            return in.readIntAt(p, m, 0, Integer.MAX_VALUE);
+        /** A non-negative int member {@code m} of the node being read. */
+        private int intMember(String m) throws FormatException {
+            return in.isIntIn(0, Integer.MAX_VALUE) ? in.intValue()
+                    : in.readInt(nodePointer() + "/" + m, 0, Integer.MAX_VALUE);
         }
 
-        /** Appends the child ids of member {@code m} of the node at {@code p} to the table. */
-        private void readIds(String p, String m) throws FormatException {
+        /** Appends the child ids of member {@code m} of the node being read to the table. */
+        private void readIds(String m) throws FormatException {
             if (in.token() != JsonToken.START_ARRAY) {
-                in.expect(JsonToken.START_ARRAY, p + "/" + m, "an array of node ids");
+                in.expect(JsonToken.START_ARRAY, nodePointer() + "/" + m, "an array of node ids");
             }
             int n = 0;
             while (in.nextElement()) {
-                table.appendChild(in.readIntAt(p, m, n, 0, Integer.MAX_VALUE));
+                table.appendChild(in.isIntIn(0, Integer.MAX_VALUE) ? in.intValue()
+                        : in.readInt(nodePointer() + "/" + m + "/" + n, 0, Integer.MAX_VALUE));
                 n++;
             }
         }
 
-        /** Appends the numbers of member {@code m} (weights or log-weights) of the node at {@code p} to the table. */
-        private void readWeights(String p, String m) throws FormatException {
+        /** Appends the numbers of member {@code m} (weights or log-weights) of the node being read to the table. */
+        private void readWeights(String m) throws FormatException {
             if (in.token() != JsonToken.START_ARRAY) {
-                in.readDoubleArray(p + "/" + m);
+                in.readDoubleArray(nodePointer() + "/" + m);
             }
             int n = 0;
             while (in.nextElement()) {
-                double v = in.finiteOrNaN();
-                table.appendValue(Double.isFinite(v) ? v : in.readDouble(p + "/" + m + "/" + n));
+                if (!numbers.offer(in.parser())) {
+                    double v = in.finiteOrNaN();
+                    table.appendValue(Double.isFinite(v) ? v : in.readDouble(nodePointer() + "/" + m + "/" + n));
+                }
                 n++;
             }
         }
 
-        /** A parameter value: a number, an array of numbers or an array of arrays of numbers. */
-        private Object readParamValue(String q) throws FormatException {
+        /**
+         * Parameter {@code m} of the node being read: a number, an array of numbers or an array of arrays
+         * of numbers. Pointers are made only for a message.
+         */
+        private Object readParamValue(String m) throws FormatException {
             if (in.token() == JsonToken.START_ARRAY) {
                 List<Object> rows = new ArrayList<>();
                 double[] flat = new double[8];
                 int n = 0;
                 boolean nested = false;
                 while (in.nextElement()) {
-                    String r = q + "/" + (nested ? rows.size() : n);
+                    int k = nested ? rows.size() : n;
                     if (in.token() == JsonToken.START_ARRAY) {
                         if (n > 0) {
-                            throw in.error(r, "expected a number like the elements before it, found an array");
+                            throw in.error(paramPointer(m, k), "expected a number like the elements before it, found an array");
                         }
                         nested = true;
-                        rows.add(in.readDoubleArray(r));
+                        rows.add(in.readDoubleArray(paramPointer(m, k)));
                     } else {
                         if (nested) {
-                            throw in.error(r, "expected an array like the rows before it, found " + JsonInput.describe(in.token()));
+                            throw in.error(paramPointer(m, k), "expected an array like the rows before it, found "
+                                    + JsonInput.describe(in.token()));
                         }
                         if (n == flat.length) {
                             flat = Arrays.copyOf(flat, n * 2);
                         }
-                        flat[n++] = in.readDouble(r);
+                        double v = in.finiteOrNaN();
+                        flat[n++] = Double.isFinite(v) ? v : in.readDouble(paramPointer(m, k));
                     }
                 }
                 if (nested) {
@@ -398,7 +422,12 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                 }
                 return Arrays.copyOf(flat, n);
             }
-            return in.readDouble(q);
+            double v = in.finiteOrNaN();
+            return Double.isFinite(v) ? v : in.readDouble(nodePointer() + "/" + m);
+        }
+
+        private String paramPointer(String m, int k) {
+            return nodePointer() + "/" + m + "/" + k;
         }
 
         FormatException error(String pointer, int line, int col, String problem) {
@@ -454,58 +483,58 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         }
 
         /** Checks the node read and closes it in the table (its child ids and weights are there already). */
-        void build(String p, int line, int col, Pass pass) throws FormatException {
+        void build(int line, int col, Pass pass) throws FormatException {
             if (!hasId) {
-                throw pass.error(p + "/id", line, col, "a node needs an integer \"id\"");
+                throw pass.error(pass.nodePointer() + "/id", line, col, "a node needs an integer \"id\"");
             }
             if (kinds == 0) {
-                throw pass.error(p, line, col, "node " + id + " has no kind; expected one of \"input\", \"product\" or \"sum\"");
+                throw pass.error(pass.nodePointer(), line, col, "node " + id + " has no kind; expected one of \"input\", \"product\" or \"sum\"");
             }
             if (kinds > 1) {
-                throw pass.error(p, line, col, "node " + id + " has more than one kind; expected exactly one of \"input\", \"product\" or \"sum\"");
+                throw pass.error(pass.nodePointer(), line, col, "node " + id + " has more than one kind; expected exactly one of \"input\", \"product\" or \"sum\"");
             }
             if (isProduct || isSum) {
                 if (vars != null) {
-                    throw pass.error(p, line, col, "node " + id + " is a " + (isSum ? "sum" : "product")
+                    throw pass.error(pass.nodePointer(), line, col, "node " + id + " is a " + (isSum ? "sum" : "product")
                             + " and cannot have \"var\" or \"vars\"");
                 }
                 for (String name : params.keySet()) {
                     int[] at = paramLocations.get(name);
-                    pass.unknownAt(p + "/" + name, at[0], at[1], "unknown property \"" + name + "\" in a "
+                    pass.unknownAt(pass.nodePointer() + "/" + name, at[0], at[1], "unknown property \"" + name + "\" in a "
                             + (isSum ? "sum" : "product") + " node");
                 }
             }
             if (isProduct) {
                 if (weightForms > 0) {
-                    throw pass.error(p, line, col, "product node " + id + " cannot have weights; only sums are weighted");
+                    throw pass.error(pass.nodePointer(), line, col, "product node " + id + " cannot have weights; only sums are weighted");
                 }
                 pass.table.close(NodeTable.PRODUCT, id, label, null, false);
                 return;
             }
             if (isSum) {
                 if (weightForms == 0) {
-                    throw pass.error(p, line, col, "sum node " + id + " needs \"weights\" or \"logWeights\", one per child");
+                    throw pass.error(pass.nodePointer(), line, col, "sum node " + id + " needs \"weights\" or \"logWeights\", one per child");
                 }
                 if (weightForms > 1) {
-                    throw pass.error(p, line, col, "sum node " + id + " has both \"weights\" and \"logWeights\"; expected exactly one");
+                    throw pass.error(pass.nodePointer(), line, col, "sum node " + id + " has both \"weights\" and \"logWeights\"; expected exactly one");
                 }
                 pass.table.close(NodeTable.SUM, id, label, null, logWeights);
                 return;
             }
-            buildInput(p, line, col, pass);
+            buildInput(line, col, pass);
         }
 
-        private void buildInput(String p, int line, int col, Pass pass) throws FormatException {
+        private void buildInput(int line, int col, Pass pass) throws FormatException {
             if (weightForms > 0) {
-                throw pass.error(p, line, col, "input node " + id + " cannot have weights; only sums are weighted");
+                throw pass.error(pass.nodePointer(), line, col, "input node " + id + " cannot have weights; only sums are weighted");
             }
             boolean mv = family == Family.MVNORMAL;
             if (vars == null) {
-                throw pass.error(p, line, col, "input node " + id + " needs " + (mv ? "\"vars\"" : "\"var\"")
+                throw pass.error(pass.nodePointer(), line, col, "input node " + id + " needs " + (mv ? "\"vars\"" : "\"var\"")
                         + " (a variable index" + (mv ? " array" : "") + ")");
             }
             if (mv != varsArray) {
-                throw pass.error(p, line, col, mv ? "mvnormal node " + id + " needs \"vars\" (an array of variable indices), not \"var\""
+                throw pass.error(pass.nodePointer(), line, col, mv ? "mvnormal node " + id + " needs \"vars\" (an array of variable indices), not \"var\""
                         : family.jsonName() + " node " + id + " needs \"var\" (one variable index), not \"vars\"");
             }
             double[] values;
@@ -516,36 +545,36 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                     boolean hasProbs = params.containsKey("probs");
                     boolean hasLog = params.containsKey("logProbs");
                     if (hasProbs == hasLog) {
-                        throw pass.error(p, line, col, "categorical node " + id
+                        throw pass.error(pass.nodePointer(), line, col, "categorical node " + id
                                 + " needs exactly one of \"probs\" or \"logProbs\"");
                     }
                     logForm = hasLog;
-                    values = vector(hasLog ? "logProbs" : "probs", p, line, col, pass);
-                    rejectOthers(p, pass, hasLog ? "logProbs" : "probs");
+                    values = vector(hasLog ? "logProbs" : "probs", line, col, pass);
+                    rejectOthers(pass, hasLog ? "logProbs" : "probs");
                 }
                 case MVNORMAL -> {
-                    double[] mean = vector("mean", p, line, col, pass);
+                    double[] mean = vector("mean", line, col, pass);
                     Object c = params.get("cov");
                     if (!(c instanceof double[][] cov)) {
                         int[] at = paramLocations.getOrDefault("cov", new int[] {line, col});
-                        throw pass.error(p + "/cov", at[0], at[1], "mvnormal node " + id
+                        throw pass.error(pass.nodePointer() + "/cov", at[0], at[1], "mvnormal node " + id
                                 + " needs \"cov\", a d x d array of arrays of numbers");
                     }
                     int d = mean.length;
                     if (vars.length != d || cov.length != d) {
-                        throw pass.error(p, line, col, "mvnormal node " + id + " has " + vars.length + " vars, a mean of length "
+                        throw pass.error(pass.nodePointer(), line, col, "mvnormal node " + id + " has " + vars.length + " vars, a mean of length "
                                 + d + " and " + cov.length + " covariance rows; expected the same number d");
                     }
                     values = new double[d + d * d];
                     System.arraycopy(mean, 0, values, 0, d);
                     for (int i = 0; i < d; i++) {
                         if (cov[i].length != d) {
-                            throw pass.error(p + "/cov/" + i, line, col, "covariance row " + i + " of mvnormal node " + id
+                            throw pass.error(pass.nodePointer() + "/cov/" + i, line, col, "covariance row " + i + " of mvnormal node " + id
                                     + " has " + cov[i].length + " entries; expected " + d);
                         }
                         System.arraycopy(cov[i], 0, values, d + i * d, d);
                     }
-                    rejectOthers(p, pass, "mean", "cov");
+                    rejectOthers(pass, "mean", "cov");
                 }
                 default -> {
                     List<String> names = family.parameters();
@@ -553,16 +582,16 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                     for (int i = 0; i < values.length; i++) {
                         Object v = params.get(names.get(i));
                         if (v == null) {
-                            throw pass.error(p, line, col, fam + " node " + id + " needs \"" + names.get(i) + "\" (a number)");
+                            throw pass.error(pass.nodePointer(), line, col, fam + " node " + id + " needs \"" + names.get(i) + "\" (a number)");
                         }
                         if (!(v instanceof Double d)) {
                             int[] at = paramLocations.get(names.get(i));
-                            throw pass.error(p + "/" + names.get(i), at[0], at[1], "\"" + names.get(i) + "\" of " + fam
+                            throw pass.error(pass.nodePointer() + "/" + names.get(i), at[0], at[1], "\"" + names.get(i) + "\" of " + fam
                                     + " node " + id + " must be a number, found an array");
                         }
                         values[i] = d;
                     }
-                    rejectOthers(p, pass, names.toArray(new String[0]));
+                    rejectOthers(pass, names.toArray(new String[0]));
                 }
             }
             for (int v : vars) {
@@ -574,21 +603,21 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             pass.table.close(NodeTable.INPUT, id, label, family, logForm);
         }
 
-        private double[] vector(String name, String p, int line, int col, Pass pass) throws FormatException {
+        private double[] vector(String name, int line, int col, Pass pass) throws FormatException {
             Object v = params.get(name);
             if (!(v instanceof double[] a)) {
                 int[] at = paramLocations.getOrDefault(name, new int[] {line, col});
-                throw pass.error(p + "/" + name, at[0], at[1], family.jsonName() + " node " + id + " needs \"" + name
+                throw pass.error(pass.nodePointer() + "/" + name, at[0], at[1], family.jsonName() + " node " + id + " needs \"" + name
                         + "\", an array of numbers");
             }
             return a;
         }
 
-        private void rejectOthers(String p, Pass pass, String... allowed) {
+        private void rejectOthers(Pass pass, String... allowed) {
             List<String> ok = List.of(allowed);
             for (Map.Entry<String, int[]> e : paramLocations.entrySet()) {
                 if (!ok.contains(e.getKey())) {
-                    pass.unknownAt(p + "/" + e.getKey(), e.getValue()[0], e.getValue()[1], "unknown property \""
+                    pass.unknownAt(pass.nodePointer() + "/" + e.getKey(), e.getValue()[0], e.getValue()[1], "unknown property \""
                             + e.getKey() + "\" for a " + family.jsonName() + " input");
                 }
             }

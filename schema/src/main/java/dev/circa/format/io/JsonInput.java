@@ -319,6 +319,20 @@ public final class JsonInput implements AutoCloseable {
     }
 
     /**
+     * Whether the current token is an int in [{@code min}, {@code max}] as written; then {@link #intValue()}
+     * is its value, else the caller reads it with {@link #readInt(String, int, int)} for the message (so
+     * that a reader can build a pointer only when it is needed).
+     */
+    public boolean isIntIn(int min, int max) throws FormatException {
+        return intIn(min, max);
+    }
+
+    /** The value of the current token, after {@link #isIntIn(int, int)} said yes. */
+    public int intValue() {
+        return parser.getIntValue();
+    }
+
+    /**
      * As {@link #readInt(String, int, int)} for element {@code index} of the array at {@code base}, with
      * the pointer built only for a message (a large array costs no string per element).
      */

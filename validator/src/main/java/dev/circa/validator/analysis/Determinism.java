@@ -1,7 +1,7 @@
 package dev.circa.validator.analysis;
 
 import dev.circa.engine.internal.IntList;
-import dev.circa.format.InputNode;
+import dev.circa.format.Family;
 import dev.circa.format.NodeTable;
 import dev.circa.format.Variable;
 import dev.circa.format.VariableType;
@@ -44,6 +44,11 @@ public final class Determinism {
     private Box lastMerged;
     private long wordsUsed;
     private int[] stamp;
+    private final NodeTable table;
+    /** The positive children of the sum being decided, in order (reused from sum to sum). */
+    private final IntList kids = new IntList();
+    /** Per-kid supports on one variable (reused by {@link #separated}). */
+    private Support[] per = new Support[16];
 
     /** Where a node can be positive: per variable a support; {@code exact} when it is exactly that box over the node's scope. */
     record Box(int[] vars, Support[] sup, boolean exact) {
@@ -56,17 +61,19 @@ public final class Determinism {
         this.g = g;
         this.s = s;
         this.maxEnumeration = maxEnumeration;
+        this.table = g.document().nodeTable();
         int n = g.size();
         box = new Box[n];
         verdict = new byte[n];
         for (int i = 0; i < n; i++) {
             byte k = g.kind(i);
             if (k == Graph.INPUT) {
-                box[i] = inputBox((InputNode) g.node(i));
+                box[i] = inputBox(i);
             } else if (k == Graph.PRODUCT) {
                 box[i] = productBox(i);
             } else {
-                box[i] = sumBox(i);
+                positiveChildren(i);
+                box[i] = sumBox();
                 verdict[i] = decide(i);
                 if (verdict[i] == UNKNOWN) {
                     unknownSums++;
@@ -117,17 +124,27 @@ public final class Determinism {
         return new Box(new int[] {v}, new Support[] {sp}, true);
     }
 
-    private Box inputBox(InputNode in) {
-        double[] p = in.params();
-        int v = in.vars()[0];
-        switch (in.family()) {
+    /** Input {@code i}'s box, read from the table's columns (no record made). */
+    private Box inputBox(int i) {
+        NodeTable t = table;
+        int at = t.valueStart(i);
+        int n = t.valueEnd(i) - at;
+        double[] p = new double[Math.min(n, 2)];
+        for (int k = 0; k < p.length; k++) {
+            p[k] = t.value(at + k);
+        }
+        int v = t.var(t.varStart(i));
+        Family family = t.family(i);
+        switch (family) {
             case BERNOULLI -> {
                 return single(v, Support.ofStates(new boolean[] {p[0] < 1, p[0] > 0}));
             }
             case CATEGORICAL -> {
-                boolean[] mask = new boolean[p.length];
-                for (int i = 0; i < p.length; i++) {
-                    mask[i] = in.logForm() ? p[i] > Double.NEGATIVE_INFINITY : p[i] > 0;
+                boolean log = t.logForm(i);
+                boolean[] mask = new boolean[n];
+                for (int k = 0; k < n; k++) {
+                    double x = t.value(at + k);
+                    mask[k] = log ? x > Double.NEGATIVE_INFINITY : x > 0;
                 }
                 return single(v, Support.ofStates(mask));
             }
@@ -155,13 +172,16 @@ public final class Determinism {
                 return single(v, Support.interval(lo, hi, true));
             }
             case MVNORMAL -> {
-                int[] vars = in.vars().clone();
+                int[] vars = new int[t.varEnd(i) - t.varStart(i)];
+                for (int k = 0; k < vars.length; k++) {
+                    vars[k] = t.var(t.varStart(i) + k);
+                }
                 Arrays.sort(vars);
                 Support[] sp = new Support[vars.length];
                 Arrays.fill(sp, Support.REAL_LINE);
                 return new Box(vars, sp, true);
             }
-            default -> throw new IllegalStateException(in.family().name());
+            default -> throw new IllegalStateException(family.name());
         }
     }
 
@@ -288,24 +308,36 @@ public final class Determinism {
 
     /** Whether weight {@code j} of sum {@code i} is positive. */
     private boolean positive(int i, int j) {
-        NodeTable t = g.document().nodeTable();
+        NodeTable t = table;
         double w = t.value(t.valueStart(i) + j);
         return t.logForm(i) ? w > Double.NEGATIVE_INFINITY : w > 0;
     }
 
-    private Box sumBox(int i) {
+    /** Fills {@link #kids} with the children of sum {@code i} whose weight is positive, in order. */
+    private void positiveChildren(int i) {
+        NodeTable t = table;
         int a = g.childStart(i);
         int b = g.childEnd(i);
+        int w = t.valueStart(i);
+        boolean log = t.logForm(i);
+        kids.clear();
+        for (int e = a; e < b; e++) {
+            double x = t.value(w + e - a);
+            if (log ? x > Double.NEGATIVE_INFINITY : x > 0) {
+                kids.add(g.child(e));
+            }
+        }
+    }
+
+    /** The box of the sum whose positive children are in {@link #kids}. */
+    private Box sumBox() {
         Box first = null;
         boolean exact = true;
         boolean allSame = true;
         int[] vars = null;
         Support[] sp = null;
-        for (int e = a; e < b; e++) {
-            if (!positive(i, e - a)) {
-                continue;
-            }
-            Box c = box[g.child(e)];
+        for (int q = 0; q < kids.size(); q++) {
+            Box c = box[kids.get(q)];
             if (c == null) {
                 return null;
             }
@@ -321,9 +353,11 @@ public final class Determinism {
             }
             allSame = false;
             exact &= c.exact && Arrays.equals(c.vars, first.vars);
+            // children over the same variables as those kept so far (the common case) need no search
+            boolean aligned = Arrays.equals(c.vars, vars);
             int m = 0;
             for (int k = 0; k < vars.length; k++) {
-                int at = c.find(vars[k]);
+                int at = aligned ? k : c.find(vars[k]);
                 if (at >= 0) {
                     vars[m] = vars[k];
                     sp[m] = sp[k].union(c.sup[at]);
@@ -341,20 +375,15 @@ public final class Determinism {
         if (allSame) {
             return first;
         }
-        return new Box(vars, sp, exact && countDiffering(i) <= 1);
+        return new Box(vars, sp, exact && countDiffering() <= 1);
     }
 
-    /** Number of variables on which the positive children's exact boxes differ. */
-    private int countDiffering(int i) {
-        int a = g.childStart(i);
-        int b = g.childEnd(i);
+    /** Number of variables on which the exact boxes of the positive children in {@link #kids} differ. */
+    private int countDiffering() {
         Box first = null;
         boolean[] diff = null;
-        for (int e = a; e < b; e++) {
-            if (!positive(i, e - a)) {
-                continue;
-            }
-            Box c = box[g.child(e)];
+        for (int q = 0; q < kids.size(); q++) {
+            Box c = box[kids.get(q)];
             if (first == null) {
                 first = c;
                 diff = new boolean[c.vars.length];
@@ -376,15 +405,8 @@ public final class Determinism {
         return d;
     }
 
+    /** The verdict on sum {@code i}, whose positive children are in {@link #kids}. */
     private byte decide(int i) {
-        int a = g.childStart(i);
-        int b = g.childEnd(i);
-        IntList kids = new IntList();
-        for (int e = a; e < b; e++) {
-            if (positive(i, e - a)) {
-                kids.add(g.child(e));
-            }
-        }
         if (kids.size() <= 1) {
             return TRUE;
         }
@@ -408,45 +430,43 @@ public final class Determinism {
                 return false;
             }
         }
+        int n = kids.size();
+        if (per.length < n) {
+            per = new Support[Math.max(n, per.length * 2)];
+        }
         for (int v : b0.vars) {
-            Support[] per = new Support[kids.size()];
             boolean all = true;
-            for (int k = 0; k < kids.size() && all; k++) {
+            // two children with the very same non-empty support object overlap on v: a cheap common case
+            // (shared inputs, whole lines) that settles the variable without looking at the other children
+            boolean shared = false;
+            for (int k = 0; k < n && all && !shared; k++) {
                 Box c = box[kids.get(k)];
                 int at = c.find(v);
                 all = at >= 0;
                 if (all) {
                     per[k] = c.sup[at];
+                    shared = k > 0 && per[k] == per[0] && !per[0].isEmpty();
                 }
             }
-            if (all && !sharesSupport(per) && pairwiseDisjoint(per)) {
+            if (all && !shared && pairwiseDisjoint(per, n)) {
                 return true;
             }
         }
         return false;
     }
 
-    /** Two children with the very same non-empty support object overlap: a cheap common case (shared inputs, whole lines). */
-    private static boolean sharesSupport(Support[] per) {
-        for (int k = 1; k < per.length; k++) {
-            if (per[k] == per[0] && !per[0].isEmpty()) {
-                return true;
-            }
-        }
-        return false;
-    }
-
-    private static boolean pairwiseDisjoint(Support[] per) {
+    /** Whether the first {@code n} supports of {@code per} are pairwise disjoint. */
+    private static boolean pairwiseDisjoint(Support[] per, int n) {
         int total = 0;
-        for (Support x : per) {
-            total += x.intervals();
+        for (int k = 0; k < n; k++) {
+            total += per[k].intervals();
         }
         double[] lo = new double[total];
         double[] hi = new double[total];
         int[] owner = new int[total];
         Integer[] idx = new Integer[total];
         int m = 0;
-        for (int k = 0; k < per.length; k++) {
+        for (int k = 0; k < n; k++) {
             for (int j = 0; j < per[k].intervals(); j++) {
                 lo[m] = per[k].lo(j);
                 hi[m] = per[k].hi(j);

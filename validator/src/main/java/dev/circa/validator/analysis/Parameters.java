@@ -21,10 +21,12 @@ import org.ejml.dense.row.decomposition.chol.CholeskyDecompositionInner_DDRM;
 public final class Parameters {
     private final boolean[] bad;
     private final boolean anyBad;
+    private final double[] weightTotal;
 
     private Parameters(CircuitDocument doc, double tol) {
         NodeTable t = doc.nodeTable();
         bad = new boolean[t.size()];
+        weightTotal = new double[t.size()];
         boolean any = false;
         for (int i = 0; i < t.size(); i++) {
             byte k = t.kind(i);
@@ -49,15 +51,26 @@ public final class Parameters {
         return bad[i];
     }
 
-    private static boolean soundSum(NodeTable t, int i) {
+    /**
+     * The total of sum {@code i}'s weights (of exp(logWeights) in log form), added in their order; NaN
+     * or infinite when one is not finite. 0 for other nodes.
+     */
+    public double weightTotal(int i) {
+        return weightTotal[i];
+    }
+
+    /** Whether sum {@code i}'s weights are all finite (and >= 0 in linear form); records their total on the way. */
+    private boolean soundSum(NodeTable t, int i) {
         boolean log = t.logForm(i);
+        boolean sound = true;
+        double total = 0;
         for (int k = t.valueStart(i); k < t.valueEnd(i); k++) {
             double w = t.value(k);
-            if (!Double.isFinite(w) || !log && w < 0) {
-                return false;
-            }
+            sound &= Double.isFinite(w) && (log || w >= 0);
+            total += log ? Math.exp(w) : w;
         }
-        return true;
+        weightTotal[i] = total;
+        return sound;
     }
 
     private static boolean sound(CircuitDocument doc, InputNode in, double tol) {

@@ -12,7 +12,12 @@ public final class NumberNotFinite extends Rule {
     @Override
     public void check(RuleContext ctx) {
         NodeTable t = ctx.document().nodeTable();
+        Parameters facts = ctx.parameters();
         for (int i = 0; i < t.size(); i++) {
+            if (!facts.bad(i)) {
+                // every number of a node without a defect is finite
+                continue;
+            }
             if (t.kind(i) == NodeTable.INPUT && ctx.input(i) instanceof InputNode in) {
                 int k = Parameters.firstNonFinite(in);
                 if (k >= 0) {

@@ -16,8 +16,10 @@ public final class ParameterOutOfRange extends Rule {
     @Override
     public void check(RuleContext ctx) {
         int count = ctx.document().nodeTable().size();
+        Parameters facts = ctx.parameters();
         for (int i = 0; i < count; i++) {
-            if (ctx.family(i) != null && ctx.family(i) != Family.MVNORMAL && ctx.input(i) instanceof InputNode in && Parameters.firstNonFinite(in) < 0) {
+            // an input without a defect has every parameter in range
+            if (facts.bad(i) && ctx.family(i) != null && ctx.family(i) != Family.MVNORMAL && ctx.input(i) instanceof InputNode in && Parameters.firstNonFinite(in) < 0) {
                 if (in.family() == Family.CATEGORICAL) {
                     negativeProbabilities(ctx, i, in);
                 } else {

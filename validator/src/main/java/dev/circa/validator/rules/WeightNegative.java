@@ -3,6 +3,7 @@ package dev.circa.validator.rules;
 import dev.circa.format.NodeTable;
 import dev.circa.validator.Severity;
 import dev.circa.validator.analysis.Numbers;
+import dev.circa.validator.analysis.Parameters;
 import java.util.Locale;
 
 /** A sum weight is negative. */
@@ -11,8 +12,10 @@ public final class WeightNegative extends Rule {
     @Override
     public void check(RuleContext ctx) {
         NodeTable t = ctx.document().nodeTable();
+        Parameters facts = ctx.parameters();
         for (int i = 0; i < t.size(); i++) {
-            if (t.kind(i) == NodeTable.SUM && !t.logForm(i)) {
+            // a sum without a defect has no negative weight
+            if (t.kind(i) == NodeTable.SUM && !t.logForm(i) && facts.bad(i)) {
                 int a = t.valueStart(i);
                 for (int k = a; k < t.valueEnd(i); k++) {
                     double w = t.value(k);

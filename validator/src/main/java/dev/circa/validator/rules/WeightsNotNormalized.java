@@ -4,6 +4,7 @@ import dev.circa.format.NodeTable;
 import dev.circa.validator.Severity;
 import dev.circa.validator.analysis.Graph;
 import dev.circa.validator.analysis.Numbers;
+import dev.circa.validator.analysis.Parameters;
 import java.util.Locale;
 
 /** A sum's weights do not add to 1. */
@@ -15,15 +16,13 @@ public final class WeightsNotNormalized extends Rule {
         double tol = ctx.options().tolerance();
         Severity sev = null;
         NodeTable t = ctx.document().nodeTable();
+        Parameters facts = ctx.parameters();
         for (int i = 0; i < g.size(); i++) {
             if (t.kind(i) != NodeTable.SUM || t.valueEnd(i) == t.valueStart(i)) {
                 continue;
             }
             boolean log = t.logForm(i);
-            double sum = 0;
-            for (int k = t.valueStart(i); k < t.valueEnd(i); k++) {
-                sum += log ? Math.exp(t.value(k)) : t.value(k);
-            }
+            double sum = facts.weightTotal(i);
             if (Math.abs(sum - 1) <= tol || Double.isNaN(sum)) {
                 continue;
             }
