@@ -68,26 +68,25 @@ public final class ReferenceDensities {
     }
 
     /**
-     * Adds the log-value of one input at each of {@code n} cells, {@code data[from + i * stride]}, to
+     * Adds the log-value of one input at each of {@code n} contiguous cells, {@code data[from + i]}, to
      * {@code dst[at + i]}; a missing cell (NaN) adds nothing. The same numbers as {@link #logValue} cell by
      * cell, with what depends on the parameters only computed once.
      */
-    public static void addLogValues(Family f, double[] p, double[] data, int from, int stride, int n, double[] dst,
-            int at) {
+    public static void addLogValues(Family f, double[] p, double[] data, int from, int n, double[] dst, int at) {
         if (f == Family.NORMAL) {
             double mean = p[0];
             double sd = p[1];
             double logSd = Math.log(sd);
-            for (int i = 0, cell = from; i < n; i++, cell += stride) {
-                double x = data[cell];
+            for (int i = 0; i < n; i++) {
+                double x = data[from + i];
                 if (!Double.isNaN(x)) {
                     dst[at + i] += normal(x, mean, sd, logSd);
                 }
             }
             return;
         }
-        for (int i = 0, cell = from; i < n; i++, cell += stride) {
-            double x = data[cell];
+        for (int i = 0; i < n; i++) {
+            double x = data[from + i];
             if (!Double.isNaN(x)) {
                 dst[at + i] += logValue(f, p, x);
             }

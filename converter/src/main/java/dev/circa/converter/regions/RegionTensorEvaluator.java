@@ -385,7 +385,7 @@ public final class RegionTensorEvaluator {
                     ReferenceDensities.addNormalLogValues(mean, normalSd[q], normalLogSd[q], columns, v * CHUNK_ROWS, n,
                             nanRow, nanStart[v], nanStart[v + 1], kept, dst, at);
                 } else {
-                    ReferenceDensities.addLogValues(family[v], p.inputParams(r, i, j), columns, v * CHUNK_ROWS, 1, n, dst, at);
+                    ReferenceDensities.addLogValues(family[v], p.inputParams(r, i, j), columns, v * CHUNK_ROWS, n, dst, at);
                 }
             }
         }
