@@ -8,7 +8,7 @@ import dev.circa.format.Family;
  * Not for application code.
  */
 public final class ReferenceDensities {
-    private static final double HALF_LOG_2PI = 0.5 * Math.log(2 * Math.PI);
+    private static final double HALF_LOG_2PI = SaddlePoint.HALF_LOG_2PI;
     /** Lanczos coefficients for g = 7, n = 9 (common practice; accurate to about 1e-15 relative). */
     private static final double[] LANCZOS = {
         0.99999999999980993, 676.5203681218851, -1259.1392167224028, 771.32342877765313,
@@ -196,7 +196,7 @@ public final class ReferenceDensities {
             double s = lo + hi;
             double logS = s < Double.POSITIVE_INFINITY ? Math.log(s) : Math.log(0.5 * lo + 0.5 * hi) + Math.log(2);
             return SaddlePoint.stirlingError(lo) + SaddlePoint.stirlingError(hi) - SaddlePoint.stirlingError(s)
-                    + SaddlePoint.HALF_LOG_2PI - lo * Math.log1p(hi / lo) - hi * Math.log1p(lo / hi)
+                    + HALF_LOG_2PI - lo * Math.log1p(hi / lo) - hi * Math.log1p(lo / hi)
                     - 0.5 * (Math.log(lo) + Math.log(hi) - logS);
         }
         // log Gamma(hi) - log Gamma(lo + hi) = stirling(hi) - stirling(lo + hi) - (hi - 1/2) log(1 + lo / hi) - lo log(lo + hi) + lo
