@@ -49,8 +49,6 @@ public final class DenseBlocks {
     public final double[] maxLogWeight;
     public final int[] width;
     public final DMatrixRMaj[] weights;
-    /** {@code weights[b]} transposed (n x K, row-major), for one row at a time. */
-    public final double[][] weightsT;
     public final double[] inputLogSd;
     /**
      * The children of the fused products, flat, with their input slot, variable, and for a normal its mean,
@@ -126,21 +124,10 @@ public final class DenseBlocks {
         this.nodeSlot = nodeSlot;
         this.childSlot = childSlot;
         this.slotCount = slotCount;
-        this.weightsT = new double[weights.length][];
-        for (int b = 0; b < weights.length; b++) {
-            int kk = weights[b].numRows;
-            int nn = weights[b].numCols;
-            double[] t = new double[kk * nn];
-            for (int r = 0; r < kk; r++) {
-                for (int j = 0; j < nn; j++) {
-                    t[j * kk + r] = weights[b].data[r * nn + j];
-                }
-            }
-            weightsT[b] = t;
-        }
         this.fusedBase = new int[action.length];
         this.fusedStride = new int[action.length];
         this.fusedOut = new int[action.length];
+        // products by number of children: first the count, then (once the groups are laid out) the group
         java.util.TreeMap<Integer, Integer> productsByWidth = new java.util.TreeMap<>();
         for (int i = 0; i < action.length; i++) {
             if (action[i] == FUSED) {
@@ -152,18 +139,17 @@ public final class DenseBlocks {
         this.fusedGroupSize = new int[groups];
         this.fusedGroupWidth = new int[groups];
         this.fusedGroupOut = new int[groups];
-        java.util.HashMap<Integer, Integer> groupOfWidth = new java.util.HashMap<>();
         int fusedEdges = 0;
         int products = 0;
+        int next = 0;
         for (var entry : productsByWidth.entrySet()) {
-            int g = groupOfWidth.size();
-            groupOfWidth.put(entry.getKey(), g);
-            fusedGroupStart[g] = fusedEdges;
-            fusedGroupSize[g] = entry.getValue();
-            fusedGroupWidth[g] = entry.getKey();
-            fusedGroupOut[g] = products;
+            fusedGroupStart[next] = fusedEdges;
+            fusedGroupSize[next] = entry.getValue();
+            fusedGroupWidth[next] = entry.getKey();
+            fusedGroupOut[next] = products;
             fusedEdges += entry.getKey() * entry.getValue();
             products += entry.getValue();
+            entry.setValue(next++);
         }
         this.fusedCount = products;
         int[] filled = new int[groups];
@@ -171,11 +157,11 @@ public final class DenseBlocks {
             fusedBase[i] = -1;
             fusedOut[i] = -1;
             if (action[i] == FUSED) {
-                int g = groupOfWidth.get(c.childStart[i + 1] - c.childStart[i]);
-                int q = filled[g]++;
-                fusedBase[i] = fusedGroupStart[g] + q;
-                fusedStride[i] = fusedGroupSize[g];
-                fusedOut[i] = fusedGroupOut[g] + q;
+                int group = productsByWidth.get(c.childStart[i + 1] - c.childStart[i]);
+                int q = filled[group]++;
+                fusedBase[i] = fusedGroupStart[group] + q;
+                fusedStride[i] = fusedGroupSize[group];
+                fusedOut[i] = fusedGroupOut[group] + q;
             }
         }
         this.fusedSlot = new int[fusedEdges];

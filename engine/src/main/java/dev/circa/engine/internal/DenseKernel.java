@@ -15,7 +15,7 @@ import org.ejml.data.DMatrixRMaj;
  * matrix product, sums (K x rows) = weights (K x n) times products (n x rows); then
  * value = log(sum) + largest log-weight of the sum + block maximum. So a row costs one exp per part node
  * and K x n multiply-adds instead of one exp per edge. The matrix product sums every entry over j in
- * order from 0 whatever the number of rows (one row: accumulators in registers, eight sums at a time; several: rows in the
+ * order from 0 whatever the number of rows (one row: accumulators in registers, 4 to 8 sums at a time; several: rows in the
  * innermost loop), so results do not depend on the batch. A {@link DenseBlocks#FUSED} product adds its
  * inputs' log-densities directly (a normal's log sd taken once per circuit, the same formula as
  * {@link Families#logDensity}).
