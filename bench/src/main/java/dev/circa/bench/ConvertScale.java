@@ -19,9 +19,8 @@ import java.util.Map;
 /**
  * The cost of a region-graph conversion's numerical proof at about 10^6 and 10^7 edges: one
  * {@link RegionConverter#convert} as {@code circa convert} runs it (compile, engine compile, verification
- * on 3N + 1 rows, N = 1000 as without {@code --verify}, or N set by {@code -Dcirca.points=N}; validation), wall
- * and CPU time per
- * phase, then the two sides of the verification timed alone on the same rows: the region-by-region
+ * on 3N + 1 rows, N = 1000 as without {@code --verify}, or N set by {@code -Dcirca.points=N}; validation),
+ * wall and CPU time per phase, then the two sides of the verification timed alone on the same rows: the region-by-region
  * evaluation ({@link RegionTensorEvaluator}) and the engine ({@link Evaluator}, one thread), each in edge
  * evaluations per CPU second. CPU time is the process's (every thread, garbage collection and the JIT
  * included), so on a loaded machine wall time overstates and CPU time is the figure to compare. Not a test.
@@ -51,8 +50,8 @@ public final class ConvertScale {
         for (int i = 0; i < args.length; i++) {
             sizes[i] = Long.parseLong(args[i]);
         }
-        System.out.printf(Locale.ROOT, "%d processors; verification points: %s; %d variables, depth %d, K = I = %d%n",
-                Runtime.getRuntime().availableProcessors(), POINTS + " (" + (3 * POINTS + 1) + " rows)", VARS, DEPTH, SUMS);
+        System.out.printf(Locale.ROOT, "%d processors; %d verification points (%d rows); %d variables, depth %d, K = I = %d%n",
+                Runtime.getRuntime().availableProcessors(), POINTS, 3 * POINTS + 1, VARS, DEPTH, SUMS);
         for (long size : sizes) {
             run(size);
         }

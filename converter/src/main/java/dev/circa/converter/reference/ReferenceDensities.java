@@ -8,7 +8,7 @@ import dev.circa.format.Family;
  * Not for application code.
  */
 public final class ReferenceDensities {
-    private static final double HALF_LOG_2PI = 0.5 * Math.log(2 * Math.PI);
+    private static final double HALF_LOG_2PI = SaddlePoint.HALF_LOG_2PI;
     /** Lanczos coefficients for g = 7, n = 9 (common practice; accurate to about 1e-15 relative). */
     private static final double[] LANCZOS = {
         0.99999999999980993, 676.5203681218851, -1259.1392167224028, 771.32342877765313,
@@ -68,26 +68,25 @@ public final class ReferenceDensities {
     }
 
     /**
-     * Adds the log-value of one input at each of {@code n} cells, {@code data[from + i * stride]}, to
+     * Adds the log-value of one input at each of {@code n} contiguous cells, {@code data[from + i]}, to
      * {@code dst[at + i]}; a missing cell (NaN) adds nothing. The same numbers as {@link #logValue} cell by
      * cell, with what depends on the parameters only computed once.
      */
-    public static void addLogValues(Family f, double[] p, double[] data, int from, int stride, int n, double[] dst,
-            int at) {
+    public static void addLogValues(Family f, double[] p, double[] data, int from, int n, double[] dst, int at) {
         if (f == Family.NORMAL) {
             double mean = p[0];
             double sd = p[1];
             double logSd = Math.log(sd);
-            for (int i = 0, cell = from; i < n; i++, cell += stride) {
-                double x = data[cell];
+            for (int i = 0; i < n; i++) {
+                double x = data[from + i];
                 if (!Double.isNaN(x)) {
                     dst[at + i] += normal(x, mean, sd, logSd);
                 }
             }
             return;
         }
-        for (int i = 0, cell = from; i < n; i++, cell += stride) {
-            double x = data[cell];
+        for (int i = 0; i < n; i++) {
+            double x = data[from + i];
             if (!Double.isNaN(x)) {
                 dst[at + i] += logValue(f, p, x);
             }
@@ -197,7 +196,7 @@ public final class ReferenceDensities {
             double s = lo + hi;
             double logS = s < Double.POSITIVE_INFINITY ? Math.log(s) : Math.log(0.5 * lo + 0.5 * hi) + Math.log(2);
             return SaddlePoint.stirlingError(lo) + SaddlePoint.stirlingError(hi) - SaddlePoint.stirlingError(s)
-                    + SaddlePoint.HALF_LOG_2PI - lo * Math.log1p(hi / lo) - hi * Math.log1p(lo / hi)
+                    + HALF_LOG_2PI - lo * Math.log1p(hi / lo) - hi * Math.log1p(lo / hi)
                     - 0.5 * (Math.log(lo) + Math.log(hi) - logS);
         }
         // log Gamma(hi) - log Gamma(lo + hi) = stirling(hi) - stirling(lo + hi) - (hi - 1/2) log(1 + lo / hi) - lo log(lo + hi) + lo

@@ -332,7 +332,7 @@ public final class RegionTensorEvaluator {
     }
 
     /** {@link #logDensity} on rows {@code from .. to-1} of {@code data}, written to the same rows of {@code out}. */
-    public void logDensity(double[] data, int from, int to, double[] out) {
+    private void logDensity(double[] data, int from, int to, double[] out) {
         for (int row0 = from; row0 < to; row0 += CHUNK_ROWS) {
             evaluateBlock(data, row0, Math.min(CHUNK_ROWS, to - row0), out);
         }
@@ -385,7 +385,7 @@ public final class RegionTensorEvaluator {
                     ReferenceDensities.addNormalLogValues(mean, normalSd[q], normalLogSd[q], columns, v * CHUNK_ROWS, n,
                             nanRow, nanStart[v], nanStart[v + 1], kept, dst, at);
                 } else {
-                    ReferenceDensities.addLogValues(family[v], p.inputParams(r, i, j), columns, v * CHUNK_ROWS, 1, n, dst, at);
+                    ReferenceDensities.addLogValues(family[v], p.inputParams(r, i, j), columns, v * CHUNK_ROWS, n, dst, at);
                 }
             }
         }

@@ -73,7 +73,7 @@ class ReferenceDensitiesTest {
         double v = ReferenceDensities.logValue(f, p, x);
         assertFalse(Double.isNaN(v), f + " " + java.util.Arrays.toString(p) + " at " + x + " is NaN");
         double[] one = {0};
-        ReferenceDensities.addLogValues(f, p, new double[] {x}, 0, 1, 1, one, 0);
+        ReferenceDensities.addLogValues(f, p, new double[] {x}, 0, 1, one, 0);
         assertEquals(Double.doubleToLongBits(0 + v), Double.doubleToLongBits(one[0]), f + " column form");
     }
 
@@ -179,7 +179,7 @@ class ReferenceDensitiesTest {
                     want[i] = i * 0.5 - 3;
                     got[i] = want[i];
                 }
-                ReferenceDensities.addLogValues(Family.NORMAL, new double[] {mean, sd}, data, 2, 1, n, want, 1);
+                ReferenceDensities.addLogValues(Family.NORMAL, new double[] {mean, sd}, data, 2, n, want, 1);
                 ReferenceDensities.addNormalLogValues(mean, sd, Math.log(sd), data, 2, n, missing, 3, m, term, got, 1);
                 for (int i = 0; i <= n; i++) {
                     // the general loop is the reference: the same doubles, cell by cell
