@@ -1,7 +1,6 @@
 package dev.circa.validator;
 
 import dev.circa.format.io.FormatException;
-import dev.circa.format.io.JsonInput;
 import dev.circa.format.io.ReadLimits;
 import dev.circa.format.schema.SchemaCatalog;
 import dev.circa.format.schema.SchemaViolation;
@@ -20,7 +19,7 @@ final class BundledSchemaCheck implements SchemaCheck {
     /** A file can be read twice: nodes are checked without a tree, and only a doubtful one is read again as a tree. */
     @Override
     public List<SchemaFinding> check(Path file, ReadLimits limits) throws FormatException {
-        return findings(SchemaCatalog.get().validateCircuit(() -> JsonInput.openJson(file, limits), limits));
+        return findings(SchemaCatalog.get().validateCircuit(file, limits));
     }
 
     private static List<SchemaFinding> findings(List<SchemaViolation> violations) {

@@ -20,8 +20,9 @@ public interface SchemaCheck {
     SchemaCheck NONE = (in, file, limits) -> List.of();
 
     /**
-     * The bundled circuit schema, checked in one streaming pass holding one node at a time (never a
-     * schema the document names).
+     * The bundled circuit schema, checked streaming, holding one node at a time (never a schema the
+     * document names); a file is read a second time only for the nodes the first look cannot vouch for
+     * ({@link SchemaCatalog#validateCircuit(Path, ReadLimits)}).
      */
     SchemaCheck BUNDLED = new BundledSchemaCheck();
 

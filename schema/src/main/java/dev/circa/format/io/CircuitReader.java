@@ -60,10 +60,9 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         private final NodeTable.Builder table = new NodeTable.Builder();
         /** Decodes the weights on a second thread while the read goes on. */
         final DeferredNumbers numbers = new DeferredNumbers(table);
+        /** The nodes read so far: while a node is read, its position in the nodes array. */
         private int nodeCount;
         private final NodeFields fields = new NodeFields();
-        /** The position of the node being read in the nodes array. */
-        private int nodeIndex;
 
         Pass(JsonInput in, ReadLimits limits) {
             this.in = in;
@@ -277,7 +276,6 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                 int line = (int) (at >>> 32);
                 int column = (int) at;
                 nodeLocations.add(line, column);
-                nodeIndex = index;
                 readNode(line, column);
                 nodeCount++;
             }
@@ -285,7 +283,7 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
 
         /** The pointer of the node being read, made only for a message or a finding (not once per node). */
         String nodePointer() {
-            return "/nodes/" + nodeIndex;
+            return "/nodes/" + nodeCount;
         }
 
         private void readNode(int line, int col) throws FormatException {

@@ -302,8 +302,12 @@ public final class JsonInput implements AutoCloseable {
         }
     }
 
-    /** Whether the current token is an int in [{@code min}, {@code max}] as written (no conversion needed). */
-    private boolean intIn(int min, int max) throws FormatException {
+    /**
+     * Whether the current token is an int in [{@code min}, {@code max}] as written; then {@link #intValue()}
+     * is its value, else the caller reads it with {@link #readInt(String, int, int)} for the message (so
+     * that a reader can build a pointer only when it is needed).
+     */
+    public boolean isIntIn(int min, int max) throws FormatException {
         if (token() != JsonToken.VALUE_NUMBER_INT) {
             return false;
         }
@@ -318,36 +322,9 @@ public final class JsonInput implements AutoCloseable {
         }
     }
 
-    /**
-     * Whether the current token is an int in [{@code min}, {@code max}] as written; then {@link #intValue()}
-     * is its value, else the caller reads it with {@link #readInt(String, int, int)} for the message (so
-     * that a reader can build a pointer only when it is needed).
-     */
-    public boolean isIntIn(int min, int max) throws FormatException {
-        return intIn(min, max);
-    }
-
     /** The value of the current token, after {@link #isIntIn(int, int)} said yes. */
     public int intValue() {
         return parser.getIntValue();
-    }
-
-    /**
-     * As {@link #readInt(String, int, int)} for element {@code index} of the array at {@code base}, with
-     * the pointer built only for a message (a large array costs no string per element).
-     */
-    public int readIntAt(String base, int index, int min, int max) throws FormatException {
-        return intIn(min, max) ? parser.getIntValue() : readInt(base + "/" + index, min, max);
-    }
-
-    /** As {@link #readInt(String, int, int)} for member {@code member} of {@code parent}, the pointer built only for a message. */
-    public int readIntAt(String parent, String member, int min, int max) throws FormatException {
-        return intIn(min, max) ? parser.getIntValue() : readInt(parent + "/" + member, min, max);
-    }
-
-    /** As {@link #readIntAt(String, int, int, int)} for element {@code index} of member {@code member} of {@code parent}. */
-    public int readIntAt(String parent, String member, int index, int min, int max) throws FormatException {
-        return intIn(min, max) ? parser.getIntValue() : readInt(parent + "/" + member + "/" + index, min, max);
     }
 
     /** The current token's value when it is a finite number, else NaN (the caller then reads it for the message). */
@@ -380,7 +357,7 @@ public final class JsonInput implements AutoCloseable {
             if (n == buf.length) {
                 buf = Arrays.copyOf(buf, n * 2);
             }
-            double v = isNumber() ? numberValue() : Double.NaN;
+            double v = finiteOrNaN();
             buf[n] = Double.isFinite(v) ? v : readDouble(pointer + "/" + n);
             n++;
         }
@@ -396,7 +373,8 @@ public final class JsonInput implements AutoCloseable {
             if (n == buf.length) {
                 buf = Arrays.copyOf(buf, n * 2);
             }
-            buf[n] = readIntAt(pointer, n, min, max);
+            // the pointer is built only for a message: a large array costs no string per element
+            buf[n] = isIntIn(min, max) ? parser.getIntValue() : readInt(pointer + "/" + n, min, max);
             n++;
         }
         return Arrays.copyOf(buf, n);

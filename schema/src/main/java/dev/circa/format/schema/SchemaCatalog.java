@@ -107,17 +107,13 @@ public final class SchemaCatalog {
         }
         nodeSchema = registry.getSchema(SchemaLocation.of(Kind.CIRCUIT.id() + "#/$defs/node"));
         nodeSchema.initializeValidators();
-        for (dev.circa.format.Family f : dev.circa.format.Family.values()) {
-            nodeKindSchemas.put(f.jsonName(), defOf("input-" + f.jsonName()));
-        }
-        nodeKindSchemas.put("product", defOf("productNode"));
-        nodeKindSchemas.put("sum", defOf("sumNode"));
         Map<String, String> defs = new java.util.HashMap<>();
         for (dev.circa.format.Family f : dev.circa.format.Family.values()) {
             defs.put(f.jsonName(), "input-" + f.jsonName());
         }
         defs.put("product", "productNode");
         defs.put("sum", "sumNode");
+        defs.forEach((kind, def) -> nodeKindSchemas.put(kind, defOf(def)));
         try (InputStream in = open(Kind.CIRCUIT)) {
             nodeShapes = NodeShapeCheck.of(JsonInput.mapperFor(ReadLimits.DEFAULT).readTree(in), defs);
         } catch (java.io.IOException | tools.jackson.core.JacksonException e) {
@@ -282,9 +278,9 @@ public final class SchemaCatalog {
         return out;
     }
 
-    /** Opens a document again from its start (a file, or bytes held in memory). */
+    /** Opens a document again from its start. */
     @FunctionalInterface
-    public interface Reopen {
+    private interface Reopen {
         JsonInput open() throws FormatException;
     }
 
@@ -305,7 +301,7 @@ public final class SchemaCatalog {
     }
 
     /** As {@link #validateCircuit(Path, ReadLimits)}, reading the document through {@code reopen} (once, or twice when a node needs a tree). */
-    public List<SchemaViolation> validateCircuit(Reopen reopen, ReadLimits limits) throws FormatException {
+    private List<SchemaViolation> validateCircuit(Reopen reopen, ReadLimits limits) throws FormatException {
         try (JsonInput json = reopen.open()) {
             return validateCircuit(json, limits, reopen);
         }

@@ -13,8 +13,10 @@ public final class ProbabilitiesNotNormalized extends Rule {
     @Override
     public void check(RuleContext ctx) {
         int count = ctx.document().nodeTable().size();
+        Parameters facts = ctx.parameters();
         for (int i = 0; i < count; i++) {
-            if (ctx.family(i) == Family.CATEGORICAL && ctx.input(i) instanceof InputNode in
+            // an input without a defect passes (the facts judged every input once, with the same tolerance)
+            if (facts.bad(i) && ctx.family(i) == Family.CATEGORICAL && ctx.input(i) instanceof InputNode in
                     && Parameters.firstNonFinite(in) < 0 && Parameters.firstNegativeProbability(in, 0) < 0) {
                 double tol = ctx.options().tolerance();
                 double sum = Parameters.probabilityMass(in);
