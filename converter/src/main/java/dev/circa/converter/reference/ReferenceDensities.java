@@ -68,49 +68,49 @@ public final class ReferenceDensities {
     }
 
     /**
-     * Adds the log-value of one input at each of {@code n} contiguous cells, {@code data[from + i]}, to
-     * {@code dst[at + i]}; a missing cell (NaN) adds nothing. The same numbers as {@link #logValue} cell by
-     * cell, with what depends on the parameters only computed once.
+     * Adds the log-value of one input at each of the first {@code n} cells of {@code x} to the same entry of
+     * {@code dst}; a missing cell (NaN) adds nothing. The same numbers as {@link #logValue} cell by cell, with
+     * what depends on the parameters only computed once.
      */
-    public static void addLogValues(Family f, double[] p, double[] data, int from, int n, double[] dst, int at) {
+    public static void addLogValues(Family f, double[] p, double[] x, int n, double[] dst) {
         if (f == Family.NORMAL) {
             double mean = p[0];
             double sd = p[1];
             double logSd = Math.log(sd);
             for (int i = 0; i < n; i++) {
-                double x = data[from + i];
-                if (!Double.isNaN(x)) {
-                    dst[at + i] += normal(x, mean, sd, logSd);
+                if (!Double.isNaN(x[i])) {
+                    dst[i] += normal(x[i], mean, sd, logSd);
                 }
             }
             return;
         }
         for (int i = 0; i < n; i++) {
-            double x = data[from + i];
-            if (!Double.isNaN(x)) {
-                dst[at + i] += logValue(f, p, x);
+            if (!Double.isNaN(x[i])) {
+                dst[i] += logValue(f, p, x[i]);
             }
         }
     }
 
     /**
-     * {@link #addLogValues} of a normal input at {@code n} contiguous cells {@code data[from + i]}, for
-     * {@link #plain} cells and mean (where x - mean cannot overflow while x is finite), the missing cells listed
-     * in {@code missing[m0 .. m1-1]} (as offsets i): the same numbers, in a loop the JIT vectorises (the
-     * formula added at every cell, a missing one's {@code dst} kept in {@code kept} before and put back
-     * after) instead of a branch per cell. {@code logSd} is {@code Math.log(sd)}, taken once by the caller.
+     * {@link #addLogValues} of a normal input at the first {@code n} cells of {@code x}, for {@link #plain}
+     * cells and mean (where x - mean cannot overflow while x is finite), the missing cells listed in
+     * {@code missing[m0 .. m1-1]}: the same numbers, in loops the JIT turns into vector instructions (the
+     * formula at every cell into {@code term}, 0 put at the missing ones, then {@code term} added to
+     * {@code dst}) instead of a branch per cell. Every array is read from its start: a loop over
+     * {@code x[from + i]} and {@code dst[at + i]} stayed scalar, several times slower. {@code logSd} is
+     * {@code Math.log(sd)}, taken once by the caller; {@code term} holds at least n doubles.
      */
-    public static void addNormalLogValues(double mean, double sd, double logSd, double[] data, int from, int n,
-            int[] missing, int m0, int m1, double[] kept, double[] dst, int at) {
+    public static void addNormalLogValues(double mean, double sd, double logSd, double[] x, int n, int[] missing,
+            int m0, int m1, double[] term, double[] dst) {
+        for (int i = 0; i < n; i++) {
+            double z = (x[i] - mean) / sd;
+            term[i] = -0.5 * z * z - logSd - HALF_LOG_2PI;
+        }
         for (int k = m0; k < m1; k++) {
-            kept[k - m0] = dst[at + missing[k]];
+            term[missing[k]] = 0;
         }
         for (int i = 0; i < n; i++) {
-            double z = (data[from + i] - mean) / sd;
-            dst[at + i] += -0.5 * z * z - logSd - HALF_LOG_2PI;
-        }
-        for (int k = m0; k < m1; k++) {
-            dst[at + missing[k]] = kept[k - m0];
+            dst[i] += term[i];
         }
     }
 

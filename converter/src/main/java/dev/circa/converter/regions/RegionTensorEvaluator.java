@@ -74,19 +74,21 @@ public final class RegionTensorEvaluator {
     private final double[] dot;
     private final double[] column;
     /**
-     * Every variable at the block's rows, {@code [v * CHUNK_ROWS + row]}: the block's data turned column by column
+     * Every variable at the block's rows, {@code [v][row]}: the block's data turned column by column
      * once, then read by every leaf (each variable is in one leaf per repetition of the region graph; turning
      * each leaf's columns by itself cost a branch per cell and leaf, a third of the direct evaluation's time on
      * the 9 * 10^6-edge circuit with K = I = 4). Allocated on first use.
      */
-    private double[] columns = new double[0];
+    private double[][] columns = new double[0][];
     /** Per variable: its missing rows in the block are {@code nanRow[nanStart[v] .. nanStart[v+1]-1]}. */
     private final int[] nanStart;
     private int[] nanRow = new int[0];
     /** Per variable: whether every observed cell of the block is {@link ReferenceDensities#plain}. */
     private final boolean[] plain;
-    /** A normal input's missing rows' values before it was added. */
-    private final double[] kept = new double[CHUNK_ROWS];
+    /** One bundle's sum of its inputs' log-values so far, at the block's rows. */
+    private final double[] bundle = new double[CHUNK_ROWS];
+    /** One normal input's log-values at the block's rows, before they are added to {@link #bundle}. */
+    private final double[] term = new double[CHUNK_ROWS];
     private int[] digit = new int[2];
 
     /** An evaluator of the model that {@code params} define. */
@@ -376,18 +378,18 @@ public final class RegionTensorEvaluator {
         int[] vars = s.vars(r);
         int bundles = p.options().inputs();
         for (int i = 0, q = leafBase[r]; i < bundles; i++) {
-            int at = i * CHUNK_ROWS;
-            Arrays.fill(dst, at, at + n, 0);
+            Arrays.fill(bundle, 0, n, 0);
             for (int j = 0; j < vars.length; j++, q++) {
                 int v = vars[j];
                 double mean = normalMean[q];
                 if (plain[v] && mean == mean) {
-                    ReferenceDensities.addNormalLogValues(mean, normalSd[q], normalLogSd[q], columns, v * CHUNK_ROWS, n,
-                            nanRow, nanStart[v], nanStart[v + 1], kept, dst, at);
+                    ReferenceDensities.addNormalLogValues(mean, normalSd[q], normalLogSd[q], columns[v], n,
+                            nanRow, nanStart[v], nanStart[v + 1], term, bundle);
                 } else {
-                    ReferenceDensities.addLogValues(family[v], p.inputParams(r, i, j), columns, v * CHUNK_ROWS, n, dst, at);
+                    ReferenceDensities.addLogValues(family[v], p.inputParams(r, i, j), columns[v], n, bundle);
                 }
             }
+            System.arraycopy(bundle, 0, dst, i * CHUNK_ROWS, n);
         }
     }
 
@@ -395,20 +397,21 @@ public final class RegionTensorEvaluator {
     private void columns(double[] data, int row0, int n) {
         int nv = family.length;
         if (columns.length == 0) {
-            columns = new double[Math.multiplyExact(nv, CHUNK_ROWS)];
-            nanRow = new int[columns.length];
+            columns = new double[nv][CHUNK_ROWS];
+            nanRow = new int[Math.multiplyExact(nv, CHUNK_ROWS)];
         }
         for (int row = 0; row < n; row++) {
             for (int v = 0, cell = (row0 + row) * nv; v < nv; v++) {
-                columns[v * CHUNK_ROWS + row] = data[cell + v];
+                columns[v][row] = data[cell + v];
             }
         }
         int missing = 0;
         for (int v = 0; v < nv; v++) {
             nanStart[v] = missing;
             boolean ok = true;
-            for (int row = 0, at = v * CHUNK_ROWS; row < n; row++) {
-                double x = columns[at + row];
+            double[] col = columns[v];
+            for (int row = 0; row < n; row++) {
+                double x = col[row];
                 if (Double.isNaN(x)) {
                     nanRow[missing++] = row;
                 } else {

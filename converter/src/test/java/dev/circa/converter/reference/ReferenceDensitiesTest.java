@@ -73,7 +73,7 @@ class ReferenceDensitiesTest {
         double v = ReferenceDensities.logValue(f, p, x);
         assertFalse(Double.isNaN(v), f + " " + java.util.Arrays.toString(p) + " at " + x + " is NaN");
         double[] one = {0};
-        ReferenceDensities.addLogValues(f, p, new double[] {x}, 0, 1, one, 0);
+        ReferenceDensities.addLogValues(f, p, new double[] {x}, 1, one);
         assertEquals(Double.doubleToLongBits(0 + v), Double.doubleToLongBits(one[0]), f + " column form");
     }
 
@@ -165,8 +165,6 @@ class ReferenceDensitiesTest {
                 missing[m++] = i;
             }
         }
-        double[] data = new double[n + 2];
-        System.arraycopy(cells, 0, data, 2, n);
         double[] means = {0, 1.5, -2, 1e-300, 1e5, -4e306, 9e306};
         double[] sds = {1e-300, 1e-150, 0.01, 1, 7.5, 1e150, 1e300, MAX};
         double[] term = new double[n];
@@ -176,11 +174,11 @@ class ReferenceDensitiesTest {
                 double[] want = new double[n + 1];
                 double[] got = new double[n + 1];
                 for (int i = 0; i <= n; i++) {
-                    want[i] = i * 0.5 - 3;
+                    want[i] = i * 0.5 - 2.5;
                     got[i] = want[i];
                 }
-                ReferenceDensities.addLogValues(Family.NORMAL, new double[] {mean, sd}, data, 2, n, want, 1);
-                ReferenceDensities.addNormalLogValues(mean, sd, Math.log(sd), data, 2, n, missing, 3, m, term, got, 1);
+                ReferenceDensities.addLogValues(Family.NORMAL, new double[] {mean, sd}, cells, n, want);
+                ReferenceDensities.addNormalLogValues(mean, sd, Math.log(sd), cells, n, missing, 3, m, term, got);
                 for (int i = 0; i <= n; i++) {
                     // the general loop is the reference: the same doubles, cell by cell
                     assertEquals(Double.doubleToRawLongBits(want[i]), Double.doubleToRawLongBits(got[i]),
@@ -190,7 +188,7 @@ class ReferenceDensitiesTest {
                     double x = cells[i];
                     if (Double.isFinite(x) && Double.isFinite(mean) && Math.abs(x - mean) < 1e6 * sd) {
                         // commons-math3 3.6.1 NormalDistribution.logDensity, from the observed cell's value
-                        close(new NormalDistribution(null, mean, sd).logDensity(x), got[i + 1] - (i + 1) * 0.5 + 3,
+                        close(new NormalDistribution(null, mean, sd).logDensity(x), got[i] - i * 0.5 + 2.5,
                                 "normal(" + mean + ", " + sd + ") at " + x);
                     }
                 }
