@@ -3,7 +3,6 @@ package dev.circa.engine.internal;
 import dev.circa.engine.family.Families;
 import dev.circa.engine.family.MvNormalWorkspace;
 import dev.circa.engine.family.SpecialFunctions;
-import org.ejml.data.DMatrixRMaj;
 
 /**
  * One upward sum-product pass like {@link ForwardKernel#run} (same layout, same results to rounding), with
@@ -64,7 +63,7 @@ public final class DenseKernel {
                 if (rows == 1) {
                     blockRow(c, blocks, blocks.blockAt[i], value, ws);
                 } else {
-                    block(c, blocks, blocks.blockAt[i], rows, value, ws);
+                    ws.chunk.block(c, blocks, blocks.blockAt[i], rows, value);
                 }
             }
         }
@@ -260,7 +259,7 @@ public final class DenseKernel {
     }
 
     /**
-     * {@link #block} at one row, with the same values bit for bit: the same part maxima, exponentials,
+     * {@link ChunkBlocks#block} at one row, with the same values bit for bit: the same part maxima, exponentials,
      * products and matrix product, without the loops over rows; a row that goes the exact way skips the
      * linear work, and a part's exponentials go straight into the product list when it is the first part.
      */
@@ -301,7 +300,7 @@ public final class DenseKernel {
             }
             return;
         }
-        final double[] pt = ws.products.data;
+        final double[] pt = ws.products;
         final double[] e = ws.partExp;
         final boolean single = seg1 - seg0 == 1;
         for (int s = seg0; s < seg1; s++) {
@@ -327,7 +326,7 @@ public final class DenseKernel {
                         pt[out + j] = t * pt[out + j];
                     }
                 } else {
-                    expand(pt, out, cur, size, e, 1, null);
+                    expand(pt, out, cur, size, e);
                 }
                 cur *= size;
             }
@@ -335,8 +334,8 @@ public final class DenseKernel {
                 pt[out] = t;
             }
         }
-        final double[] ct = ws.sums.data;
-        multiply(d, b, pt, d.width[b], 1, ct);
+        final double[] ct = ws.sums;
+        multiply(d, b, pt, d.width[b], ct);
         for (int k = k0; k < k1; k++) {
             double lw = d.maxLogWeight[k];
             double sum = ct[k - k0];
@@ -352,187 +351,36 @@ public final class DenseKernel {
         }
     }
 
-    private static void block(CircuitData c, DenseBlocks d, int b, int rows, double[] value, DenseWorkspace ws) {
-        final int n = d.width[b];
-        final int seg0 = d.segStart[b];
-        final int seg1 = d.segStart[b + 1];
-        final int part0 = d.partStart[seg0];
-        final double[] partMax = ws.partMax;
-        final double[] segMax = ws.segMax;
-        final double[] blockMax = ws.blockMax;
-        final double[] check = ws.check;
-        final double neg = Double.NEGATIVE_INFINITY;
-        for (int r = 0; r < rows; r++) {
-            blockMax[r] = neg;
-            check[r] = 0;
-        }
-        for (int s = seg0; s < seg1; s++) {
-            int sm = (s - seg0) * rows;
-            for (int r = 0; r < rows; r++) {
-                segMax[sm + r] = 0;
-            }
-            for (int p = d.partStart[s]; p < d.partStart[s + 1]; p++) {
-                int pm = (p - part0) * rows;
-                int g0 = d.groupStart[p];
-                int g1 = d.groupStart[p + 1];
-                int vb = d.groupSlot[g0] * rows;
-                System.arraycopy(value, vb, partMax, pm, rows);
-                for (int g = g0 + 1; g < g1; g++) {
-                    vb = d.groupSlot[g] * rows;
-                    for (int r = 0; r < rows; r++) {
-                        double v = value[vb + r];
-                        if (v > partMax[pm + r]) {
-                            partMax[pm + r] = v;
-                        }
-                    }
-                }
-                for (int r = 0; r < rows; r++) {
-                    segMax[sm + r] += partMax[pm + r];
-                }
-            }
-            for (int r = 0; r < rows; r++) {
-                double m = segMax[sm + r];
-                if (m > blockMax[r]) {
-                    blockMax[r] = m;
-                }
-                if (m != m || m == Double.POSITIVE_INFINITY) {
-                    check[r] = 1;
-                }
-            }
-        }
-        final DMatrixRMaj products = ws.products;
-        products.reshape(n, rows, false);
-        final double[] pt = products.data;
-        final boolean single = seg1 - seg0 == 1;
-        for (int s = seg0; s < seg1; s++) {
-            int sm = (s - seg0) * rows;
-            int out = d.segOffset[s] * rows;
-            if (single) {
-                for (int r = 0; r < rows; r++) {
-                    pt[out + r] = 1;
-                }
-            } else {
-                for (int r = 0; r < rows; r++) {
-                    double m = segMax[sm + r];
-                    pt[out + r] = m == neg || !(m < Double.POSITIVE_INFINITY) ? 0 : Math.exp(m - blockMax[r]);
-                }
-            }
-            int cur = 1;
-            for (int p = d.partStart[s]; p < d.partStart[s + 1]; p++) {
-                int g0 = d.groupStart[p];
-                int size = d.groupStart[p + 1] - g0;
-                if (size == 1) {
-                    continue;
-                }
-                int pm = (p - part0) * rows;
-                double[] e = ws.partExp;
-                for (int j = 0; j < size; j++) {
-                    int vb = d.groupSlot[g0 + j] * rows;
-                    int eb = j * rows;
-                    for (int r = 0; r < rows; r++) {
-                        double v = value[vb + r];
-                        e[eb + r] = v == neg ? 0 : Math.exp(v - partMax[pm + r]);
-                    }
-                }
-                expand(pt, out, cur, size, e, rows, ws.row);
-                cur *= size;
-            }
-        }
-        final double[] ct = ws.sums.data;
-        multiply(d, b, pt, n, rows, ct);
-        final int k0 = d.sumStart[b];
-        final int k1 = d.sumStart[b + 1];
-        for (int k = k0; k < k1; k++) {
-            int node = d.sumNode[k];
-            int base = d.sumSlot[k] * rows;
-            int cb = (k - k0) * rows;
-            double lw = d.maxLogWeight[k];
-            for (int r = 0; r < rows; r++) {
-                double m = blockMax[r];
-                double sum = ct[cb + r];
-                if (check[r] != 0) {
-                    value[base + r] = exact(c, d.childSlot, node, rows, r, value);
-                } else if (m == neg || lw == neg) {
-                    value[base + r] = neg;
-                } else if (sum >= TINY) {
-                    value[base + r] = Math.log(sum) + (lw + m);
-                } else {
-                    value[base + r] = exact(c, d.childSlot, node, rows, r, value);
-                }
-            }
-        }
-    }
-
     /**
-     * sums (K x rows) = weights (K x n) times products (n x rows). Every entry is the sum over j = 0..n-1,
-     * in that order from 0, of weight(k, j) x product(j, r), whatever the number of rows, so a row's
+     * One row: sums (K) = weights (K x n) times products (n). Every entry is the sum over j = 0..n-1, in that
+     * order from 0, of weight(k, j) x product(j), as {@link ChunkBlocks} sums each row of a chunk, so a row's
      * result does not depend on the rows evaluated with it (bit for bit).
      */
-    static void multiply(DenseBlocks d, int b, double[] pt, int n, int rows, double[] ct) {
+    static void multiply(DenseBlocks d, int b, double[] pt, int n, double[] ct) {
         final int kk = d.sumStart[b + 1] - d.sumStart[b];
         final double[] w = d.weights[b].data;
-        if (rows == 1) {
-            int k = 0;
-            while (k < kk) {
-                int left = kk - k;
-                if (left >= 12 || left == 8) {
-                    oneRow8(w, k * n, n, pt, ct, k);
-                    k += 8;
-                } else if (left >= 5) {
-                    oneRow5(w, k * n, n, pt, ct, k);
-                    k += 5;
-                } else if (left == 4) {
-                    oneRow4(w, k * n, n, pt, ct, k);
-                    k += 4;
-                } else if (left >= 2) {
-                    oneRow2(w, k * n, n, pt, ct, k);
-                    k += 2;
-                } else {
-                    double a0 = 0;
-                    for (int j = 0, w0 = k * n; j < n; j++) {
-                        a0 += w[w0 + j] * pt[j];
-                    }
-                    ct[k] = a0;
-                    k++;
-                }
-            }
-            return;
-        }
         int k = 0;
-        for (; k + 4 <= kk; k += 4) {
-            final int c0 = k * rows;
-            final int c1 = c0 + rows;
-            final int c2 = c1 + rows;
-            final int c3 = c2 + rows;
-            for (int r = 0; r < 4 * rows; r++) {
-                ct[c0 + r] = 0;
-            }
-            for (int j = 0; j < n; j++) {
-                double w0 = w[k * n + j];
-                double w1 = w[(k + 1) * n + j];
-                double w2 = w[(k + 2) * n + j];
-                double w3 = w[(k + 3) * n + j];
-                int pb = j * rows;
-                for (int r = 0; r < rows; r++) {
-                    double pv = pt[pb + r];
-                    ct[c0 + r] += w0 * pv;
-                    ct[c1 + r] += w1 * pv;
-                    ct[c2 + r] += w2 * pv;
-                    ct[c3 + r] += w3 * pv;
+        while (k < kk) {
+            int left = kk - k;
+            if (left >= 12 || left == 8) {
+                oneRow8(w, k * n, n, pt, ct, k);
+                k += 8;
+            } else if (left >= 5) {
+                oneRow5(w, k * n, n, pt, ct, k);
+                k += 5;
+            } else if (left == 4) {
+                oneRow4(w, k * n, n, pt, ct, k);
+                k += 4;
+            } else if (left >= 2) {
+                oneRow2(w, k * n, n, pt, ct, k);
+                k += 2;
+            } else {
+                double a0 = 0;
+                for (int j = 0, w0 = k * n; j < n; j++) {
+                    a0 += w[w0 + j] * pt[j];
                 }
-            }
-        }
-        for (; k < kk; k++) {
-            final int c0 = k * rows;
-            for (int r = 0; r < rows; r++) {
-                ct[c0 + r] = 0;
-            }
-            for (int j = 0; j < n; j++) {
-                double w0 = w[k * n + j];
-                int pb = j * rows;
-                for (int r = 0; r < rows; r++) {
-                    ct[c0 + r] += w0 * pt[pb + r];
-                }
+                ct[k] = a0;
+                k++;
             }
         }
     }
@@ -625,30 +473,16 @@ public final class DenseKernel {
     }
 
     /**
-     * Replaces the first {@code cur} product rows at {@code out} by their products with each of the
-     * {@code size} rows of {@code e}: row i * size + j = row i times e_j (the new part varies fastest).
-     * Works backwards so no row is overwritten before it is read.
+     * One row: replaces the first {@code cur} products at {@code out} by their products with each of the
+     * {@code size} exponentials of {@code e}: product i * size + j = product i times e_j (the new part varies
+     * fastest). Works backwards so no product is overwritten before it is read.
      */
-    private static void expand(double[] pt, int out, int cur, int size, double[] e, int rows, double[] tmp) {
-        if (rows == 1) {
-            for (int i = cur - 1; i >= 0; i--) {
-                double t = pt[out + i];
-                int dst = out + i * size;
-                for (int j = 0; j < size; j++) {
-                    pt[dst + j] = t * e[j];
-                }
-            }
-            return;
-        }
+    private static void expand(double[] pt, int out, int cur, int size, double[] e) {
         for (int i = cur - 1; i >= 0; i--) {
-            System.arraycopy(pt, out + i * rows, tmp, 0, rows);
-            int dst = out + i * size * rows;
+            double t = pt[out + i];
+            int dst = out + i * size;
             for (int j = 0; j < size; j++) {
-                int eb = j * rows;
-                int db = dst + j * rows;
-                for (int r = 0; r < rows; r++) {
-                    pt[db + r] = tmp[r] * e[eb + r];
-                }
+                pt[dst + j] = t * e[j];
             }
         }
     }
@@ -657,7 +491,7 @@ public final class DenseKernel {
      * Sum {@code node} at row r exactly as the generic kernel computes it, each product child's value taken
      * as the sum of its children's, in child order.
      */
-    private static double exact(CircuitData c, int[] slot, int node, int rows, int r, double[] value) {
+    static double exact(CircuitData c, int[] slot, int node, int rows, int r, double[] value) {
         final int[] cs = c.childStart;
         final int[] ci = c.childIndex;
         final int s = cs[node];
