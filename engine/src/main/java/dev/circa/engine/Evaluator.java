@@ -23,7 +23,7 @@ import java.util.Arrays;
  * so large that the workspace would pass {@value #VALUE_BUDGET} doubles, so memory stays bounded for any
  * batch size. On the automatic path with dense blocks, a node's values are kept only while a later node
  * reads them, so the workspace is {@code slots x chunk} doubles for far fewer slots than nodes, and chunks
- * of up to {@code DENSE_CHUNK_ROWS} rows (longer matrix products: on the 10^6-edge circuit of bench/run at
+ * of up to {@value #DENSE_CHUNK_ROWS} rows (longer matrix products: on the 10^6-edge circuit of bench/run at
  * batch 1024, 8.3e8 edge evaluations per second against 7.4e8 with chunks of 64).
  * No call allocates inside its evaluation loop.
  *
@@ -43,7 +43,7 @@ public final class Evaluator {
     /** Largest number of rows evaluated together. */
     public static final int MAX_CHUNK_ROWS = 64;
     /** Largest number of rows evaluated together on the automatic path when the circuit has dense blocks. */
-    public static final int DENSE_CHUNK_ROWS = Integer.getInteger("circa.chunk", 256);
+    public static final int DENSE_CHUNK_ROWS = 256;
     /** Largest number of doubles in the value workspace (64 MiB), unless one row alone needs more. */
     public static final int VALUE_BUDGET = 1 << 23;
 

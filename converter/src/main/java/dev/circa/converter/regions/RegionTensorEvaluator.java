@@ -11,7 +11,7 @@ import java.util.Arrays;
  *
  * <p>Rows are taken in blocks of {@value #CHUNK_ROWS}. Each region holds a block of log-values (in a slot
  * reused once the regions that read it are done, so memory stays small for any number of regions) laid out
- * node by node, the block's rows side by side ({@code [node * CHUNK_ROWS + row]}), filled children first:
+ * node by node, a row array per node ({@code [node][row]}), filled children first:
  * a leaf's bundles are sums of its inputs' log-densities (a missing value counts 0); a partition's
  * products are sums of its parts' log-values over the cross product (first part varying slowest); a sum
  * is the log-sum-exp of weight plus child, computed for all rows of the block at once as a scaled
@@ -34,8 +34,6 @@ public final class RegionTensorEvaluator {
     public static final int CHUNK_ROWS = 256;
     /** Below this a scaled sum has lost too many digits: the row takes the exact per-edge log-sum-exp. */
     private static final double SCALED_FLOOR = 0x1p-900;
-    /** Sums and rows of one register tile of the scaled product. */
-    private static final int TILE = 4;
 
     private final RegionParameters p;
     private final RegionStructure s;
@@ -44,8 +42,8 @@ public final class RegionTensorEvaluator {
     /** The family of each variable. */
     private final Family[] family;
     /**
-     * Per region with sums: weight / largest weight of its sum, child by child ({@code [j * padded(k) + q]}, the
-     * sums padded with zero weights to a multiple of {@value #TILE}); null elsewhere.
+     * Per region with sums: weight / largest weight of its sum, sum by sum ({@code [q * children + j]}); null
+     * elsewhere.
      */
     private final double[][] scaled;
     /** Per region with sums: log of the largest weight of each sum (NaN when a weight is not usable as scaled). */
@@ -65,13 +63,15 @@ public final class RegionTensorEvaluator {
     private final int[] slot;
     /** Per slot: the number of nodes of the regions it serves. */
     private final int[] slotSize;
-    /** Per slot: a block of {@code slotSize x CHUNK_ROWS} log-values, allocated on first use. */
-    private final double[][] block;
-    private final double[] child;
-    private final double[] expChild;
+    /** Per slot: a block of log-values, {@code [node][row]}, allocated on first use. */
+    private final double[][][] block;
+    /** The children of the region's sums, {@code [child][row]}. */
+    private final double[][] child;
+    /** Each child's e^(v - vmax), {@code [child][row]}. */
+    private final double[][] expChild;
     private final double[] vmax;
-    /** Scaled sums of the block: {@code [q * CHUNK_ROWS + row]}. */
-    private final double[] dot;
+    /** Scaled sums of the block: {@code [q][row]}. */
+    private final double[][] dot;
     private final double[] column;
     /**
      * Every variable at the block's rows, {@code [v][row]}: the block's data turned column by column
@@ -141,15 +141,15 @@ public final class RegionTensorEvaluator {
         }
         this.slot = new int[nr];
         this.slotSize = assignSlots(s, layout, slot);
-        this.block = new double[slotSize.length][];
-        this.child = new double[maxChildren * CHUNK_ROWS];
-        this.expChild = new double[maxChildren * CHUNK_ROWS];
+        this.block = new double[slotSize.length][][];
+        this.child = new double[maxChildren][CHUNK_ROWS];
+        this.expChild = new double[maxChildren][CHUNK_ROWS];
         this.vmax = new double[CHUNK_ROWS];
-        int maxSums = TILE;
+        int maxSums = 1;
         for (int r = 0; r < nr; r++) {
-            maxSums = Math.max(maxSums, padded(layout.sums(r)));
+            maxSums = Math.max(maxSums, layout.sums(r));
         }
-        this.dot = new double[maxSums * CHUNK_ROWS];
+        this.dot = new double[maxSums][CHUNK_ROWS];
         this.column = new double[maxChildren];
         this.nanStart = new int[family.length + 1];
         this.plain = new boolean[family.length];
@@ -169,11 +169,11 @@ public final class RegionTensorEvaluator {
         this.normalLogSd = shared.normalLogSd;
         this.slot = shared.slot;
         this.slotSize = shared.slotSize;
-        this.block = new double[slotSize.length][];
-        this.child = new double[shared.child.length];
-        this.expChild = new double[shared.expChild.length];
+        this.block = new double[slotSize.length][][];
+        this.child = new double[shared.child.length][CHUNK_ROWS];
+        this.expChild = new double[shared.expChild.length][CHUNK_ROWS];
         this.vmax = new double[CHUNK_ROWS];
-        this.dot = new double[shared.dot.length];
+        this.dot = new double[shared.dot.length][CHUNK_ROWS];
         this.column = new double[shared.column.length];
         this.nanStart = new int[shared.nanStart.length];
         this.plain = new boolean[shared.plain.length];
@@ -236,9 +236,8 @@ public final class RegionTensorEvaluator {
     private void scale(int r) {
         int k = layout.sums(r);
         int c = layout.children(r);
-        int kp = padded(k);
         boolean log = p.logWeights(r);
-        double[] sw = new double[kp * c];
+        double[] sw = new double[k * c];
         double[] sh = new double[k];
         for (int q = 0; q < k; q++) {
             double[] w = p.weights(r, q);
@@ -253,15 +252,11 @@ public final class RegionTensorEvaluator {
             sh[q] = usable && max > Double.NEGATIVE_INFINITY ? max : Double.NaN;
             for (int j = 0; j < c; j++) {
                 double lw = log ? w[j] : Math.log(w[j]);
-                sw[j * kp + q] = Double.isNaN(sh[q]) ? 0 : Math.exp(lw - max);
+                sw[q * c + j] = Double.isNaN(sh[q]) ? 0 : Math.exp(lw - max);
             }
         }
         scaled[r] = sw;
         shift[r] = sh;
-    }
-
-    private static int padded(int sums) {
-        return (sums + TILE - 1) / TILE * TILE;
     }
 
     /** Number of outputs (C). */
@@ -343,9 +338,9 @@ public final class RegionTensorEvaluator {
     private void evaluateBlock(double[] data, int row0, int n, double[] out) {
         columns(data, row0, n);
         for (int r : order) {
-            double[] t = block[slot[r]];
+            double[][] t = block[slot[r]];
             if (t == null) {
-                t = new double[slotSize[slot[r]] * CHUNK_ROWS];
+                t = new double[slotSize[slot[r]]][CHUNK_ROWS];
                 block[slot[r]] = t;
             }
             if (s.isLeaf(r)) {
@@ -360,10 +355,10 @@ public final class RegionTensorEvaluator {
             sums(r, n, t);
         }
         int co = outputCount();
-        double[] root = block[slot[s.root()]];
+        double[][] root = block[slot[s.root()]];
         for (int row = 0; row < n; row++) {
             for (int o = 0; o < co; o++) {
-                out[(row0 + row) * co + o] = root[o * CHUNK_ROWS + row];
+                out[(row0 + row) * co + o] = root[o][row];
             }
         }
     }
@@ -374,7 +369,7 @@ public final class RegionTensorEvaluator {
      * {@link ReferenceDensities#addNormalLogValues} (on the 9 * 10^6-edge circuit with K = I = 4, 4.3 million
      * inputs, the branch per cell of the general loop was most of this evaluation's time); the same numbers.
      */
-    private void bundles(int r, int n, double[] dst) {
+    private void bundles(int r, int n, double[][] dst) {
         int[] vars = s.vars(r);
         int bundles = p.options().inputs();
         for (int i = 0, q = leafBase[r]; i < bundles; i++) {
@@ -389,7 +384,7 @@ public final class RegionTensorEvaluator {
                     ReferenceDensities.addLogValues(family[v], p.inputParams(r, i, j), columns[v], n, bundle);
                 }
             }
-            System.arraycopy(bundle, 0, dst, i * CHUNK_ROWS, n);
+            System.arraycopy(bundle, 0, dst[i], 0, n);
         }
     }
 
@@ -435,13 +430,12 @@ public final class RegionTensorEvaluator {
             Arrays.fill(digit, 0, m, 0);
             boolean more = true;
             while (more) {
-                int at = c * CHUNK_ROWS;
-                System.arraycopy(block[slot[parts[0]]], digit[0] * CHUNK_ROWS, child, at, n);
+                double[] dst = child[c];
+                System.arraycopy(block[slot[parts[0]]][digit[0]], 0, dst, 0, n);
                 for (int t = 1; t < m; t++) {
-                    double[] src = block[slot[parts[t]]];
-                    int from = digit[t] * CHUNK_ROWS;
+                    double[] src = block[slot[parts[t]]][digit[t]];
                     for (int row = 0; row < n; row++) {
-                        child[at + row] += src[from + row];
+                        dst[row] += src[row];
                     }
                 }
                 c++;
@@ -458,99 +452,57 @@ public final class RegionTensorEvaluator {
     }
 
     /** The sums of region r over the children in {@link #child}, into {@code t}. */
-    private void sums(int r, int n, double[] t) {
+    private void sums(int r, int n, double[][] t) {
         int c = layout.children(r);
         int k = layout.sums(r);
-        double[] sw = scaled[r];
         Arrays.fill(vmax, 0, n, Double.NEGATIVE_INFINITY);
         for (int j = 0; j < c; j++) {
-            int at = j * CHUNK_ROWS;
+            double[] v = child[j];
             for (int row = 0; row < n; row++) {
-                vmax[row] = Math.max(vmax[row], child[at + row]);
+                vmax[row] = Math.max(vmax[row], v[row]);
             }
         }
         for (int j = 0; j < c; j++) {
-            int at = j * CHUNK_ROWS;
+            double[] v = child[j];
+            double[] e = expChild[j];
             for (int row = 0; row < n; row++) {
-                expChild[at + row] = Math.exp(child[at + row] - vmax[row]);
+                e[row] = Math.exp(v[row] - vmax[row]);
             }
         }
-        product(sw, c, padded(k), (n + TILE - 1) / TILE * TILE);
         for (int q = 0; q < k; q++) {
-            finish(r, q, n, c, t);
+            product(scaled[r], q, c, n);
+            finish(r, q, n, c, t[q]);
         }
     }
 
     /**
-     * {@code dot[q * CHUNK_ROWS + row] = sum_j sw[j * kp + q] * expChild[j * CHUNK_ROWS + row]} for every
-     * q below kp and row below {@code rows} (both multiples of {@value #TILE}), in tiles of 4 sums by 4 rows
-     * held in registers, a tile of rows for every sum before the next (so its columns of {@code expChild} are
-     * read from cache by every sum however many rows the block holds); each (q, row) adds its products in
-     * child order.
+     * {@code dot[q][row] = sum_j scaled(q, j) * expChild[j][row]} for each row below {@code n}, the products
+     * added in child order from the first, one child's row at a time.
      */
-    private void product(double[] sw, int c, int kp, int rows) {
-        double[] e = expChild;
-        for (int row = 0; row < rows; row += TILE) {
-            for (int q = 0; q < kp; q += TILE) {
-                double a00 = 0, a01 = 0, a02 = 0, a03 = 0;
-                double a10 = 0, a11 = 0, a12 = 0, a13 = 0;
-                double a20 = 0, a21 = 0, a22 = 0, a23 = 0;
-                double a30 = 0, a31 = 0, a32 = 0, a33 = 0;
-                for (int j = 0, x = row, w = q; j < c; j++, x += CHUNK_ROWS, w += kp) {
-                    double x0 = e[x];
-                    double x1 = e[x + 1];
-                    double x2 = e[x + 2];
-                    double x3 = e[x + 3];
-                    double w0 = sw[w];
-                    double w1 = sw[w + 1];
-                    double w2 = sw[w + 2];
-                    double w3 = sw[w + 3];
-                    a00 += w0 * x0;
-                    a01 += w0 * x1;
-                    a02 += w0 * x2;
-                    a03 += w0 * x3;
-                    a10 += w1 * x0;
-                    a11 += w1 * x1;
-                    a12 += w1 * x2;
-                    a13 += w1 * x3;
-                    a20 += w2 * x0;
-                    a21 += w2 * x1;
-                    a22 += w2 * x2;
-                    a23 += w2 * x3;
-                    a30 += w3 * x0;
-                    a31 += w3 * x1;
-                    a32 += w3 * x2;
-                    a33 += w3 * x3;
-                }
-                int o = q * CHUNK_ROWS + row;
-                store(o, a00, a01, a02, a03);
-                store(o + CHUNK_ROWS, a10, a11, a12, a13);
-                store(o + 2 * CHUNK_ROWS, a20, a21, a22, a23);
-                store(o + 3 * CHUNK_ROWS, a30, a31, a32, a33);
+    private void product(double[] sw, int q, int c, int n) {
+        double[] d = dot[q];
+        Arrays.fill(d, 0, n, 0);
+        for (int j = 0, w = q * c; j < c; j++, w++) {
+            double wj = sw[w];
+            double[] e = expChild[j];
+            for (int row = 0; row < n; row++) {
+                d[row] += wj * e[row];
             }
         }
     }
 
-    private void store(int at, double v0, double v1, double v2, double v3) {
-        dot[at] = v0;
-        dot[at + 1] = v1;
-        dot[at + 2] = v2;
-        dot[at + 3] = v3;
-    }
-
-    /** Sum q of region r from its scaled sums in {@link #dot}, at each row, into {@code t}. */
+    /** Sum q of region r from its scaled sum in {@link #dot}, at each row, into {@code t}. */
     private void finish(int r, int q, int n, int c, double[] t) {
         double sh = shift[r][q];
-        int out = q * CHUNK_ROWS;
-        double[] a = dot;
+        double[] a = dot[q];
         for (int row = 0; row < n; row++) {
             double m = vmax[row];
             if (m == Double.NEGATIVE_INFINITY) {
-                t[out + row] = m;
-            } else if (a[out + row] >= SCALED_FLOOR && m < Double.POSITIVE_INFINITY && !Double.isNaN(sh)) {
-                t[out + row] = m + sh + Math.log(a[out + row]);
+                t[row] = m;
+            } else if (a[row] >= SCALED_FLOOR && m < Double.POSITIVE_INFINITY && !Double.isNaN(sh)) {
+                t[row] = m + sh + Math.log(a[row]);
             } else {
-                t[out + row] = exact(r, q, row, c);
+                t[row] = exact(r, q, row, c);
             }
         }
     }
@@ -558,7 +510,7 @@ public final class RegionTensorEvaluator {
     /** Sum q of region r at one row by the per-edge log-sum-exp. */
     private double exact(int r, int q, int row, int c) {
         for (int j = 0; j < c; j++) {
-            column[j] = child[j * CHUNK_ROWS + row];
+            column[j] = child[j][row];
         }
         return LogSumExp.weighted(p.weights(r, q), p.logWeights(r), column, c);
     }
