@@ -16,7 +16,8 @@ import java.util.Arrays;
  * products are sums of its parts' log-values over the cross product (first part varying slowest); a sum
  * is the log-sum-exp of weight plus child, computed for all rows of the block at once as a scaled
  * product in linear space, {@code vmax + log(wmax) + log(sum_j (w_j / wmax) e^(v_j - vmax))} with
- * {@code vmax} the row's largest child. A row whose scaled sum underflows (below 2^-900), whose
+ * {@code vmax} the row's largest child (a product's e^(v_j - vmax) taken as the product of its parts'
+ * exponentials, each after its part's largest value is subtracted). A row whose scaled sum underflows (below 2^-900), whose
  * largest child is not finite, or that meets a non-finite weight falls back to the exact per-edge
  * log-sum-exp ({@link LogSumExp}). Each row is summed in one fixed order (children in layout order,
  * parts in partition order), so a row's value does not depend on the other rows of the call.
@@ -90,6 +91,14 @@ public final class RegionTensorEvaluator {
     /** One normal input's log-values at the block's rows, before they are added to {@link #bundle}. */
     private final double[] term = new double[CHUNK_ROWS];
     private int[] digit = new int[2];
+    /** Per part of a partition, where its exponentials start in {@link #partExp}. */
+    private int[] partFirst = new int[2];
+    /** The exponentials of a partition's part nodes, a row array each; grown on first use. */
+    private double[][] partExp = new double[0][];
+    /** A part's largest value at each row. */
+    private final double[] partMax = new double[CHUNK_ROWS];
+    /** A partition's largest product (the sum of its parts' largest), then e^(that - vmax), at each row. */
+    private final double[] partScale = new double[CHUNK_ROWS];
 
     /** An evaluator of the model that {@code params} define. */
     public RegionTensorEvaluator(RegionParameters params) {
@@ -462,16 +471,102 @@ public final class RegionTensorEvaluator {
                 vmax[row] = Math.max(vmax[row], v[row]);
             }
         }
-        for (int j = 0; j < c; j++) {
-            double[] v = child[j];
-            double[] e = expChild[j];
-            for (int row = 0; row < n; row++) {
-                e[row] = Math.exp(v[row] - vmax[row]);
+        if (s.isLeaf(r)) {
+            for (int j = 0; j < c; j++) {
+                double[] v = child[j];
+                double[] e = expChild[j];
+                for (int row = 0; row < n; row++) {
+                    e[row] = Math.exp(v[row] - vmax[row]);
+                }
             }
+        } else {
+            linearProducts(r, n);
         }
         for (int q = 0; q < k; q++) {
             product(scaled[r], q, c, n);
             finish(r, q, n, c, t[q]);
+        }
+    }
+
+    /**
+     * The products of inner region r in linear space, e^(v - vmax) for each product's log-value v, into
+     * {@link #expChild} in layout order: per partition, each part's largest value at the row, one
+     * exponential per part node after its part's largest is subtracted, the products of those, times
+     * e^(sum of the parts' largest - vmax). The sum of the largest parts is the partition's largest
+     * product, so every factor is at most 1; a part whose nodes are all 0 (log -inf) gives 0. One exponential
+     * per part node instead of one per product: the exponentials were most of this evaluation's time (3.5 ns
+     * each here, against a fraction of a nanosecond for a vectorised add or multiply).
+     */
+    private void linearProducts(int r, int n) {
+        final double neg = Double.NEGATIVE_INFINITY;
+        int c = 0;
+        for (int part : s.partitionsOf(r)) {
+            int[] parts = s.parts(part);
+            int m = parts.length;
+            if (digit.length < m) {
+                digit = new int[m];
+            }
+            if (partFirst.length < m) {
+                partFirst = new int[m];
+            }
+            Arrays.fill(partScale, 0, n, 0);
+            int rows = 0;
+            for (int t = 0; t < m; t++) {
+                double[][] src = block[slot[parts[t]]];
+                int size = layout.size(parts[t]);
+                System.arraycopy(src[0], 0, partMax, 0, n);
+                for (int u = 1; u < size; u++) {
+                    double[] v = src[u];
+                    for (int row = 0; row < n; row++) {
+                        partMax[row] = Math.max(partMax[row], v[row]);
+                    }
+                }
+                if (partExp.length < rows + size) {
+                    double[][] grown = Arrays.copyOf(partExp, rows + size);
+                    for (int i = partExp.length; i < grown.length; i++) {
+                        grown[i] = new double[CHUNK_ROWS];
+                    }
+                    partExp = grown;
+                }
+                partFirst[t] = rows;
+                for (int u = 0; u < size; u++) {
+                    double[] v = src[u];
+                    double[] e = partExp[rows + u];
+                    for (int row = 0; row < n; row++) {
+                        double pm = partMax[row];
+                        e[row] = pm == neg ? 0 : Math.exp(v[row] - pm);
+                    }
+                }
+                rows += size;
+                for (int row = 0; row < n; row++) {
+                    partScale[row] += partMax[row];
+                }
+            }
+            for (int row = 0; row < n; row++) {
+                double top = partScale[row];
+                partScale[row] = top == neg || vmax[row] == neg ? 0 : Math.exp(top - vmax[row]);
+            }
+            Arrays.fill(digit, 0, m, 0);
+            boolean more = true;
+            while (more) {
+                double[] dst = expChild[c];
+                System.arraycopy(partScale, 0, dst, 0, n);
+                for (int t = 0; t < m; t++) {
+                    double[] e = partExp[partFirst[t] + digit[t]];
+                    for (int row = 0; row < n; row++) {
+                        dst[row] *= e[row];
+                    }
+                }
+                c++;
+                more = false;
+                for (int t = m - 1; t >= 0; t--) {
+                    if (++digit[t] < layout.size(parts[t])) {
+                        more = true;
+                        break;
+                    }
+                    digit[t] = 0;
+                }
+            }
         }
     }
 
