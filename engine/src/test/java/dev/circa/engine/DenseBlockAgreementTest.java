@@ -123,6 +123,54 @@ class DenseBlockAgreementTest {
     }
 
     @Test
+    void logDensity_partNodesZeroOrLargestLate_denseEqualsGenericAndAloneEqualsBatch() {
+        // part nodes that are products of inputs, each 0 (log -inf) outside its inputs' supports: at some rows
+        // the first node is 0 and the largest comes last, at others every node of the part is 0; rows of every
+        // kind fill the chunks of the several-row block kernel and go one by one through the one-row kernel
+        TestCircuits t = new TestCircuits().variable("inlet_pressure", VariableType.REAL)
+                .variable("outlet_pressure", VariableType.REAL).variable("flow", VariableType.REAL);
+        int[] a = {
+            t.product(t.input(Family.NORMAL, 0, 0.5, 1), t.input(Family.EXPONENTIAL, 1, 0.5)),
+            t.product(t.input(Family.GAMMA, 0, 0.5, 1), t.input(Family.EXPONENTIAL, 1, 1)),
+            t.product(t.input(Family.NORMAL, 0, -1, 1), t.input(Family.EXPONENTIAL, 1, 2)),
+            t.product(t.input(Family.GAMMA, 0, 0.5, 2), t.input(Family.NORMAL, 1, 1, 1))};
+        int[] b = new int[3];
+        for (int j = 0; j < 3; j++) {
+            b[j] = t.input(Family.NORMAL, 2, j - 1.0, 0.5 + j);
+        }
+        int[] products = new int[12];
+        for (int i = 0; i < 12; i++) {
+            products[i] = t.product(a[i / 3], b[i % 3]);
+        }
+        double[] w = new double[12];
+        Arrays.fill(w, 1.0 / 12);
+        int s0 = t.sum(w, products);
+        double[] w1 = new double[12];
+        for (int i = 0; i < 12; i++) {
+            w1[i] = (i + 1) / 78.0;
+        }
+        int s1 = t.sum(w1, products);
+        t.output("joint", s0).output("other", s1);
+        CompiledCircuit circuit = t.compile();
+        assertEquals(1, circuit.denseBlockSummary().blocks(), "one block");
+        double[][] kinds = {{0, -1, 0.3}, {0, 1, 0.3}, {1, -1, 0.3}, {2, 0.5, Double.NaN}, {Double.NaN, -1, 1},
+            {0, Double.NaN, -2}, {-1, -1, 0}, {1e300, 3, 1e-300}};
+        int rows = 300;
+        double[] data = new double[rows * 3];
+        for (int r = 0; r < rows; r++) {
+            System.arraycopy(kinds[(r * 7) % kinds.length], 0, data, r * 3, 3);
+        }
+        assertAgree(circuit, data, "part nodes 0 or largest late");
+        double[] out = new double[rows * circuit.outputCount()];
+        new Evaluator(circuit).logDensity(data, rows, out);
+        // (0, -1, 0.3): a gamma density is 0 at 0 and an exponential below 0, so every node of the first part is
+        // 0 and so is every product (common practice: a density is 0 outside its support)
+        assertEquals(Double.NEGATIVE_INFINITY, out[0], "every product 0");
+        // row 6 is (1, -1, 0.3)
+        assertTrue(Double.isFinite(out[6 * circuit.outputCount()]), "(1, -1, 0.3): only the last node of the part is not 0");
+    }
+
+    @Test
     void logDensity_everyCellMissingOrOutsideSupport_denseEqualsGeneric() {
         RandomCircuits rc = RandomCircuits.regionGraph(400, 9, 4, 3, 2, 0.3, true);
         CompiledCircuit circuit = rc.compile();
