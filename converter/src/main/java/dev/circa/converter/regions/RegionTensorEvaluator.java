@@ -433,10 +433,7 @@ public final class RegionTensorEvaluator {
         for (int part : s.partitionsOf(r)) {
             int[] parts = s.parts(part);
             int m = parts.length;
-            if (digit.length < m) {
-                digit = new int[m];
-            }
-            Arrays.fill(digit, 0, m, 0);
+            firstProduct(m);
             boolean more = true;
             while (more) {
                 double[] dst = child[c];
@@ -448,16 +445,28 @@ public final class RegionTensorEvaluator {
                     }
                 }
                 c++;
-                more = false;
-                for (int t = m - 1; t >= 0; t--) {
-                    if (++digit[t] < layout.size(parts[t])) {
-                        more = true;
-                        break;
-                    }
-                    digit[t] = 0;
-                }
+                more = nextProduct(parts, m);
             }
         }
+    }
+
+    /** Sets the digits of a partition of m parts to its first product. */
+    private void firstProduct(int m) {
+        if (digit.length < m) {
+            digit = new int[m];
+        }
+        Arrays.fill(digit, 0, m, 0);
+    }
+
+    /** Advances the digits to a partition's next product (the last part varying fastest); false after its last. */
+    private boolean nextProduct(int[] parts, int m) {
+        for (int t = m - 1; t >= 0; t--) {
+            if (++digit[t] < layout.size(parts[t])) {
+                return true;
+            }
+            digit[t] = 0;
+        }
+        return false;
     }
 
     /** The sums of region r over the children in {@link #child}, into {@code t}. */
@@ -503,9 +512,6 @@ public final class RegionTensorEvaluator {
         for (int part : s.partitionsOf(r)) {
             int[] parts = s.parts(part);
             int m = parts.length;
-            if (digit.length < m) {
-                digit = new int[m];
-            }
             if (partFirst.length < m) {
                 partFirst = new int[m];
             }
@@ -546,7 +552,7 @@ public final class RegionTensorEvaluator {
                 double top = partScale[row];
                 partScale[row] = top == neg || vmax[row] == neg ? 0 : Math.exp(top - vmax[row]);
             }
-            Arrays.fill(digit, 0, m, 0);
+            firstProduct(m);
             boolean more = true;
             while (more) {
                 double[] dst = expChild[c];
@@ -558,14 +564,7 @@ public final class RegionTensorEvaluator {
                     }
                 }
                 c++;
-                more = false;
-                for (int t = m - 1; t >= 0; t--) {
-                    if (++digit[t] < layout.size(parts[t])) {
-                        more = true;
-                        break;
-                    }
-                    digit[t] = 0;
-                }
+                more = nextProduct(parts, m);
             }
         }
     }
