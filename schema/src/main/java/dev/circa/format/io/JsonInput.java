@@ -2,6 +2,7 @@ package dev.circa.format.io;
 
 import java.io.IOException;
 import java.io.InputStream;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Arrays;
 import java.util.Locale;
@@ -30,6 +31,13 @@ public final class JsonInput implements AutoCloseable {
 
     private final JsonParser parser;
     private final String file;
+    /** The regular file read as stored (not standard input, not gzip), or {@code null}: see {@link #storedFile()}. */
+    private Path storedFile;
+    /** Added to every line the parser reports: the input starts this many lines into the file. */
+    private int lineShift;
+    /** Added to the columns of the parser's {@link #shiftedLine} (where the input starts within a file's line). */
+    private int columnShift;
+    private int shiftedLine;
 
     /** Wraps an existing parser (its stream-read constraints should come from {@link #mapperFor(ReadLimits)}). */
     public JsonInput(JsonParser parser, String file) {
@@ -40,7 +48,46 @@ public final class JsonInput implements AutoCloseable {
     /** Opens a JSON file (or standard input for {@code -}) under {@code limits}. */
     public static JsonInput openJson(Path path, ReadLimits limits) throws FormatException {
         InputStream in = InputFiles.open(path, limits.maxBytes());
-        return fromStream(in, InputFiles.displayName(path), limits);
+        JsonInput input = fromStream(in, InputFiles.displayName(path), limits);
+        if (!InputFiles.isReadOnce(path) && !InputFiles.isGzipName(String.valueOf(path.getFileName()))
+                && Files.isRegularFile(path)) {
+            input.storedFile = path;
+        }
+        return input;
+    }
+
+    /**
+     * The file this input reads when its bytes are the file's as stored (a regular file, not gzip, not
+     * standard input), so that a second reader may open it at any byte offset; otherwise {@code null}.
+     */
+    Path storedFile() {
+        return storedFile;
+    }
+
+    /**
+     * Makes this input, whose second line starts at line {@code line}, column {@code column} of a file
+     * (after a first line of its own), report its locations as the file's.
+     */
+    void moveTo(int line, int column) {
+        lineShift = line - 2;
+        shiftedLine = 2;
+        columnShift = column - 1;
+    }
+
+    /** The file's line of the parser's line {@code l} (0 when unknown). */
+    private int fileLine(int l) {
+        return l <= 0 ? 0 : l + lineShift;
+    }
+
+    /** The file's column of the parser's column {@code c} on its line {@code l}. */
+    private int fileColumn(int l, int c) {
+        return Math.max(c, 0) + (l == shiftedLine ? columnShift : 0);
+    }
+
+    /** The byte offset of the current token in the input, or -1 when the parser does not know it. */
+    long byteOffset() {
+        TokenStreamLocation l = parser.currentTokenLocation();
+        return l == null ? -1 : l.getByteOffset();
     }
 
     /** Reads JSON from {@code in} under {@code limits}; {@code file} names it in messages. */
@@ -107,19 +154,22 @@ public final class JsonInput implements AutoCloseable {
     /** Line of the current token (1-based). */
     public int line() {
         TokenStreamLocation l = parser.currentTokenLocation();
-        return l == null ? 0 : Math.max(l.getLineNr(), 0);
+        return l == null ? 0 : fileLine(l.getLineNr());
     }
 
     /** Column of the current token (1-based). */
     public int column() {
         TokenStreamLocation l = parser.currentTokenLocation();
-        return l == null ? 0 : Math.max(l.getColumnNr(), 0);
+        return l == null ? 0 : fileColumn(l.getLineNr(), l.getColumnNr());
     }
 
     /** Line (high 32 bits) and column (low 32 bits) of the current token, from one location lookup. */
     public long position() {
         TokenStreamLocation l = parser.currentTokenLocation();
-        return l == null ? 0 : ((long) Math.max(l.getLineNr(), 0) << 32) | Math.max(l.getColumnNr(), 0);
+        if (l == null) {
+            return 0;
+        }
+        return ((long) fileLine(l.getLineNr()) << 32) | fileColumn(l.getLineNr(), l.getColumnNr());
     }
 
     /** A located error at the current token. */
@@ -418,7 +468,7 @@ public final class JsonInput implements AutoCloseable {
     private FormatException fail(JacksonException e) {
         FormatException f = translate(e, file);
         if (f.line() > 0) {
-            return f;
+            return shiftedLine == 0 ? f : f.relocated(fileLine(f.line()), fileColumn(f.line(), f.column()));
         }
         TokenStreamLocation l = parser.currentLocation();
         if (l == null || l.getLineNr() <= 0) {
@@ -427,7 +477,7 @@ public final class JsonInput implements AutoCloseable {
         if (l == null || l.getLineNr() <= 0) {
             return f;
         }
-        return f.relocated(l.getLineNr(), Math.max(1, l.getColumnNr()));
+        return f.relocated(fileLine(l.getLineNr()), fileColumn(l.getLineNr(), Math.max(1, l.getColumnNr())));
     }
 
     /** Turns a Jackson exception into a located {@link FormatException}. */
