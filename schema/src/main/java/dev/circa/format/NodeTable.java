@@ -238,8 +238,23 @@ public final class NodeTable {
     private static final class Ints {
         private int[][] blocks = {new int[FIRST]};
         private int size;
+        /** The block entries go to, the position of its first entry, and one past its last. */
+        private int[] current = blocks[0];
+        private int start;
+        private int end = FIRST;
 
         void add(int v) {
+            // one test per entry, and its rare side is taken early (the first block grows from FIRST):
+            // a compiled reader is not thrown away when a large document first crosses a block
+            if (size == end) {
+                room();
+            }
+            current[size - start] = v;
+            size++;
+        }
+
+        /** Makes the block entry {@code size} goes to (growing the first one, or starting a new one) current. */
+        private void room() {
             int b = size / INTS;
             int j = size - b * INTS;
             if (b == blocks.length) {
@@ -253,8 +268,9 @@ public final class NodeTable {
                 block = Arrays.copyOf(block, Math.min(INTS, 2 * j));
                 blocks[b] = block;
             }
-            block[j] = v;
-            size++;
+            current = block;
+            start = b * INTS;
+            end = start + block.length;
         }
 
         int[][] blocks() {
@@ -287,6 +303,8 @@ public final class NodeTable {
                     src.blocks[sb] = null;
                 }
             }
+            // the next add finds its block anew
+            end = size;
         }
 
         /** The block the next entry goes to, made full size. */
@@ -311,8 +329,23 @@ public final class NodeTable {
     private static final class Doubles {
         private double[][] blocks = {new double[FIRST]};
         private int size;
+        /** The block entries go to, the position of its first entry, and one past its last. */
+        private double[] current = blocks[0];
+        private int start;
+        private int end = FIRST;
 
         void add(double v) {
+            // one test per entry, and its rare side is taken early (the first block grows from FIRST):
+            // a compiled reader is not thrown away when a large document first crosses a block
+            if (size == end) {
+                room();
+            }
+            current[size - start] = v;
+            size++;
+        }
+
+        /** Makes the block entry {@code size} goes to (growing the first one, or starting a new one) current. */
+        private void room() {
             int b = size / DOUBLES;
             int j = size - b * DOUBLES;
             if (b == blocks.length) {
@@ -326,8 +359,9 @@ public final class NodeTable {
                 block = Arrays.copyOf(block, Math.min(DOUBLES, 2 * j));
                 blocks[b] = block;
             }
-            block[j] = v;
-            size++;
+            current = block;
+            start = b * DOUBLES;
+            end = start + block.length;
         }
 
         /** Replaces entry {@code k} (below the size). */
@@ -359,6 +393,8 @@ public final class NodeTable {
                     src.blocks[sb] = null;
                 }
             }
+            // the next add finds its block anew
+            end = size;
         }
 
         /** The block the next entry goes to, made full size. */
@@ -383,8 +419,23 @@ public final class NodeTable {
     private static final class Bytes {
         private byte[][] blocks = {new byte[FIRST]};
         private int size;
+        /** The block entries go to, the position of its first entry, and one past its last. */
+        private byte[] current = blocks[0];
+        private int start;
+        private int end = FIRST;
 
         void add(byte v) {
+            // one test per entry, and its rare side is taken early (the first block grows from FIRST):
+            // a compiled reader is not thrown away when a large document first crosses a block
+            if (size == end) {
+                room();
+            }
+            current[size - start] = v;
+            size++;
+        }
+
+        /** Makes the block entry {@code size} goes to (growing the first one, or starting a new one) current. */
+        private void room() {
             int b = size / BYTES;
             int j = size - b * BYTES;
             if (b == blocks.length) {
@@ -398,8 +449,9 @@ public final class NodeTable {
                 block = Arrays.copyOf(block, Math.min(BYTES, 2 * j));
                 blocks[b] = block;
             }
-            block[j] = v;
-            size++;
+            current = block;
+            start = b * BYTES;
+            end = start + block.length;
         }
 
         byte[][] blocks() {
@@ -426,6 +478,8 @@ public final class NodeTable {
                     src.blocks[sb] = null;
                 }
             }
+            // the next add finds its block anew
+            end = size;
         }
 
         /** The block the next entry goes to, made full size. */

@@ -293,8 +293,8 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
 
         private void readNodes(String ptr) throws FormatException {
             in.expect(JsonToken.START_ARRAY, ptr, "an array of nodes");
-            NodeArrayReader nodes = new NodeArrayReader(in, limits, table, nodeLocations, numbers, unknown);
             tail = NodeArrayTail.start(in, limits, splitAtLeast, membersBefore, in.byteOffset());
+            NodeArrayReader nodes = new NodeArrayReader(in, limits, table, nodeLocations, numbers, unknown);
             long meet = tail == null ? Long.MAX_VALUE : tail.nodeOffset();
             while (in.nextElement()) {
                 if (meet != Long.MAX_VALUE && in.byteOffset() >= meet) {

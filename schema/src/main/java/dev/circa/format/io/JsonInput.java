@@ -33,6 +33,8 @@ public final class JsonInput implements AutoCloseable {
     private final String file;
     /** The regular file read as stored (not standard input, not gzip), or {@code null}: see {@link #storedFile()}. */
     private Path storedFile;
+    /** The value of the integer {@link #isIntIn(int, int)} last accepted. */
+    private int intValue;
     /** Added to every line the parser reports: the input starts this many lines into the file. */
     private int lineShift;
     /** Added to the columns of the parser's {@link #shiftedLine} (where the input starts within a file's line). */
@@ -361,20 +363,39 @@ public final class JsonInput implements AutoCloseable {
         if (token() != JsonToken.VALUE_NUMBER_INT) {
             return false;
         }
+        // the digits read here (the parser checked the syntax): one loop for every length of integer, where
+        // the parser's own decoding switches on the length and is compiled anew for each new one it meets
+        char[] text;
+        int off;
+        int len;
         try {
-            if (parser.getNumberType() != JsonParser.NumberType.INT) {
-                return false;
-            }
-            int v = parser.getIntValue();
-            return v >= min && v <= max;
+            text = parser.getStringCharacters();
+            off = parser.getStringOffset();
+            len = parser.getStringLength();
         } catch (JacksonException e) {
             throw fail(e);
         }
+        boolean negative = len > 0 && text[off] == '-';
+        int k = negative ? off + 1 : off;
+        int end = off + len;
+        if (end - k > 10 || end == k) {
+            return false;
+        }
+        long v = 0;
+        for (; k < end; k++) {
+            v = v * 10 + (text[k] - '0');
+        }
+        v = negative ? -v : v;
+        if (v < min || v > max) {
+            return false;
+        }
+        intValue = (int) v;
+        return true;
     }
 
     /** The value of the current token, after {@link #isIntIn(int, int)} said yes. */
     public int intValue() {
-        return parser.getIntValue();
+        return intValue;
     }
 
     /** The current token's value when it is a finite number, else NaN (the caller then reads it for the message). */
@@ -424,7 +445,7 @@ public final class JsonInput implements AutoCloseable {
                 buf = Arrays.copyOf(buf, n * 2);
             }
             // the pointer is built only for a message: a large array costs no string per element
-            buf[n] = isIntIn(min, max) ? parser.getIntValue() : readInt(pointer + "/" + n, min, max);
+            buf[n] = isIntIn(min, max) ? intValue : readInt(pointer + "/" + n, min, max);
             n++;
         }
         return Arrays.copyOf(buf, n);
