@@ -47,6 +47,24 @@ public final class NodeLocations {
             size++;
         }
 
+        /**
+         * Appends the locations {@code tail} recorded for the nodes that follow, read from an input whose
+         * second line starts at {@code line}, {@code column} of the file (after a first line of its own).
+         */
+        public void appendAll(Recorder tail, int line, int column) {
+            int n = size + tail.size;
+            if (n > this.line.length) {
+                this.line = Arrays.copyOf(this.line, Math.max(n, size * 2));
+                this.column = Arrays.copyOf(this.column, this.line.length);
+            }
+            for (int i = 0; i < tail.size; i++) {
+                int l = tail.line[i];
+                this.line[size + i] = l + line - 2;
+                this.column[size + i] = l == 2 ? tail.column[i] + column - 1 : tail.column[i];
+            }
+            size = n;
+        }
+
         public NodeLocations build() {
             return new NodeLocations(Arrays.copyOf(line, size), Arrays.copyOf(column, size), size);
         }

@@ -238,8 +238,23 @@ public final class NodeTable {
     private static final class Ints {
         private int[][] blocks = {new int[FIRST]};
         private int size;
+        /** The block entries go to, the position of its first entry, and one past its last. */
+        private int[] current = blocks[0];
+        private int start;
+        private int end = FIRST;
 
         void add(int v) {
+            // one test per entry, and its rare side is taken early (the first block grows from FIRST):
+            // a compiled reader is not thrown away when a large document first crosses a block
+            if (size == end) {
+                room();
+            }
+            current[size - start] = v;
+            size++;
+        }
+
+        /** Makes the block entry {@code size} goes to (growing the first one, or starting a new one) current. */
+        private void room() {
             int b = size / INTS;
             int j = size - b * INTS;
             if (b == blocks.length) {
@@ -253,12 +268,60 @@ public final class NodeTable {
                 block = Arrays.copyOf(block, Math.min(INTS, 2 * j));
                 blocks[b] = block;
             }
-            block[j] = v;
-            size++;
+            current = block;
+            start = b * INTS;
+            end = start + block.length;
         }
 
         int[][] blocks() {
             return Arrays.copyOf(blocks, (int) (((long) size + INTS - 1) / INTS));
+        }
+
+        /**
+         * Appends entries {@code from} to the end of {@code src} plus {@code shift}, dropping each of {@code src}'s
+         * blocks once copied (the source is not used afterwards).
+         */
+        void addAll(Ints src, int from, int shift) {
+            int k = from;
+            while (k < src.size) {
+                int sb = k / INTS;
+                int sj = k - sb * INTS;
+                int[] s = src.blocks[sb];
+                int[] d = writable();
+                int dj = size - (size / INTS) * INTS;
+                int n = Math.min(Math.min(src.size - k, s.length - sj), INTS - dj);
+            if (shift == 0) {
+                System.arraycopy(s, sj, d, dj, n);
+            } else {
+                for (int i = 0; i < n; i++) {
+                    d[dj + i] = s[sj + i] + shift;
+                }
+            }
+                size += n;
+                k += n;
+                if (k == src.size || k % INTS == 0) {
+                    src.blocks[sb] = null;
+                }
+            }
+            // the next add finds its block anew
+            end = size;
+        }
+
+        /** The block the next entry goes to, made full size. */
+        private int[] writable() {
+            int b = size / INTS;
+            if (b == blocks.length) {
+                blocks = Arrays.copyOf(blocks, b * 2);
+            }
+            int[] block = blocks[b];
+            if (block == null) {
+                block = new int[INTS];
+                blocks[b] = block;
+            } else if (block.length < INTS) {
+                block = Arrays.copyOf(block, INTS);
+                blocks[b] = block;
+            }
+            return block;
         }
     }
 
@@ -266,8 +329,23 @@ public final class NodeTable {
     private static final class Doubles {
         private double[][] blocks = {new double[FIRST]};
         private int size;
+        /** The block entries go to, the position of its first entry, and one past its last. */
+        private double[] current = blocks[0];
+        private int start;
+        private int end = FIRST;
 
         void add(double v) {
+            // one test per entry, and its rare side is taken early (the first block grows from FIRST):
+            // a compiled reader is not thrown away when a large document first crosses a block
+            if (size == end) {
+                room();
+            }
+            current[size - start] = v;
+            size++;
+        }
+
+        /** Makes the block entry {@code size} goes to (growing the first one, or starting a new one) current. */
+        private void room() {
             int b = size / DOUBLES;
             int j = size - b * DOUBLES;
             if (b == blocks.length) {
@@ -281,8 +359,9 @@ public final class NodeTable {
                 block = Arrays.copyOf(block, Math.min(DOUBLES, 2 * j));
                 blocks[b] = block;
             }
-            block[j] = v;
-            size++;
+            current = block;
+            start = b * DOUBLES;
+            end = start + block.length;
         }
 
         /** Replaces entry {@code k} (below the size). */
@@ -293,14 +372,70 @@ public final class NodeTable {
         double[][] blocks() {
             return Arrays.copyOf(blocks, (int) (((long) size + DOUBLES - 1) / DOUBLES));
         }
+
+        /**
+         * Appends entries {@code from} to the end of {@code src}, dropping each of {@code src}'s
+         * blocks once copied (the source is not used afterwards).
+         */
+        void addAll(Doubles src, int from) {
+            int k = from;
+            while (k < src.size) {
+                int sb = k / DOUBLES;
+                int sj = k - sb * DOUBLES;
+                double[] s = src.blocks[sb];
+                double[] d = writable();
+                int dj = size - (size / DOUBLES) * DOUBLES;
+                int n = Math.min(Math.min(src.size - k, s.length - sj), DOUBLES - dj);
+            System.arraycopy(s, sj, d, dj, n);
+                size += n;
+                k += n;
+                if (k == src.size || k % DOUBLES == 0) {
+                    src.blocks[sb] = null;
+                }
+            }
+            // the next add finds its block anew
+            end = size;
+        }
+
+        /** The block the next entry goes to, made full size. */
+        private double[] writable() {
+            int b = size / DOUBLES;
+            if (b == blocks.length) {
+                blocks = Arrays.copyOf(blocks, b * 2);
+            }
+            double[] block = blocks[b];
+            if (block == null) {
+                block = new double[DOUBLES];
+                blocks[b] = block;
+            } else if (block.length < DOUBLES) {
+                block = Arrays.copyOf(block, DOUBLES);
+                blocks[b] = block;
+            }
+            return block;
+        }
     }
 
     /** A growable column of bytes in blocks of {@link #BYTES} (the first grows to that size). */
     private static final class Bytes {
         private byte[][] blocks = {new byte[FIRST]};
         private int size;
+        /** The block entries go to, the position of its first entry, and one past its last. */
+        private byte[] current = blocks[0];
+        private int start;
+        private int end = FIRST;
 
         void add(byte v) {
+            // one test per entry, and its rare side is taken early (the first block grows from FIRST):
+            // a compiled reader is not thrown away when a large document first crosses a block
+            if (size == end) {
+                room();
+            }
+            current[size - start] = v;
+            size++;
+        }
+
+        /** Makes the block entry {@code size} goes to (growing the first one, or starting a new one) current. */
+        private void room() {
             int b = size / BYTES;
             int j = size - b * BYTES;
             if (b == blocks.length) {
@@ -314,12 +449,54 @@ public final class NodeTable {
                 block = Arrays.copyOf(block, Math.min(BYTES, 2 * j));
                 blocks[b] = block;
             }
-            block[j] = v;
-            size++;
+            current = block;
+            start = b * BYTES;
+            end = start + block.length;
         }
 
         byte[][] blocks() {
             return Arrays.copyOf(blocks, (int) (((long) size + BYTES - 1) / BYTES));
+        }
+
+        /**
+         * Appends entries {@code from} to the end of {@code src}, dropping each of {@code src}'s
+         * blocks once copied (the source is not used afterwards).
+         */
+        void addAll(Bytes src, int from) {
+            int k = from;
+            while (k < src.size) {
+                int sb = k / BYTES;
+                int sj = k - sb * BYTES;
+                byte[] s = src.blocks[sb];
+                byte[] d = writable();
+                int dj = size - (size / BYTES) * BYTES;
+                int n = Math.min(Math.min(src.size - k, s.length - sj), BYTES - dj);
+            System.arraycopy(s, sj, d, dj, n);
+                size += n;
+                k += n;
+                if (k == src.size || k % BYTES == 0) {
+                    src.blocks[sb] = null;
+                }
+            }
+            // the next add finds its block anew
+            end = size;
+        }
+
+        /** The block the next entry goes to, made full size. */
+        private byte[] writable() {
+            int b = size / BYTES;
+            if (b == blocks.length) {
+                blocks = Arrays.copyOf(blocks, b * 2);
+            }
+            byte[] block = blocks[b];
+            if (block == null) {
+                block = new byte[BYTES];
+                blocks[b] = block;
+            } else if (block.length < BYTES) {
+                block = Arrays.copyOf(block, BYTES);
+                blocks[b] = block;
+            }
+            return block;
         }
     }
 
@@ -393,17 +570,7 @@ public final class NodeTable {
         public void close(byte k, int nodeId, String label, Family f, boolean logForm) {
             check(size);
             if (label != null) {
-                if (labels == null) {
-                    labels = new String[4][];
-                }
-                int b = size >>> LABEL_SHIFT;
-                if (b >= labels.length) {
-                    labels = Arrays.copyOf(labels, Math.max(b + 1, labels.length * 2));
-                }
-                if (labels[b] == null) {
-                    labels[b] = new String[LABEL_BLOCK];
-                }
-                labels[b][size & LABEL_MASK] = label;
+                setLabel(size, label);
             }
             kind.add(k);
             id.add(nodeId);
@@ -413,6 +580,58 @@ public final class NodeTable {
             childStart.add(children.size);
             valueStart.add(values.size);
             varStart.add(vars.size);
+        }
+
+        private void setLabel(int i, String label) {
+            if (labels == null) {
+                labels = new String[4][];
+            }
+            int b = i >>> LABEL_SHIFT;
+            if (b >= labels.length) {
+                labels = Arrays.copyOf(labels, Math.max(b + 1, labels.length * 2));
+            }
+            if (labels[b] == null) {
+                labels[b] = new String[LABEL_BLOCK];
+            }
+            labels[b][i & LABEL_MASK] = label;
+        }
+
+        /**
+         * Appends every node of {@code tail}, a table of the nodes that follow this one's in the document
+         * (read apart, e.g. on another thread). {@code tail} is emptied: its blocks are dropped as they are
+         * copied, so the two never take twice the memory, and it must not be used afterwards.
+         */
+        public void appendAll(Builder tail) {
+            if ((long) size + tail.size >= Integer.MAX_VALUE - 8 || (long) children.size + tail.children.size >= Integer.MAX_VALUE - 8
+                    || (long) values.size + tail.values.size >= Integer.MAX_VALUE - 8
+                    || (long) vars.size + tail.vars.size >= Integer.MAX_VALUE - 8) {
+                throw new IllegalStateException("more than 2^31 entries in one column");
+            }
+            int base = size;
+            if (tail.labels != null) {
+                for (int b = 0; b < tail.labels.length; b++) {
+                    String[] block = tail.labels[b];
+                    for (int j = 0; block != null && j < LABEL_BLOCK; j++) {
+                        if (block[j] != null) {
+                            setLabel(base + (b << LABEL_SHIFT) + j, block[j]);
+                        }
+                    }
+                }
+                tail.labels = null;
+            }
+            kind.addAll(tail.kind, 0);
+            id.addAll(tail.id, 0, 0);
+            family.addAll(tail.family, 0);
+            flags.addAll(tail.flags, 0);
+            // the tail's starts begin at 0 for its first node: this table's ends already say where that is
+            childStart.addAll(tail.childStart, 1, children.size);
+            children.addAll(tail.children, 0, 0);
+            valueStart.addAll(tail.valueStart, 1, values.size);
+            values.addAll(tail.values, 0);
+            varStart.addAll(tail.varStart, 1, vars.size);
+            vars.addAll(tail.vars, 0, 0);
+            size += tail.size;
+            tail.size = 0;
         }
 
         /** Appends {@code n} whole. */

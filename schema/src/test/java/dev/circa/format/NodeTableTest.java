@@ -127,6 +127,49 @@ class NodeTableTest {
     }
 
     @Test
+    void appendAll_twoHalvesAcrossBlocks_sameEntriesAsOneBuilder() {
+        // the halves meet at odd places in every column (a partly filled block on both sides), labels in both
+        int n = 1_100_000;
+        for (int split : new int[] {0, 1, 777_777, n}) {
+            NodeTable.Builder first = new NodeTable.Builder();
+            NodeTable.Builder second = new NodeTable.Builder();
+            Family[] families = Family.values();
+            for (int i = 0; i < n; i++) {
+                NodeTable.Builder b = i < split ? first : second;
+                for (int c = 0; c < i % 3; c++) {
+                    b.appendChild(3 * i + c);
+                }
+                b.appendValue(i + 0.25);
+                if (i % 2 == 0) {
+                    b.appendValue(-i);
+                }
+                b.appendVar(i % 11);
+                byte kind = (byte) (i % 3);
+                b.close(kind, 2 * i, i % 100_000 == 7 ? "valve_" + i : null,
+                        kind == NodeTable.INPUT ? families[i % families.length] : null, i % 5 == 0);
+            }
+            first.appendAll(second);
+            NodeTable t = first.build();
+            assertEquals(n, t.size());
+            for (int i = 0; i < n; i++) {
+                assertEquals((byte) (i % 3), t.kind(i));
+                assertEquals(2 * i, t.id(i));
+                assertEquals(i % 100_000 == 7 ? "valve_" + i : null, t.label(i));
+                assertEquals(t.kind(i) == NodeTable.INPUT ? families[i % families.length] : null, t.family(i));
+                assertEquals(i % 5 == 0, t.logForm(i));
+                assertEquals(i % 3, t.childEnd(i) - t.childStart(i));
+                for (int c = 0; c < i % 3; c++) {
+                    assertEquals(3 * i + c, t.childId(t.childStart(i) + c));
+                }
+                assertEquals(i % 2 == 0 ? 2 : 1, t.valueEnd(i) - t.valueStart(i));
+                assertEquals(i + 0.25, t.value(t.valueStart(i)));
+                assertEquals(i % 11, t.var(t.varStart(i)));
+                assertEquals(i + 1, t.varEnd(i));
+            }
+        }
+    }
+
+    @Test
     void readFromTextShowsTheNodesWritten() throws Exception {
         Random rnd = new Random(15);
         List<Node> nodes = randomNodes(rnd, 2000);

@@ -4,17 +4,16 @@ import dev.circa.format.CheckCase;
 import dev.circa.format.Checks;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.DocumentLocations;
-import dev.circa.format.Family;
 import dev.circa.format.NodeLocations;
 import dev.circa.format.NodeTable;
 import dev.circa.format.Output;
 import dev.circa.format.ReadFinding;
 import dev.circa.format.SourceLocation;
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.function.Consumer;
 import tools.jackson.core.JsonToken;
 import tools.jackson.databind.JsonNode;
 
@@ -33,26 +32,52 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
     /** The newest minor version of format 1 this reader knows. */
     public static final int SUPPORTED_MINOR = 0;
 
+    private final long splitAtLeast;
+    private final Consumer<Boolean> tailEvents;
+
     public CircuitReader() {
         this(ReadLimits.DEFAULT);
     }
 
     public CircuitReader(ReadLimits limits) {
+        this(limits, NodeArrayTail.MIN_BYTES);
+    }
+
+    /**
+     * A reader that reads the nodes of files of at least {@code splitAtLeast} bytes in two halves on two
+     * threads ({@link NodeArrayTail}); the document read is the same either way.
+     */
+    CircuitReader(ReadLimits limits, long splitAtLeast) {
+        this(limits, splitAtLeast, taken -> { });
+    }
+
+    /**
+     * As {@link #CircuitReader(ReadLimits, long)}; {@code tailEvents} hears, for each read that started a
+     * second thread, whether its half was taken ({@code true}) or dropped ({@code false}).
+     */
+    CircuitReader(ReadLimits limits, long splitAtLeast, Consumer<Boolean> tailEvents) {
         super(limits);
+        this.splitAtLeast = splitAtLeast;
+        this.tailEvents = tailEvents;
     }
 
     @Override
     protected CircuitDocument read(JsonInput in) throws FormatException {
-        Pass pass = new Pass(in, limits());
-        try (DeferredNumbers numbers = pass.numbers) {
+        try (Pass pass = new Pass(in, limits(), splitAtLeast, tailEvents); DeferredNumbers numbers = pass.numbers) {
             return pass.run();
         }
     }
 
     /** The state of one read. */
-    private static final class Pass {
-        private final JsonInput in;
+    private static final class Pass implements AutoCloseable {
+        /** The input: the file's, then the tail's once it is taken ({@link NodeArrayTail}). */
+        private JsonInput in;
         private final ReadLimits limits;
+        private final long splitAtLeast;
+        /** The document's members before {@code nodes}, in order. */
+        private final List<String> membersBefore = new ArrayList<>();
+        private NodeArrayTail tail;
+        private final Consumer<Boolean> tailEvents;
         private final String file;
         private final List<ReadFinding> unknown = new ArrayList<>();
         private final DocumentLocations.Recorder locations = new DocumentLocations.Recorder();
@@ -60,13 +85,12 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         private final NodeTable.Builder table = new NodeTable.Builder();
         /** Decodes the weights on a second thread while the read goes on. */
         final DeferredNumbers numbers = new DeferredNumbers(table);
-        /** The nodes read so far: while a node is read, its position in the nodes array. */
-        private int nodeCount;
-        private final NodeFields fields = new NodeFields();
 
-        Pass(JsonInput in, ReadLimits limits) {
+        Pass(JsonInput in, ReadLimits limits, long splitAtLeast, Consumer<Boolean> tailEvents) {
             this.in = in;
             this.limits = limits;
+            this.splitAtLeast = splitAtLeast;
+            this.tailEvents = tailEvents;
             this.file = in.file();
         }
 
@@ -86,6 +110,9 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             String member;
             while ((member = in.nextProperty()) != null) {
                 String ptr = "/" + member;
+                if (!sawNodes && !member.equals("nodes")) {
+                    membersBefore.add(member);
+                }
                 locations.put(ptr, in.line(), in.column());
                 switch (member) {
                     case "format" -> {
@@ -266,358 +293,57 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
 
         private void readNodes(String ptr) throws FormatException {
             in.expect(JsonToken.START_ARRAY, ptr, "an array of nodes");
+            tail = NodeArrayTail.start(in, limits, splitAtLeast, membersBefore, in.byteOffset());
+            NodeArrayReader nodes = new NodeArrayReader(in, limits, table, nodeLocations, numbers, unknown);
+            long meet = tail == null ? Long.MAX_VALUE : tail.nodeOffset();
             while (in.nextElement()) {
-                int index = nodeCount;
-                if (index >= limits.maxNodes()) {
-                    throw LimitExceededException.of(file, in.line(), in.column(), ptr + "/" + index,
-                            "the number of nodes", ReadLimits.MAX_NODES, limits.maxNodes());
+                if (meet != Long.MAX_VALUE && in.byteOffset() >= meet) {
+                    meet = Long.MAX_VALUE;
+                    if (in.byteOffset() == tail.nodeOffset() && takeTail(nodes)) {
+                        return;
+                    }
+                    closeTail();
                 }
-                long at = in.position();
-                int line = (int) (at >>> 32);
-                int column = (int) at;
-                nodeLocations.add(line, column);
-                readNode(line, column);
-                nodeCount++;
+                nodes.readNext(ptr);
             }
-        }
-
-        /** The pointer of the node being read, made only for a message or a finding (not once per node). */
-        String nodePointer() {
-            return "/nodes/" + nodeCount;
-        }
-
-        private void readNode(int line, int col) throws FormatException {
-            if (in.token() != JsonToken.START_OBJECT) {
-                in.expect(JsonToken.START_OBJECT, nodePointer(), "a node object");
-            }
-            NodeFields f = fields;
-            f.reset();
-            String m;
-            while ((m = in.nextProperty()) != null) {
-                // a member's pointer is built only where it is needed, for a message or a finding
-                switch (m) {
-                    case "id" -> {
-                        f.id = intMember(m);
-                        f.hasId = true;
-                    }
-                    case "label" -> f.label = in.readString(nodePointer() + "/" + m);
-                    case "input" -> {
-                        f.kinds++;
-                        String written = in.stringOrNull();
-                        f.family = written == null ? null : Family.fromJsonName(written);
-                        if (f.family == null) {
-                            String q = nodePointer() + "/" + m;
-                            String fam = in.readString(q);
-                            throw in.error(q, "unknown input family \"" + fam + "\"; expected one of "
-                                    + familyNames());
-                        }
-                    }
-                    case "product" -> {
-                        f.kinds++;
-                        f.isProduct = true;
-                        readIds(m);
-                    }
-                    case "sum" -> {
-                        f.kinds++;
-                        f.isSum = true;
-                        readIds(m);
-                    }
-                    case "weights" -> {
-                        f.weightForms++;
-                        readWeights(m);
-                    }
-                    case "logWeights" -> {
-                        f.weightForms++;
-                        readWeights(m);
-                        f.logWeights = true;
-                    }
-                    case "var" -> f.vars = new int[] {intMember(m)};
-                    case "vars" -> {
-                        f.varsArray = true;
-                        f.vars = in.readIntArray(nodePointer() + "/" + m, 0, Integer.MAX_VALUE);
-                    }
-                    default -> {
-                        if (ParamNames.isParameter(m)) {
-                            long at = in.position();
-                            f.paramLocations.put(m, new int[] {(int) (at >>> 32), (int) at});
-                            f.params.put(m, readParamValue(m));
-                        } else {
-                            unknown(nodePointer() + "/" + m, "unknown property \"" + m + "\" in a node");
-                            in.skipValue();
-                        }
-                    }
-                }
-            }
-            f.build(line, col, this);
-        }
-
-        /** A non-negative int member {@code m} of the node being read. */
-        private int intMember(String m) throws FormatException {
-            return in.isIntIn(0, Integer.MAX_VALUE) ? in.intValue()
-                    : in.readInt(nodePointer() + "/" + m, 0, Integer.MAX_VALUE);
-        }
-
-        /** Appends the child ids of member {@code m} of the node being read to the table. */
-        private void readIds(String m) throws FormatException {
-            if (in.token() != JsonToken.START_ARRAY) {
-                in.expect(JsonToken.START_ARRAY, nodePointer() + "/" + m, "an array of node ids");
-            }
-            int n = 0;
-            while (in.nextElement()) {
-                table.appendChild(in.isIntIn(0, Integer.MAX_VALUE) ? in.intValue()
-                        : in.readInt(nodePointer() + "/" + m + "/" + n, 0, Integer.MAX_VALUE));
-                n++;
-            }
-        }
-
-        /** Appends the numbers of member {@code m} (weights or log-weights) of the node being read to the table. */
-        private void readWeights(String m) throws FormatException {
-            if (in.token() != JsonToken.START_ARRAY) {
-                in.readDoubleArray(nodePointer() + "/" + m);
-            }
-            int n = 0;
-            while (in.nextElement()) {
-                if (!numbers.offer(in.parser())) {
-                    double v = in.finiteOrNaN();
-                    table.appendValue(Double.isFinite(v) ? v : in.readDouble(nodePointer() + "/" + m + "/" + n));
-                }
-                n++;
-            }
+            closeTail();
         }
 
         /**
-         * Parameter {@code m} of the node being read: a number, an array of numbers or an array of arrays
-         * of numbers. Pointers are made only for a message.
+         * At the node where the tail started: takes its nodes and goes on with its input when it holds
+         * ({@link NodeArrayTail}), else leaves the read as it was.
          */
-        private Object readParamValue(String m) throws FormatException {
-            if (in.token() == JsonToken.START_ARRAY) {
-                List<Object> rows = new ArrayList<>();
-                double[] flat = new double[8];
-                int n = 0;
-                boolean nested = false;
-                while (in.nextElement()) {
-                    int k = nested ? rows.size() : n;
-                    if (in.token() == JsonToken.START_ARRAY) {
-                        if (n > 0) {
-                            throw in.error(paramPointer(m, k), "expected a number like the elements before it, found an array");
-                        }
-                        nested = true;
-                        rows.add(in.readDoubleArray(paramPointer(m, k)));
-                    } else {
-                        if (nested) {
-                            throw in.error(paramPointer(m, k), "expected an array like the rows before it, found "
-                                    + JsonInput.describe(in.token()));
-                        }
-                        if (n == flat.length) {
-                            flat = Arrays.copyOf(flat, n * 2);
-                        }
-                        double v = in.finiteOrNaN();
-                        flat[n++] = Double.isFinite(v) ? v : in.readDouble(paramPointer(m, k));
-                    }
-                }
-                if (nested) {
-                    return rows.toArray(new double[0][]);
-                }
-                return Arrays.copyOf(flat, n);
+        private boolean takeTail(NodeArrayReader nodes) throws FormatException {
+            int line = in.line();
+            int column = in.column();
+            if (!tail.handOver(line, column, nodes.count(), limits.maxNodes())) {
+                return false;
             }
-            double v = in.finiteOrNaN();
-            return Double.isFinite(v) ? v : in.readDouble(nodePointer() + "/" + m);
+            table.appendAll(tail.table());
+            nodeLocations.appendAll(tail.locations(), line, column);
+            in = tail.input();
+            tailEvents.accept(Boolean.TRUE);
+            return true;
         }
 
-        private String paramPointer(String m, int k) {
-            return nodePointer() + "/" + m + "/" + k;
+        /** Drops a tail that does not hold (the read goes on as if there were none). */
+        private void closeTail() {
+            if (tail != null) {
+                tail.close();
+                tail = null;
+                tailEvents.accept(Boolean.FALSE);
+            }
         }
 
-        FormatException error(String pointer, int line, int col, String problem) {
-            return new FormatException(file, line, col, pointer, problem);
-        }
-
-        void unknownAt(String pointer, int line, int col, String message) {
-            unknown.add(new ReadFinding(ReadFinding.Kind.UNKNOWN_PROPERTY, message, new SourceLocation(pointer, line, col)));
-        }
-    }
-
-    private static String familyNames() {
-        StringBuilder sb = new StringBuilder();
-        for (Family f : Family.values()) {
-            if (sb.length() > 0) {
-                sb.append(", ");
-            }
-            sb.append(f.jsonName());
-        }
-        return sb.toString();
-    }
-
-    /** The members of the node being read; reused from node to node. */
-    private static final class NodeFields {
-        int id;
-        boolean hasId;
-        String label;
-        int kinds;
-        Family family;
-        boolean isProduct;
-        boolean isSum;
-        int weightForms;
-        boolean logWeights;
-        int[] vars;
-        boolean varsArray;
-        final Map<String, Object> params = new LinkedHashMap<>();
-        final Map<String, int[]> paramLocations = new LinkedHashMap<>();
-
-        void reset() {
-            id = 0;
-            hasId = false;
-            label = null;
-            kinds = 0;
-            family = null;
-            isProduct = false;
-            isSum = false;
-            weightForms = 0;
-            logWeights = false;
-            vars = null;
-            varsArray = false;
-            params.clear();
-            paramLocations.clear();
-        }
-
-        /** Checks the node read and closes it in the table (its child ids and weights are there already). */
-        void build(int line, int col, Pass pass) throws FormatException {
-            if (!hasId) {
-                throw pass.error(pass.nodePointer() + "/id", line, col, "a node needs an integer \"id\"");
-            }
-            if (kinds == 0) {
-                throw pass.error(pass.nodePointer(), line, col, "node " + id + " has no kind; expected one of \"input\", \"product\" or \"sum\"");
-            }
-            if (kinds > 1) {
-                throw pass.error(pass.nodePointer(), line, col, "node " + id + " has more than one kind; expected exactly one of \"input\", \"product\" or \"sum\"");
-            }
-            if (isProduct || isSum) {
-                if (vars != null) {
-                    throw pass.error(pass.nodePointer(), line, col, "node " + id + " is a " + (isSum ? "sum" : "product")
-                            + " and cannot have \"var\" or \"vars\"");
+        /** Stops a tail still running; closes its input once handed over (the caller closes the first). */
+        @Override
+        public void close() throws FormatException {
+            if (tail != null) {
+                tail.close();
+                if (in == tail.input()) {
+                    in.close();
                 }
-                for (String name : params.keySet()) {
-                    int[] at = paramLocations.get(name);
-                    pass.unknownAt(pass.nodePointer() + "/" + name, at[0], at[1], "unknown property \"" + name + "\" in a "
-                            + (isSum ? "sum" : "product") + " node");
-                }
-            }
-            if (isProduct) {
-                if (weightForms > 0) {
-                    throw pass.error(pass.nodePointer(), line, col, "product node " + id + " cannot have weights; only sums are weighted");
-                }
-                pass.table.close(NodeTable.PRODUCT, id, label, null, false);
-                return;
-            }
-            if (isSum) {
-                if (weightForms == 0) {
-                    throw pass.error(pass.nodePointer(), line, col, "sum node " + id + " needs \"weights\" or \"logWeights\", one per child");
-                }
-                if (weightForms > 1) {
-                    throw pass.error(pass.nodePointer(), line, col, "sum node " + id + " has both \"weights\" and \"logWeights\"; expected exactly one");
-                }
-                pass.table.close(NodeTable.SUM, id, label, null, logWeights);
-                return;
-            }
-            buildInput(line, col, pass);
-        }
-
-        private void buildInput(int line, int col, Pass pass) throws FormatException {
-            if (weightForms > 0) {
-                throw pass.error(pass.nodePointer(), line, col, "input node " + id + " cannot have weights; only sums are weighted");
-            }
-            boolean mv = family == Family.MVNORMAL;
-            if (vars == null) {
-                throw pass.error(pass.nodePointer(), line, col, "input node " + id + " needs " + (mv ? "\"vars\"" : "\"var\"")
-                        + " (a variable index" + (mv ? " array" : "") + ")");
-            }
-            if (mv != varsArray) {
-                throw pass.error(pass.nodePointer(), line, col, mv ? "mvnormal node " + id + " needs \"vars\" (an array of variable indices), not \"var\""
-                        : family.jsonName() + " node " + id + " needs \"var\" (one variable index), not \"vars\"");
-            }
-            double[] values;
-            boolean logForm = false;
-            String fam = family.jsonName();
-            switch (family) {
-                case CATEGORICAL -> {
-                    boolean hasProbs = params.containsKey("probs");
-                    boolean hasLog = params.containsKey("logProbs");
-                    if (hasProbs == hasLog) {
-                        throw pass.error(pass.nodePointer(), line, col, "categorical node " + id
-                                + " needs exactly one of \"probs\" or \"logProbs\"");
-                    }
-                    logForm = hasLog;
-                    values = vector(hasLog ? "logProbs" : "probs", line, col, pass);
-                    rejectOthers(pass, hasLog ? "logProbs" : "probs");
-                }
-                case MVNORMAL -> {
-                    double[] mean = vector("mean", line, col, pass);
-                    Object c = params.get("cov");
-                    if (!(c instanceof double[][] cov)) {
-                        int[] at = paramLocations.getOrDefault("cov", new int[] {line, col});
-                        throw pass.error(pass.nodePointer() + "/cov", at[0], at[1], "mvnormal node " + id
-                                + " needs \"cov\", a d x d array of arrays of numbers");
-                    }
-                    int d = mean.length;
-                    if (vars.length != d || cov.length != d) {
-                        throw pass.error(pass.nodePointer(), line, col, "mvnormal node " + id + " has " + vars.length + " vars, a mean of length "
-                                + d + " and " + cov.length + " covariance rows; expected the same number d");
-                    }
-                    values = new double[d + d * d];
-                    System.arraycopy(mean, 0, values, 0, d);
-                    for (int i = 0; i < d; i++) {
-                        if (cov[i].length != d) {
-                            throw pass.error(pass.nodePointer() + "/cov/" + i, line, col, "covariance row " + i + " of mvnormal node " + id
-                                    + " has " + cov[i].length + " entries; expected " + d);
-                        }
-                        System.arraycopy(cov[i], 0, values, d + i * d, d);
-                    }
-                    rejectOthers(pass, "mean", "cov");
-                }
-                default -> {
-                    List<String> names = family.parameters();
-                    values = new double[names.size()];
-                    for (int i = 0; i < values.length; i++) {
-                        Object v = params.get(names.get(i));
-                        if (v == null) {
-                            throw pass.error(pass.nodePointer(), line, col, fam + " node " + id + " needs \"" + names.get(i) + "\" (a number)");
-                        }
-                        if (!(v instanceof Double d)) {
-                            int[] at = paramLocations.get(names.get(i));
-                            throw pass.error(pass.nodePointer() + "/" + names.get(i), at[0], at[1], "\"" + names.get(i) + "\" of " + fam
-                                    + " node " + id + " must be a number, found an array");
-                        }
-                        values[i] = d;
-                    }
-                    rejectOthers(pass, names.toArray(new String[0]));
-                }
-            }
-            for (int v : vars) {
-                pass.table.appendVar(v);
-            }
-            for (double v : values) {
-                pass.table.appendValue(v);
-            }
-            pass.table.close(NodeTable.INPUT, id, label, family, logForm);
-        }
-
-        private double[] vector(String name, int line, int col, Pass pass) throws FormatException {
-            Object v = params.get(name);
-            if (!(v instanceof double[] a)) {
-                int[] at = paramLocations.getOrDefault(name, new int[] {line, col});
-                throw pass.error(pass.nodePointer() + "/" + name, at[0], at[1], family.jsonName() + " node " + id + " needs \"" + name
-                        + "\", an array of numbers");
-            }
-            return a;
-        }
-
-        private void rejectOthers(Pass pass, String... allowed) {
-            List<String> ok = List.of(allowed);
-            for (Map.Entry<String, int[]> e : paramLocations.entrySet()) {
-                if (!ok.contains(e.getKey())) {
-                    pass.unknownAt(pass.nodePointer() + "/" + e.getKey(), e.getValue()[0], e.getValue()[1], "unknown property \""
-                            + e.getKey() + "\" for a " + family.jsonName() + " input");
-                }
+                tail = null;
             }
         }
     }

@@ -2,6 +2,7 @@ package dev.circa.format.io;
 
 import java.io.IOException;
 import java.io.InputStream;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Arrays;
 import java.util.Locale;
@@ -30,6 +31,15 @@ public final class JsonInput implements AutoCloseable {
 
     private final JsonParser parser;
     private final String file;
+    /** The regular file read as stored (not standard input, not gzip), or {@code null}: see {@link #storedFile()}. */
+    private Path storedFile;
+    /** The value of the integer {@link #isIntIn(int, int)} last accepted. */
+    private int intValue;
+    /** Added to every line the parser reports: the input starts this many lines into the file. */
+    private int lineShift;
+    /** Added to the columns of the parser's {@link #shiftedLine} (where the input starts within a file's line). */
+    private int columnShift;
+    private int shiftedLine;
 
     /** Wraps an existing parser (its stream-read constraints should come from {@link #mapperFor(ReadLimits)}). */
     public JsonInput(JsonParser parser, String file) {
@@ -40,7 +50,46 @@ public final class JsonInput implements AutoCloseable {
     /** Opens a JSON file (or standard input for {@code -}) under {@code limits}. */
     public static JsonInput openJson(Path path, ReadLimits limits) throws FormatException {
         InputStream in = InputFiles.open(path, limits.maxBytes());
-        return fromStream(in, InputFiles.displayName(path), limits);
+        JsonInput input = fromStream(in, InputFiles.displayName(path), limits);
+        if (!InputFiles.isReadOnce(path) && !InputFiles.isGzipName(String.valueOf(path.getFileName()))
+                && Files.isRegularFile(path)) {
+            input.storedFile = path;
+        }
+        return input;
+    }
+
+    /**
+     * The file this input reads when its bytes are the file's as stored (a regular file, not gzip, not
+     * standard input), so that a second reader may open it at any byte offset; otherwise {@code null}.
+     */
+    Path storedFile() {
+        return storedFile;
+    }
+
+    /**
+     * Makes this input, whose second line starts at line {@code line}, column {@code column} of a file
+     * (after a first line of its own), report its locations as the file's.
+     */
+    void moveTo(int line, int column) {
+        lineShift = line - 2;
+        shiftedLine = 2;
+        columnShift = column - 1;
+    }
+
+    /** The file's line of the parser's line {@code l} (0 when unknown). */
+    private int fileLine(int l) {
+        return l <= 0 ? 0 : l + lineShift;
+    }
+
+    /** The file's column of the parser's column {@code c} on its line {@code l}. */
+    private int fileColumn(int l, int c) {
+        return Math.max(c, 0) + (l == shiftedLine ? columnShift : 0);
+    }
+
+    /** The byte offset of the current token in the input, or -1 when the parser does not know it. */
+    long byteOffset() {
+        TokenStreamLocation l = parser.currentTokenLocation();
+        return l == null ? -1 : l.getByteOffset();
     }
 
     /** Reads JSON from {@code in} under {@code limits}; {@code file} names it in messages. */
@@ -107,19 +156,22 @@ public final class JsonInput implements AutoCloseable {
     /** Line of the current token (1-based). */
     public int line() {
         TokenStreamLocation l = parser.currentTokenLocation();
-        return l == null ? 0 : Math.max(l.getLineNr(), 0);
+        return l == null ? 0 : fileLine(l.getLineNr());
     }
 
     /** Column of the current token (1-based). */
     public int column() {
         TokenStreamLocation l = parser.currentTokenLocation();
-        return l == null ? 0 : Math.max(l.getColumnNr(), 0);
+        return l == null ? 0 : fileColumn(l.getLineNr(), l.getColumnNr());
     }
 
     /** Line (high 32 bits) and column (low 32 bits) of the current token, from one location lookup. */
     public long position() {
         TokenStreamLocation l = parser.currentTokenLocation();
-        return l == null ? 0 : ((long) Math.max(l.getLineNr(), 0) << 32) | Math.max(l.getColumnNr(), 0);
+        if (l == null) {
+            return 0;
+        }
+        return ((long) fileLine(l.getLineNr()) << 32) | fileColumn(l.getLineNr(), l.getColumnNr());
     }
 
     /** A located error at the current token. */
@@ -311,20 +363,39 @@ public final class JsonInput implements AutoCloseable {
         if (token() != JsonToken.VALUE_NUMBER_INT) {
             return false;
         }
+        // the digits read here (the parser checked the syntax): one loop for every length of integer, where
+        // the parser's own decoding switches on the length and is compiled anew for each new one it meets
+        char[] text;
+        int off;
+        int len;
         try {
-            if (parser.getNumberType() != JsonParser.NumberType.INT) {
-                return false;
-            }
-            int v = parser.getIntValue();
-            return v >= min && v <= max;
+            text = parser.getStringCharacters();
+            off = parser.getStringOffset();
+            len = parser.getStringLength();
         } catch (JacksonException e) {
             throw fail(e);
         }
+        boolean negative = len > 0 && text[off] == '-';
+        int k = negative ? off + 1 : off;
+        int end = off + len;
+        if (end - k > 10 || end == k) {
+            return false;
+        }
+        long v = 0;
+        for (; k < end; k++) {
+            v = v * 10 + (text[k] - '0');
+        }
+        v = negative ? -v : v;
+        if (v < min || v > max) {
+            return false;
+        }
+        intValue = (int) v;
+        return true;
     }
 
     /** The value of the current token, after {@link #isIntIn(int, int)} said yes. */
     public int intValue() {
-        return parser.getIntValue();
+        return intValue;
     }
 
     /** The current token's value when it is a finite number, else NaN (the caller then reads it for the message). */
@@ -374,7 +445,7 @@ public final class JsonInput implements AutoCloseable {
                 buf = Arrays.copyOf(buf, n * 2);
             }
             // the pointer is built only for a message: a large array costs no string per element
-            buf[n] = isIntIn(min, max) ? parser.getIntValue() : readInt(pointer + "/" + n, min, max);
+            buf[n] = isIntIn(min, max) ? intValue : readInt(pointer + "/" + n, min, max);
             n++;
         }
         return Arrays.copyOf(buf, n);
@@ -418,7 +489,7 @@ public final class JsonInput implements AutoCloseable {
     private FormatException fail(JacksonException e) {
         FormatException f = translate(e, file);
         if (f.line() > 0) {
-            return f;
+            return shiftedLine == 0 ? f : f.relocated(fileLine(f.line()), fileColumn(f.line(), f.column()));
         }
         TokenStreamLocation l = parser.currentLocation();
         if (l == null || l.getLineNr() <= 0) {
@@ -427,7 +498,7 @@ public final class JsonInput implements AutoCloseable {
         if (l == null || l.getLineNr() <= 0) {
             return f;
         }
-        return f.relocated(l.getLineNr(), Math.max(1, l.getColumnNr()));
+        return f.relocated(fileLine(l.getLineNr()), fileColumn(l.getLineNr(), Math.max(1, l.getColumnNr())));
     }
 
     /** Turns a Jackson exception into a located {@link FormatException}. */

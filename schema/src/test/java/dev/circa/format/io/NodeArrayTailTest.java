@@ -1,0 +1,218 @@
+package dev.circa.format.io;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import dev.circa.format.CircuitDocument;
+import dev.circa.format.NodeTable;
+import dev.circa.format.ReadFinding;
+import dev.circa.format.SourceLocation;
+import java.io.ByteArrayOutputStream;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import java.util.Random;
+import java.util.concurrent.atomic.AtomicInteger;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+/**
+ * A file read in two halves on two threads ({@link NodeArrayTail}) gives exactly what the read by one
+ * thread gives: the same nodes (numbers to the bit), locations, findings, and the same error at the same
+ * line and column, whatever the layout (one line, a node per line, CRLF, tabs, several lines per node,
+ * multi-byte text before the split) and wherever a problem sits (before the split, after it, after the
+ * nodes). Each case also says whether the second half was taken, so that both ways are exercised.
+ */
+class NodeArrayTailTest {
+    /** Reads every stored file in two halves. */
+    private static final long ALWAYS = 0;
+
+    @TempDir
+    Path dir;
+
+    /** The outcome of a read as text: every member of the document, or the error with its location. */
+    private static String outcome(CircuitReader reader, Path file) {
+        try {
+            return describe(reader.read(file));
+        } catch (FormatException e) {
+            return e.getClass().getSimpleName() + " " + e.line() + ":" + e.column() + " " + e.pointer() + " " + e.getMessage();
+        } catch (java.io.IOException | RuntimeException e) {
+            return "unexpected " + e;
+        }
+    }
+
+    private static String describe(CircuitDocument doc) throws java.io.IOException {
+        StringBuilder sb = new StringBuilder();
+        ByteArrayOutputStream text = new ByteArrayOutputStream();
+        new CircuitWriter().write(doc, text);
+        sb.append(text.toString(StandardCharsets.UTF_8)).append('\n');
+        NodeTable t = doc.nodeTable();
+        for (int i = 0; i < t.size(); i++) {
+            SourceLocation at = doc.nodeLocation(i);
+            sb.append(i).append('@').append(at.line()).append(':').append(at.column());
+            // the numbers to the bit (the text above rounds nothing, but says so only through the writer)
+            for (int k = t.valueStart(i); k < t.valueEnd(i); k++) {
+                sb.append(' ').append(Long.toHexString(Double.doubleToRawLongBits(t.value(k))));
+            }
+            sb.append('\n');
+        }
+        for (String p : List.of("/format", "/version", "/variables", "/nodes", "/outputs", "/outputs/0", "/checks",
+                "/extensions", "/name")) {
+            SourceLocation at = doc.location(p);
+            sb.append(p).append('@').append(at == null ? "-" : at.line() + ":" + at.column()).append('\n');
+        }
+        for (ReadFinding f : doc.findings()) {
+            sb.append(f.kind()).append(' ').append(f.location().line()).append(':').append(f.location().column())
+                    .append(' ').append(f.location().pointer()).append(' ').append(f.message()).append('\n');
+        }
+        return sb.toString();
+    }
+
+    /** Reads {@code text} from a file both ways; returns whether the second half was taken. */
+    private boolean assertSameRead(String name, byte[] text, ReadLimits limits) throws Exception {
+        Path file = dir.resolve(name);
+        Files.write(file, text);
+        AtomicInteger taken = new AtomicInteger();
+        String split = outcome(new CircuitReader(limits, ALWAYS, t -> taken.addAndGet(t ? 1 : 0)), file);
+        String single = outcome(new CircuitReader(limits, Long.MAX_VALUE), file);
+        assertEquals(single, split, name);
+        return taken.get() > 0;
+    }
+
+    /** A circuit of {@code n} nodes of every kind: a node per line, or as {@code layout} says. */
+    private static String circuit(int n, String separator, String extraMember, String afterNodes) {
+        StringBuilder sb = new StringBuilder("{\"format\": \"circa.circuit\", \"version\": \"1.0\", \"name\": \"pump-station\",\n"
+                + "\"variables\": [{\"name\": \"inlet_pressure\", \"type\": \"real\"}, {\"name\": \"valve\", \"type\": \"categorical\","
+                + " \"states\": [\"closed\", \"half\", \"open\"]}],\n\"nodes\": [");
+        Random rnd = new Random(n);
+        for (int i = 0; i < n; i++) {
+            sb.append(i == 0 ? separator.replace(",", "") : separator);
+            switch (i < 2 ? i : rnd.nextInt(4)) {
+                case 0 -> sb.append("{\"id\": ").append(i).append(", \"input\": \"normal\", \"var\": 0, \"mean\": ")
+                        .append(rnd.nextGaussian()).append(", \"sd\": ").append(0.1 + rnd.nextDouble()).append('}');
+                case 1 -> sb.append("{\"id\": ").append(i).append(", \"label\": \"vanne \u00e9t\u00e9 \u2014 ").append(i)
+                        .append("\", \"input\": \"categorical\", \"var\": 1, \"logProbs\": [-1.2, -0.5, -").append(rnd.nextDouble())
+                        .append("]}");
+                case 2 -> sb.append("{\"id\": ").append(i).append(",\n  \"product\": [").append(rnd.nextInt(i)).append(", ")
+                        .append(rnd.nextInt(i)).append("]}");
+                default -> {
+                    sb.append("{\"id\": ").append(i).append(", \"sum\": [").append(rnd.nextInt(i)).append(", ").append(rnd.nextInt(i))
+                            .append("], \"weights\": [").append(rnd.nextDouble()).append(", 1e-310]");
+                    if (i == n * 3 / 4 && !extraMember.isEmpty()) {
+                        sb.append(", ").append(extraMember);
+                    }
+                    sb.append('}');
+                }
+            }
+        }
+        sb.append("],\n\"outputs\": [{\"name\": \"joint\", \"node\": ").append(n - 1).append("}]").append(afterNodes).append("}\n");
+        return sb.toString();
+    }
+
+    @Test
+    void layouts_sameDocumentAndLocations_secondHalfTaken() throws Exception {
+        String checks = ", \"checks\": {\"atol\": 1e-9, \"cases\": [{\"output\": \"joint\", \"values\": {\"inlet_pressure\": 3.0},"
+                + " \"logDensity\": -1.5}]}, \"extensions\": {\"site\": {\"station\": \"north\"}}";
+        for (String sep : List.of(",\n", ",", ", ", ",\r\n\t", ",\n\n  ")) {
+            String text = circuit(3000, sep, "", checks);
+            assertTrue(assertSameRead("layout.json", text.getBytes(StandardCharsets.UTF_8), ReadLimits.DEFAULT),
+                    "second half taken with separator " + sep.replace("\n", "\\n").replace("\r", "\\r").replace("\t", "\\t"));
+        }
+    }
+
+    @Test
+    void problemsAfterTheSplit_sameErrorOrFindingAtTheSameLineAndColumn() throws Exception {
+        // each problem sits in the second half (or after the nodes): the tail must not change what is reported
+        List<String[]> cases = List.of(
+                new String[] {"\"pressure_note\": 1", ""},
+                new String[] {"\"weights\": [1]", ""},
+                new String[] {"\"label\": 7", ""},
+                new String[] {"\"logWeights\": [0, 0]", ""},
+                new String[] {"", ", \"format\": \"circa.circuit\""},
+                new String[] {"", ", \"outputs\": []"},
+                new String[] {"", ", \"checks\": {\"cases\": [{\"output\": \"joint\"}]}"},
+                new String[] {"", ", \"unknown_member\": {\"a\": [1, 2]}"},
+                new String[] {"", ", \"checks\": {\"atol\": 1e999}"});
+        for (String sep : List.of(",\n", ",")) {
+            for (String[] c : cases) {
+                String text = circuit(2000, sep, c[0], c[1]);
+                assertSameRead("problem.json", text.getBytes(StandardCharsets.UTF_8), ReadLimits.DEFAULT);
+            }
+            // a syntax error and a bad number late in the file; the nodes limit crossed in the second half
+            String text = circuit(2000, sep, "", "");
+            int late = text.length() * 7 / 8;
+            assertSameRead("syntax.json", (text.substring(0, late) + "]" + text.substring(late)).getBytes(StandardCharsets.UTF_8),
+                    ReadLimits.DEFAULT);
+            assertSameRead("number.json", text.replace("1e-310]}]", "1e-310, 1e999]}]").getBytes(StandardCharsets.UTF_8),
+                    ReadLimits.DEFAULT);
+            assertSameRead("limit.json", text.getBytes(StandardCharsets.UTF_8),
+                    new ReadLimits(ReadLimits.DEFAULT.maxBytes(), 1500, ReadLimits.DEFAULT.maxDepth(),
+                            ReadLimits.DEFAULT.maxString(), ReadLimits.DEFAULT.maxNumber()));
+        }
+    }
+
+    @Test
+    void problemsBeforeTheSplit_reportedAsByOneThread_noThreadLeft() throws Exception {
+        String text = circuit(2000, ",\n", "", "");
+        int early = text.indexOf("\"nodes\"") + 200;
+        for (String bad : List.of("}", "\"x\"", "[", "-")) {
+            byte[] b = (text.substring(0, early) + bad + text.substring(early)).getBytes(StandardCharsets.UTF_8);
+            assertSameRead("early.json", b, ReadLimits.DEFAULT);
+        }
+        Thread.getAllStackTraces().keySet().forEach(t -> assertTrue(!t.getName().equals("circa-read-tail") || !t.isAlive()
+                || t.getState() == Thread.State.TERMINATED, "a tail thread is left: " + t));
+    }
+
+    @Test
+    void splitInsideAStringOrAfterTheNodes_dropped_sameDocument() throws Exception {
+        // labels full of "},{" around the middle: the guess may land inside a string, which the reader never meets
+        StringBuilder sb = new StringBuilder(circuit(50, ",\n", "", ""));
+        String label = "\"label\": \"" + "},{\\\"id\\\": 1},{".repeat(3000) + "\", ";
+        int at = sb.indexOf("{\"id\": 25,") + 1;
+        sb.insert(at, label);
+        assertSameRead("string.json", sb.toString().getBytes(StandardCharsets.UTF_8), ReadLimits.DEFAULT);
+        // a few nodes, then a large extension made of objects in an array: the middle is past the nodes
+        String ext = ", \"extensions\": {\"log\": [" + "{\"id\": 1, \"sum\": [0]},".repeat(5000) + "{}]}";
+        AtomicInteger events = new AtomicInteger();
+        Path file = dir.resolve("ext.json");
+        Files.writeString(file, circuit(20, ",\n", "", ext));
+        String split = outcome(new CircuitReader(ReadLimits.DEFAULT, ALWAYS, t -> events.addAndGet(t ? 100 : 1)), file);
+        assertEquals(outcome(new CircuitReader(ReadLimits.DEFAULT, Long.MAX_VALUE), file), split);
+        assertEquals(1, events.get(), "the tail started and was dropped");
+    }
+
+    @Test
+    void mutatedFixturesAndLargerCircuits_splitReadSameAsSingleRead() throws Exception {
+        List<byte[]> corpus = new java.util.ArrayList<>(CircuitReaderFuzzTest.fixtures());
+        int fixtures = corpus.size();
+        for (int k = 0; k < fixtures / 2; k++) {
+            // as many larger circuits as fixtures: most of their mutations leave the middle intact
+            corpus.add(circuit(100 + 37 * k, k % 2 == 0 ? ",\n" : ",", "", "").getBytes(StandardCharsets.UTF_8));
+        }
+        InputMutator mutator = new InputMutator(20261203L, corpus);
+        int taken = 0;
+        for (int i = 0; i < 1500; i++) {
+            byte[] input = mutator.next();
+            try {
+                taken += assertSameRead("mutated.json", input, ReadLimits.DEFAULT) ? 1 : 0;
+            } catch (AssertionError e) {
+                throw new AssertionError("mutation " + i + " (" + mutator.lastMutations() + "): " + e.getMessage(), e);
+            }
+        }
+        // most mutations break the text somewhere, so that the tail is dropped or never met; some leave it whole
+        assertTrue(taken > 20, taken + " reads took the second half");
+    }
+
+    @Test
+    void smallFileOrStream_readByOneThread() throws Exception {
+        Path file = dir.resolve("small.json");
+        Files.writeString(file, circuit(100, ",\n", "", ""));
+        AtomicInteger events = new AtomicInteger();
+        new CircuitReader(ReadLimits.DEFAULT, Files.size(file) + 1, t -> events.incrementAndGet()).read(file);
+        try (var in = Files.newInputStream(file)) {
+            new CircuitReader(ReadLimits.DEFAULT, ALWAYS, t -> events.incrementAndGet()).read(in, "small.json");
+        }
+        assertEquals(0, events.get(), "no second thread for a small file or a stream");
+    }
+}
