@@ -94,14 +94,32 @@ public final class ReferenceDensities {
     /**
      * {@link #addLogValues} of a normal input at the first {@code n} cells of {@code x}, for {@link #plain}
      * cells and mean (where x - mean cannot overflow while x is finite), the missing cells listed in
-     * {@code missing[m0 .. m1-1]}: the same numbers, in loops the JIT turns into vector instructions (the
-     * formula at every cell into {@code term}, 0 put at the missing ones, then {@code term} added to
-     * {@code dst}) instead of a branch per cell. Every array is read from its start: a loop over
+     * {@code missing[m0 .. m1-1]}, {@code clean} the cells with 0 at the missing ones and {@code seen} 1 at the
+     * observed ones and 0 elsewhere: the same numbers, in loops the JIT turns into vector instructions instead
+     * of a branch per cell. With no missing cell, the formula is added at every cell; else, where the formula
+     * is finite at 0, the formula at {@code clean} times {@code seen} is added (a zero at a missing cell, and
+     * adding a zero leaves every sum the same double); else the formula goes into {@code term}, 0 is put at
+     * the missing cells, and {@code term} is added. Every array is read from its start: a loop over
      * {@code x[from + i]} and {@code dst[at + i]} stayed scalar, several times slower. {@code logSd} is
      * {@code Math.log(sd)}, taken once by the caller; {@code term} holds at least n doubles.
      */
-    public static void addNormalLogValues(double mean, double sd, double logSd, double[] x, int n, int[] missing,
-            int m0, int m1, double[] term, double[] dst) {
+    public static void addNormalLogValues(double mean, double sd, double logSd, double[] x, double[] clean,
+            double[] seen, int n, int[] missing, int m0, int m1, double[] term, double[] dst) {
+        if (m0 == m1) {
+            for (int i = 0; i < n; i++) {
+                double z = (x[i] - mean) / sd;
+                dst[i] += -0.5 * z * z - logSd - HALF_LOG_2PI;
+            }
+            return;
+        }
+        double z0 = (0.0 - mean) / sd;
+        if (Double.isFinite(-0.5 * z0 * z0 - logSd - HALF_LOG_2PI)) {
+            for (int i = 0; i < n; i++) {
+                double z = (clean[i] - mean) / sd;
+                dst[i] += (-0.5 * z * z - logSd - HALF_LOG_2PI) * seen[i];
+            }
+            return;
+        }
         for (int i = 0; i < n; i++) {
             double z = (x[i] - mean) / sd;
             term[i] = -0.5 * z * z - logSd - HALF_LOG_2PI;

@@ -81,6 +81,9 @@ public final class RegionTensorEvaluator {
      * the 9 * 10^6-edge circuit with K = I = 4). Allocated on first use.
      */
     private double[][] columns = new double[0][];
+    /** The same with 0 at the missing cells, and 1 at the observed cells and 0 elsewhere. */
+    private double[][] clean = new double[0][];
+    private double[][] seen = new double[0][];
     /** Per variable: its missing rows in the block are {@code nanRow[nanStart[v] .. nanStart[v+1]-1]}. */
     private final int[] nanStart;
     private int[] nanRow = new int[0];
@@ -387,8 +390,8 @@ public final class RegionTensorEvaluator {
                 int v = vars[j];
                 double mean = normalMean[q];
                 if (plain[v] && mean == mean) {
-                    ReferenceDensities.addNormalLogValues(mean, normalSd[q], normalLogSd[q], columns[v], n,
-                            nanRow, nanStart[v], nanStart[v + 1], term, bundle);
+                    ReferenceDensities.addNormalLogValues(mean, normalSd[q], normalLogSd[q], columns[v], clean[v], seen[v],
+                            n, nanRow, nanStart[v], nanStart[v + 1], term, bundle);
                 } else {
                     ReferenceDensities.addLogValues(family[v], p.inputParams(r, i, j), columns[v], n, bundle);
                 }
@@ -402,6 +405,8 @@ public final class RegionTensorEvaluator {
         int nv = family.length;
         if (columns.length == 0) {
             columns = new double[nv][CHUNK_ROWS];
+            clean = new double[nv][CHUNK_ROWS];
+            seen = new double[nv][CHUNK_ROWS];
             nanRow = new int[Math.multiplyExact(nv, CHUNK_ROWS)];
         }
         for (int row = 0; row < n; row++) {
@@ -414,12 +419,18 @@ public final class RegionTensorEvaluator {
             nanStart[v] = missing;
             boolean ok = true;
             double[] col = columns[v];
+            double[] xc = clean[v];
+            double[] w = seen[v];
             for (int row = 0; row < n; row++) {
                 double x = col[row];
                 if (Double.isNaN(x)) {
                     nanRow[missing++] = row;
+                    xc[row] = 0;
+                    w[row] = 0;
                 } else {
                     ok &= ReferenceDensities.plain(x, false);
+                    xc[row] = x;
+                    w[row] = 1;
                 }
             }
             plain[v] = ok;

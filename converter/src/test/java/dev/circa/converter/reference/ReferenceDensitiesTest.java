@@ -168,6 +168,12 @@ class ReferenceDensitiesTest {
         double[] means = {0, 1.5, -2, 1e-300, 1e5, -4e306, 9e306};
         double[] sds = {1e-300, 1e-150, 0.01, 1, 7.5, 1e150, 1e300, MAX};
         double[] term = new double[n];
+        double[] clean = new double[n];
+        double[] seen = new double[n];
+        for (int i = 0; i < n; i++) {
+            clean[i] = Double.isNaN(cells[i]) ? 0 : cells[i];
+            seen[i] = Double.isNaN(cells[i]) ? 0 : 1;
+        }
         for (double mean : means) {
             for (double sd : sds) {
                 assertTrue(ReferenceDensities.plain(mean, true));
@@ -178,11 +184,22 @@ class ReferenceDensitiesTest {
                     got[i] = want[i];
                 }
                 ReferenceDensities.addLogValues(Family.NORMAL, new double[] {mean, sd}, cells, n, want);
-                ReferenceDensities.addNormalLogValues(mean, sd, Math.log(sd), cells, n, missing, 3, m, term, got);
+                ReferenceDensities.addNormalLogValues(mean, sd, Math.log(sd), cells, clean, seen, n, missing, 3, m, term,
+                        got);
                 for (int i = 0; i <= n; i++) {
                     // the general loop is the reference: the same doubles, cell by cell
                     assertEquals(Double.doubleToRawLongBits(want[i]), Double.doubleToRawLongBits(got[i]),
                             "mean " + mean + ", sd " + sd + ", cell " + i + ": " + want[i] + " against " + got[i]);
+                }
+                // the first three cells alone, none missing
+                double[] want3 = {1, -2, 0};
+                double[] got3 = want3.clone();
+                ReferenceDensities.addLogValues(Family.NORMAL, new double[] {mean, sd}, cells, 3, want3);
+                ReferenceDensities.addNormalLogValues(mean, sd, Math.log(sd), cells, clean, seen, 3, missing, 3, 3, term,
+                        got3);
+                for (int i = 0; i < 3; i++) {
+                    assertEquals(Double.doubleToRawLongBits(want3[i]), Double.doubleToRawLongBits(got3[i]),
+                            "no cell missing: mean " + mean + ", sd " + sd + ", cell " + i);
                 }
                 for (int i = 0; i < n; i++) {
                     double x = cells[i];
