@@ -366,10 +366,10 @@ final class NodeScanner {
                 return family != null;
             }
             case PRODUCT, SUM -> {
-                return ids();
+                return array(true);
             }
             case WEIGHTS, LOG_WEIGHTS, PROBS, LOG_PROBS -> {
-                return numberArray();
+                return array(false);
             }
             default -> {
                 if (!number()) {
@@ -381,8 +381,8 @@ final class NodeScanner {
         }
     }
 
-    /** An array of node ids into {@code children}. */
-    private boolean ids() throws IOException {
+    /** An array of node ids into {@code children}, or of numbers into {@code numbers}. */
+    private boolean array(boolean ids) throws IOException {
         if (buf[pos] != '[') {
             return false;
         }
@@ -395,13 +395,9 @@ final class NodeScanner {
             return true;
         }
         while (true) {
-            if (!uint()) {
+            if (ids ? !id() : !numberToList()) {
                 return false;
             }
-            if (childCount == children.length) {
-                children = Arrays.copyOf(children, childCount * 2);
-            }
-            children[childCount++] = intValue;
             if (!skipSpace()) {
                 return false;
             }
@@ -415,38 +411,28 @@ final class NodeScanner {
         }
     }
 
-    /** An array of numbers into {@code numbers}. */
-    private boolean numberArray() throws IOException {
-        if (buf[pos] != '[') {
+    /** A node id appended to {@code children}. */
+    private boolean id() throws IOException {
+        if (!uint()) {
             return false;
         }
-        pos++;
-        if (!skipSpace()) {
+        if (childCount == children.length) {
+            children = Arrays.copyOf(children, childCount * 2);
+        }
+        children[childCount++] = intValue;
+        return true;
+    }
+
+    /** A number appended to {@code numbers}. */
+    private boolean numberToList() throws IOException {
+        if (!number()) {
             return false;
         }
-        if (buf[pos] == ']') {
-            pos++;
-            return true;
+        if (numberCount == numbers.length) {
+            numbers = Arrays.copyOf(numbers, numberCount * 2);
         }
-        while (true) {
-            if (!number()) {
-                return false;
-            }
-            if (numberCount == numbers.length) {
-                numbers = Arrays.copyOf(numbers, numberCount * 2);
-            }
-            numbers[numberCount++] = doubleValue;
-            if (!skipSpace()) {
-                return false;
-            }
-            byte c = buf[pos++];
-            if (c == ']') {
-                return true;
-            }
-            if (c != ',' || !skipSpace()) {
-                return false;
-            }
-        }
+        numbers[numberCount++] = doubleValue;
+        return true;
     }
 
     // -------- tokens
