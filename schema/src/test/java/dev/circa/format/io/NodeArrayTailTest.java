@@ -132,6 +132,17 @@ class NodeArrayTailTest {
     }
 
     @Test
+    void filesLargerThanTheScanBuffer_sameDocument_secondHalfTaken() throws Exception {
+        // a few MB: the scanners refill their 1 MiB buffers many times, with nodes across the refills
+        for (String sep : List.of(",\n", ",")) {
+            String text = circuit(45_000, sep, "", "");
+            assertTrue(text.length() > 3_000_000, text.length() + " bytes");
+            assertTrue(assertSameRead("large.json", text.getBytes(StandardCharsets.UTF_8), ReadLimits.DEFAULT),
+                    "second half taken");
+        }
+    }
+
+    @Test
     void numbersAndIdsOfEveryForm_sameValuesToTheBitOrSameError() throws Exception {
         // valid forms are read straight from the bytes; the others are left to the parser, whose error is the reference
         List<String> weights = List.of("0", "-0", "1", "0.5", "-0.0", "1e-310", "4.9e-324", "2.2250738585072014e-308",
