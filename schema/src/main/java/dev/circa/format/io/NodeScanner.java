@@ -73,6 +73,9 @@ final class NodeScanner {
     private int lim;
     /** Where the node being read starts in {@code buf}: kept when the buffer is refilled. */
     private int mark;
+    /** The line of the mark, and the file offset where that line starts. */
+    private int markLine;
+    private long markLineStart;
     private boolean eof;
     private int line;
     /** File offset of the first byte of the current line. */
@@ -144,8 +147,7 @@ final class NodeScanner {
             return scanNodes(meet, first);
         } catch (IOException e) {
             // the parser reads on from the node being read, and reports the failure where it meets it
-            pos = mark;
-            return stop(End.LEFT);
+            return back();
         }
     }
 
@@ -157,20 +159,15 @@ final class NodeScanner {
     private End scanNodes(long meet, boolean first) throws IOException {
         boolean atStart = first;
         while (true) {
-            mark = pos;
+            setMark();
             if (stopped) {
                 return stop(End.LEFT);
             }
-            int lineBefore = line;
-            long lineStartBefore = lineStart;
             if (!skipSpace()) {
                 // the parser reads on from where this scan stood (and finds what ends the input there)
-                pos = mark;
-                line = lineBefore;
-                lineStart = lineStartBefore;
-                return stop(End.LEFT);
+                return back();
             }
-            mark = pos;
+            setMark();
             if (atStart && buf[pos] == ']') {
                 return stop(End.ARRAY_END);
             }
@@ -184,8 +181,6 @@ final class NodeScanner {
             }
             int nodeLine = line;
             int nodeColumn = (int) (at - lineStart + 1);
-            int savedLine = line;
-            long savedLineStart = lineStart;
             int kind = node();
             // a node counts only when what follows it is a comma and the next node, or the end of the array
             boolean more = false;
@@ -200,19 +195,31 @@ final class NodeScanner {
                 }
             }
             if (!fine) {
-                pos = mark;
-                line = savedLine;
-                lineStart = savedLineStart;
-                return stop(End.LEFT);
+                return back();
             }
             commit(kind);
             locations.add(nodeLine, nodeColumn);
             count++;
             if (!more) {
-                mark = pos;
+                setMark();
                 return stop(End.ARRAY_END);
             }
         }
+    }
+
+    /** Remembers the current position, and its line, as where a node (or the array's end) starts. */
+    private void setMark() {
+        mark = pos;
+        markLine = line;
+        markLineStart = lineStart;
+    }
+
+    /** Goes back to the mark and leaves what follows to the parser. */
+    private End back() {
+        pos = mark;
+        line = markLine;
+        lineStart = markLineStart;
+        return stop(End.LEFT);
     }
 
     private End stop(End end) {
