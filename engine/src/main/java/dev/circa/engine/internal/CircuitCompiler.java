@@ -6,9 +6,8 @@ import dev.circa.engine.family.ParameterLimits;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.Family;
 import dev.circa.format.InputNode;
-import dev.circa.format.Node;
+import dev.circa.format.NodeTable;
 import dev.circa.format.Output;
-import dev.circa.format.SumNode;
 import dev.circa.format.Variable;
 import dev.circa.format.VariableType;
 import java.util.List;
@@ -25,8 +24,9 @@ public final class CircuitCompiler {
     /** Compiles {@code doc}; throws when a reference, a count or a parameter is broken. */
     public static CircuitData compile(CircuitDocument doc) throws CompileException {
         List<Variable> variables = doc.variables();
-        List<Node> nodes = doc.nodes();
-        int n = nodes.size();
+        // products and sums are read from the table's columns; an input is made a record (its checks use one)
+        NodeTable t = doc.nodeTable();
+        int n = t.size();
         if (n == 0) {
             throw new CompileException(-1, "the circuit has no nodes (expected at least one)");
         }
@@ -38,20 +38,20 @@ public final class CircuitCompiler {
         long paramTotal = 0;
         long factorTotal = 0;
         for (int i = 0; i < n; i++) {
-            Node node = nodes.get(i);
-            int id = node.id();
+            int id = t.id(i);
             if (id < 0) {
                 throw new CompileException(i, where(i, id) + " has a negative id (expected >= 0)");
             }
             nodeId[i] = id;
             identity &= id == i;
-            edges += node.children().length;
-            if (node instanceof InputNode in) {
+            edges += t.childEnd(i) - t.childStart(i);
+            if (t.kind(i) == NodeTable.INPUT) {
                 inputs++;
-                varTotal += in.vars().length;
-                paramTotal += in.params().length;
-                if (in.family() == Family.MVNORMAL) {
-                    factorTotal += (long) in.vars().length * in.vars().length + 1;
+                long nv = t.varEnd(i) - t.varStart(i);
+                varTotal += nv;
+                paramTotal += t.valueEnd(i) - t.valueStart(i);
+                if (t.family(i) == Family.MVNORMAL) {
+                    factorTotal += nv * nv + 1;
                 }
             }
         }
@@ -89,10 +89,11 @@ public final class CircuitCompiler {
         int pp = 0;
         int fp = 0;
         for (int i = 0; i < n; i++) {
-            Node node = nodes.get(i);
+            byte k = t.kind(i);
             childStart[i] = e;
             inputSlot[i] = -1;
-            if (node instanceof InputNode in) {
+            if (k == NodeTable.INPUT) {
+                InputNode in = (InputNode) t.node(i);
                 kind[i] = CircuitData.INPUT;
                 inputSlot[i] = slot;
                 checkInput(i, in, variables);
@@ -113,37 +114,41 @@ public final class CircuitCompiler {
                 }
                 slot++;
             } else {
-                int[] children = node.children();
-                if (children.length == 0) {
+                int c0 = t.childStart(i);
+                int count = t.childEnd(i) - c0;
+                if (count == 0) {
                     throw new CompileException(i, where(i, nodeId[i]) + " has no children (expected at least one)");
                 }
-                boolean sum = node instanceof SumNode;
+                boolean sum = k == NodeTable.SUM;
                 kind[i] = sum ? CircuitData.SUM : CircuitData.PRODUCT;
-                SumNode s = sum ? (SumNode) node : null;
-                if (sum && s.weights().length != children.length) {
+                boolean logWeights = sum && t.logForm(i);
+                int w0 = t.valueStart(i);
+                int weights = t.valueEnd(i) - w0;
+                if (sum && weights != count) {
                     throw new CompileException(i, String.format(Locale.ROOT,
                             "%s has %d %s for %d children (expected one per child)", where(i, nodeId[i]),
-                            s.weights().length, s.logWeights() ? "logWeights" : "weights", children.length));
+                            weights, logWeights ? "logWeights" : "weights", count));
                 }
-                for (int j = 0; j < children.length; j++) {
-                    int c = ids == null ? (children[j] >= 0 && children[j] < n ? children[j] : -1) : ids.get(children[j]);
+                for (int j = 0; j < count; j++) {
+                    int child = t.childId(c0 + j);
+                    int c = ids == null ? (child >= 0 && child < n ? child : -1) : ids.get(child);
                     if (c < 0) {
-                        throw new CompileException(i, where(i, nodeId[i]) + " refers to child id " + children[j]
+                        throw new CompileException(i, where(i, nodeId[i]) + " refers to child id " + child
                                 + ", which no node has");
                     }
                     if (c >= i) {
-                        throw new CompileException(i, where(i, nodeId[i]) + " refers to child id " + children[j]
+                        throw new CompileException(i, where(i, nodeId[i]) + " refers to child id " + child
                                 + " at /nodes/" + c + ", which does not come earlier (expected children first)");
                     }
                     childIndex[e] = c;
                     if (sum) {
-                        double w = s.weights()[j];
-                        if (s.logWeights() ? Double.isNaN(w) || w == Double.POSITIVE_INFINITY : !(w >= 0) || Double.isInfinite(w)) {
+                        double w = t.value(w0 + j);
+                        if (logWeights ? Double.isNaN(w) || w == Double.POSITIVE_INFINITY : !(w >= 0) || Double.isInfinite(w)) {
                             throw new CompileException(i, String.format(Locale.ROOT, "%s has %s %s for child %d (expected %s)",
-                                    where(i, nodeId[i]), s.logWeights() ? "log-weight" : "weight", w, j,
-                                    s.logWeights() ? "a finite number" : "a finite number >= 0"));
+                                    where(i, nodeId[i]), logWeights ? "log-weight" : "weight", w, j,
+                                    logWeights ? "a finite number" : "a finite number >= 0"));
                         }
-                        logWeight[e] = s.logWeights() ? w : Math.log(w);
+                        logWeight[e] = logWeights ? w : Math.log(w);
                     }
                     e++;
                 }

@@ -9,6 +9,10 @@ import dev.circa.format.NodeTable;
 import dev.circa.format.Output;
 import dev.circa.format.ReadFinding;
 import dev.circa.format.SourceLocation;
+import java.io.IOException;
+import java.nio.channels.FileChannel;
+import java.nio.file.Path;
+import java.nio.file.StandardOpenOption;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -32,6 +36,9 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
     /** The newest minor version of format 1 this reader knows. */
     public static final int SUPPORTED_MINOR = 0;
 
+    /** Stored files from this size on have their nodes read straight from their bytes. */
+    static final long SCAN_AT_LEAST = 64 << 10;
+    private final long scanAtLeast;
     private final long splitAtLeast;
     private final Consumer<Boolean> tailEvents;
 
@@ -40,38 +47,37 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
     }
 
     public CircuitReader(ReadLimits limits) {
-        this(limits, NodeArrayTail.MIN_BYTES);
+        this(limits, SCAN_AT_LEAST, NodeArrayTail.MIN_BYTES, taken -> { });
     }
 
     /**
-     * A reader that reads the nodes of files of at least {@code splitAtLeast} bytes in two halves on two
-     * threads ({@link NodeArrayTail}); the document read is the same either way.
+     * A reader that reads the nodes of stored files of at least {@code scanAtLeast} bytes straight from
+     * their bytes ({@link NodeScanner}), and those of at least {@code splitAtLeast} bytes in two halves on
+     * two threads ({@link NodeArrayTail}); {@code tailEvents} hears, for each read that started a second
+     * thread, whether its half was taken ({@code true}) or dropped ({@code false}). The document read is
+     * the same either way.
      */
-    CircuitReader(ReadLimits limits, long splitAtLeast) {
-        this(limits, splitAtLeast, taken -> { });
-    }
-
-    /**
-     * As {@link #CircuitReader(ReadLimits, long)}; {@code tailEvents} hears, for each read that started a
-     * second thread, whether its half was taken ({@code true}) or dropped ({@code false}).
-     */
-    CircuitReader(ReadLimits limits, long splitAtLeast, Consumer<Boolean> tailEvents) {
+    CircuitReader(ReadLimits limits, long scanAtLeast, long splitAtLeast, Consumer<Boolean> tailEvents) {
         super(limits);
+        this.scanAtLeast = scanAtLeast;
         this.splitAtLeast = splitAtLeast;
         this.tailEvents = tailEvents;
     }
 
     @Override
     protected CircuitDocument read(JsonInput in) throws FormatException {
-        try (Pass pass = new Pass(in, limits(), splitAtLeast, tailEvents); DeferredNumbers numbers = pass.numbers) {
+        try (Pass pass = new Pass(in, limits(), scanAtLeast, splitAtLeast, tailEvents); DeferredNumbers numbers = pass.numbers) {
             return pass.run();
         }
     }
 
     /** The state of one read. */
     private static final class Pass implements AutoCloseable {
-        /** The input: the file's, then the tail's once it is taken ({@link NodeArrayTail}). */
+        /** The input: the file's, then a parser resumed after the nodes read straight from the file. */
         private JsonInput in;
+        /** The input the read started with (its caller closes it). */
+        private final JsonInput first;
+        private final long scanAtLeast;
         private final ReadLimits limits;
         private final long splitAtLeast;
         /** The document's members before {@code nodes}, in order. */
@@ -86,8 +92,10 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         /** Decodes the weights on a second thread while the read goes on. */
         final DeferredNumbers numbers = new DeferredNumbers(table);
 
-        Pass(JsonInput in, ReadLimits limits, long splitAtLeast, Consumer<Boolean> tailEvents) {
+        Pass(JsonInput in, ReadLimits limits, long scanAtLeast, long splitAtLeast, Consumer<Boolean> tailEvents) {
             this.in = in;
+            this.first = in;
+            this.scanAtLeast = scanAtLeast;
             this.limits = limits;
             this.splitAtLeast = splitAtLeast;
             this.tailEvents = tailEvents;
@@ -293,13 +301,17 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
 
         private void readNodes(String ptr) throws FormatException {
             in.expect(JsonToken.START_ARRAY, ptr, "an array of nodes");
-            tail = NodeArrayTail.start(in, limits, splitAtLeast, membersBefore, in.byteOffset());
+            int scanned = scanNodes();
+            if (scanned < 0) {
+                return;
+            }
             NodeArrayReader nodes = new NodeArrayReader(in, limits, table, nodeLocations, numbers, unknown);
+            nodes.skipCount(scanned);
             long meet = tail == null ? Long.MAX_VALUE : tail.nodeOffset();
             while (in.nextElement()) {
                 if (meet != Long.MAX_VALUE && in.byteOffset() >= meet) {
                     meet = Long.MAX_VALUE;
-                    if (in.byteOffset() == tail.nodeOffset() && takeTail(nodes)) {
+                    if (in.byteOffset() == tail.nodeOffset() && takeTail(nodes.count(), in.line(), in.column())) {
                         return;
                     }
                     closeTail();
@@ -310,19 +322,80 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         }
 
         /**
-         * At the node where the tail started: takes its nodes and goes on with its input when it holds
-         * ({@link NodeArrayTail}), else leaves the read as it was.
+         * Reads what it can of the nodes array with {@link NodeScanner}s straight from the file (a second
+         * one on a second thread for the second half of a large file), then leaves {@link #in} where the
+         * parser takes over: on the array's end, or before the first node left to it.
+         *
+         * @return the nodes read, or -1 when the whole array was read (and {@link #in} stands after it)
          */
-        private boolean takeTail(NodeArrayReader nodes) throws FormatException {
+        private int scanNodes() throws FormatException {
+            Path file = in.storedFile();
+            long at = in.byteOffset();
+            if (file == null || at < 0 || limits.maxDepth() < 4) {
+                return 0;
+            }
             int line = in.line();
             int column = in.column();
-            if (!tail.handOver(line, column, nodes.count(), limits.maxNodes())) {
+            try (FileChannel ch = FileChannel.open(file, StandardOpenOption.READ)) {
+                long size = ch.size();
+                if (size < scanAtLeast || size > limits.maxBytes() || !NodeArrayTail.startsAsUtf8(ch)) {
+                    return 0;
+                }
+                if (size >= splitAtLeast) {
+                    tail = NodeArrayTail.start(file, size, at, limits);
+                }
+                NodeScanner scanner = new NodeScanner(ch, at + 1, line, column + 1, limits, table, nodeLocations, size);
+                NodeScanner.End end = scanner.scan(tail == null ? Long.MAX_VALUE : tail.nodeOffset(), true);
+                if (end == NodeScanner.End.MET) {
+                    if (takeTail(scanner.count(), scanner.line(), scanner.column())) {
+                        return -1;
+                    }
+                    closeTail();
+                    end = scanner.scan(Long.MAX_VALUE, false);
+                }
+                if (tail != null && scanner.offset() > tail.nodeOffset()) {
+                    closeTail();
+                }
+                resume(scanner.offset(), scanner.line(), scanner.column());
+                return scanner.count();
+            } catch (FormatException e) {
+                throw e;
+            } catch (IOException e) {
+                throw new FormatException(file.toString(), 0, 0, null, "cannot be read: " + IoMessages.of(e));
+            }
+        }
+
+        /** Goes on with a parser that starts at {@code offset} in the nodes array ({@link ResumedInput}). */
+        private void resume(long offset, int line, int column) throws IOException {
+            JsonInput next = ResumedInput.open(first.storedFile(), offset, line, column, membersBefore, limits, file);
+            if (in != first) {
+                in.close();
+            }
+            in = next;
+        }
+
+        /**
+         * At the node where the tail started: takes its nodes and goes on after the array when it holds
+         * ({@link NodeArrayTail}), else leaves the read as it was.
+         */
+        private boolean takeTail(int nodesBefore, int line, int column) throws FormatException {
+            if (!tail.handOver(line, column, nodesBefore, limits.maxNodes())) {
                 return false;
             }
             table.appendAll(tail.table());
             nodeLocations.appendAll(tail.locations(), line, column);
-            in = tail.input();
             tailEvents.accept(Boolean.TRUE);
+            try {
+                resume(tail.endOffset(), tail.endLine(), tail.endColumn());
+                // the tail ended on the array's ']'
+                in.nextElement();
+            } catch (FormatException e) {
+                throw e;
+            } catch (IOException e) {
+                throw new FormatException(file, 0, 0, null, "cannot be read: " + IoMessages.of(e));
+            }
+            tail.close();
+            tail = null;
             return true;
         }
 
@@ -335,15 +408,15 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             }
         }
 
-        /** Stops a tail still running; closes its input once handed over (the caller closes the first). */
+        /** Stops a tail still running; closes a resumed input (the caller closes the first). */
         @Override
         public void close() throws FormatException {
             if (tail != null) {
                 tail.close();
-                if (in == tail.input()) {
-                    in.close();
-                }
                 tail = null;
+            }
+            if (in != first) {
+                in.close();
             }
         }
     }

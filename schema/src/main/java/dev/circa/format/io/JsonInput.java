@@ -40,6 +40,7 @@ public final class JsonInput implements AutoCloseable {
     /** Added to the columns of the parser's {@link #shiftedLine} (where the input starts within a file's line). */
     private int columnShift;
     private int shiftedLine;
+    private long byteShift;
 
     /** Wraps an existing parser (its stream-read constraints should come from {@link #mapperFor(ReadLimits)}). */
     public JsonInput(JsonParser parser, String file) {
@@ -76,6 +77,11 @@ public final class JsonInput implements AutoCloseable {
         columnShift = column - 1;
     }
 
+    /** Makes {@link #byteOffset()} report offsets {@code bytes} further on (where the input starts in a file). */
+    void shiftBytes(long bytes) {
+        byteShift = bytes;
+    }
+
     /** The file's line of the parser's line {@code l} (0 when unknown). */
     private int fileLine(int l) {
         return l <= 0 ? 0 : l + lineShift;
@@ -89,7 +95,7 @@ public final class JsonInput implements AutoCloseable {
     /** The byte offset of the current token in the input, or -1 when the parser does not know it. */
     long byteOffset() {
         TokenStreamLocation l = parser.currentTokenLocation();
-        return l == null ? -1 : l.getByteOffset();
+        return l == null || l.getByteOffset() < 0 ? -1 : l.getByteOffset() + byteShift;
     }
 
     /** Reads JSON from {@code in} under {@code limits}; {@code file} names it in messages. */

@@ -25,17 +25,14 @@ import tools.jackson.core.JsonToken;
  *
  * <p>The split is a guess checked afterwards. When the reader reaches the nodes array, the tail picks a
  * <code>{</code> near the middle of what is left of the file that follows <code>},</code> (as a node
- * follows another) and parses the file from there on as if it were inside the nodes array: its input
- * starts with one line of its own, the document's members read so far and <code>"nodes": [</code>, so
- * that its parser stands where the reader's will stand, duplicate keys included. Its nodes go to a
- * table of their own. The guess holds only if the reader, going on node by node, meets a node that
- * starts at exactly that byte: then the text from there on is the same tokens in the same place for
- * both parsers. The reader then takes the tail's nodes, lines moved down to where the tail started, and
- * reads the rest of the document from the tail's parser, whose lines and columns are moved to the file's. In every other case the reader reads on by
- * itself, as it would have without a tail: when it passes the byte or ends the nodes array without
- * meeting it, or when the tail stopped at anything but a clean end of the array (a syntax error, a
- * limit, an unknown member, anything it would have to report), since what the reader reports must
- * not depend on the split. Used by one reading thread.
+ * follows another) and reads nodes from there with a {@link NodeScanner} of its own, into a table of
+ * its own, counting lines from that brace. The guess holds only if the reader, going on node by node,
+ * meets a node that starts at exactly that byte: the bytes from there on are then nodes of the same
+ * array. The reader then takes the tail's nodes, lines and columns moved to the file's, and goes on
+ * after the array's end. In every other case the reader reads on by itself, as it would have without
+ * a tail: when it passes the byte or ends the nodes array without meeting it, or when the tail stopped
+ * before the end of the array (a node left to the parser: something to report, or a form the scanner
+ * does not read), since what the reader reports must not depend on the split. Used by one reading thread.
  */
 final class NodeArrayTail implements AutoCloseable {
     /** Files smaller than this are read by one thread (a thread and a second parser cost more). */
@@ -44,62 +41,41 @@ final class NodeArrayTail implements AutoCloseable {
     private static final int SCAN_BYTES = 1 << 16;
 
     private final long braceOffset;
-    private final JsonInput input;
+    private final FileChannel channel;
     private final NodeTable.Builder table = new NodeTable.Builder();
     private final NodeLocations.Recorder locations = new NodeLocations.Recorder();
-    private final List<ReadFinding> findings = new ArrayList<>();
-    private final NodeArrayReader reader;
+    private final NodeScanner scanner;
     private final CountDownLatch done = new CountDownLatch(1);
     private final Thread thread;
-    private volatile boolean cancelled;
-    /** Whether the tail read its nodes up to the end of the array with nothing to report. */
+    /** Whether the tail read its nodes up to the end of the array. */
     private volatile boolean clean;
     private volatile Error error;
-    private boolean handedOver;
+    /** Where the array ends, in the file's lines and columns (after {@link #handOver}). */
+    private int endLine;
+    private int endColumn;
 
-    private NodeArrayTail(long braceOffset, JsonInput input, ReadLimits limits) {
+    private NodeArrayTail(long braceOffset, FileChannel channel, ReadLimits limits, long size) {
         this.braceOffset = braceOffset;
-        this.input = input;
-        this.reader = new NodeArrayReader(input, limits, table, locations, null, findings);
+        this.channel = channel;
+        // the tail counts lines from its brace, as line 2 (the line after a first line of its own)
+        this.scanner = new NodeScanner(channel, braceOffset, 2, 1, limits, table, locations, size);
         this.thread = new Thread(this::run, "circa-read-tail");
         thread.setDaemon(true);
     }
 
     /**
-     * Starts reading the second half of the nodes array of {@code main}'s file, or returns {@code null}
-     * when the file does not lend itself to it (not a regular file read as stored, smaller than
-     * {@code minBytes}, larger than the byte limit, not UTF-8 text, nothing near the middle that looks like a node's start).
+     * Starts reading the second half of the nodes array of {@code file} (of {@code size} bytes, read
+     * as stored), or returns {@code null} when nothing near the middle looks like a node's start.
      *
-     * @param membersBefore the document's members read before {@code nodes}, in order
      * @param nodesOffset the byte offset of the nodes array's <code>[</code>
      */
-    static NodeArrayTail start(JsonInput main, ReadLimits limits, long minBytes, List<String> membersBefore, long nodesOffset) {
-        Path file = main.storedFile();
-        if (file == null || nodesOffset < 0) {
-            return null;
-        }
+    static NodeArrayTail start(Path file, long size, long nodesOffset, ReadLimits limits) {
         try (FileChannel ch = FileChannel.open(file, StandardOpenOption.READ)) {
-            long size = ch.size();
-            if (size < minBytes || size > limits.maxBytes() || !startsAsUtf8(ch)) {
-                return null;
-            }
             long brace = objectAfterComma(ch, nodesOffset + (size - nodesOffset) / 2);
             if (brace < 0) {
                 return null;
             }
-            byte[] prefix = prefix(membersBefore);
-            FileChannel tailChannel = FileChannel.open(file, StandardOpenOption.READ);
-            tailChannel.position(brace);
-            InputStream stream = new LimitedInputStream(new SequenceInputStream(new ByteArrayInputStream(prefix),
-                    Channels.newInputStream(tailChannel)), limits.maxBytes() - brace + prefix.length, main.file());
-            JsonInput input;
-            try {
-                input = JsonInput.fromStream(stream, main.file(), limits);
-            } catch (FormatException e) {
-                stream.close();
-                return null;
-            }
-            NodeArrayTail tail = new NodeArrayTail(brace, input, limits);
+            NodeArrayTail tail = new NodeArrayTail(brace, FileChannel.open(file, StandardOpenOption.READ), limits, size);
             tail.thread.start();
             return tail;
         } catch (IOException e) {
@@ -115,11 +91,11 @@ final class NodeArrayTail implements AutoCloseable {
 
     /**
      * Waits for the tail and, when it read cleanly and its nodes fit under {@code maxNodes} after
-     * {@code nodesBefore}, hands it over: its input reports lines as the file's from now on.
+     * {@code nodesBefore}, hands it over: its end is then known in the file's lines and columns.
      *
      * @param line the line of the node the reader met at {@link #nodeOffset()}
      * @param column its column
-     * @return whether the tail holds (its table, locations and input are then the reader's to take)
+     * @return whether the tail holds (its table and locations are then the reader's to take)
      */
     boolean handOver(int line, int column, int nodesBefore, long maxNodes) {
         try {
@@ -132,12 +108,12 @@ final class NodeArrayTail implements AutoCloseable {
         if (e != null) {
             throw e;
         }
-        if (!clean || (long) nodesBefore + reader.count() > maxNodes) {
+        if (!clean || (long) nodesBefore + scanner.count() > maxNodes) {
             return false;
         }
-        // the tail's input has a line of its own, then starts at the node's brace
-        input.moveTo(line, column);
-        handedOver = true;
+        // the tail counted lines from its brace as line 2, column 1
+        endLine = scanner.line() - 2 + line;
+        endColumn = scanner.line() == 2 ? scanner.column() - 1 + column : scanner.column();
         return true;
     }
 
@@ -146,29 +122,36 @@ final class NodeArrayTail implements AutoCloseable {
         return table;
     }
 
-    /** Where the nodes read start, as the tail's input counted them (after {@link #handOver}). */
+    /** Where the nodes read start, as the tail counted them (line 2, column 1 at its brace). */
     NodeLocations.Recorder locations() {
         return locations;
     }
 
     /** The number of nodes read. */
     int count() {
-        return reader.count();
+        return scanner.count();
     }
 
-    /** The input, standing on the end of the nodes array (after {@link #handOver}; the caller closes it). */
-    JsonInput input() {
-        return input;
+    /** The file offset of the nodes array's <code>]</code> (after {@link #handOver}). */
+    long endOffset() {
+        return scanner.offset();
     }
 
-    /** Stops the tail (if it still runs) and waits for it; closes its input unless handed over. */
+    /** The file's line of the array's end (after {@link #handOver}). */
+    int endLine() {
+        return endLine;
+    }
+
+    /** The file's column of the array's end (after {@link #handOver}). */
+    int endColumn() {
+        return endColumn;
+    }
+
+    /** Stops the tail (if it still runs) and waits for it. */
     @Override
     public void close() {
-        cancelled = true;
-        if (!handedOver) {
-            // ends a read of the file in progress (the channel closes): the tail stops within a node
-            thread.interrupt();
-        }
+        scanner.stop();
+        thread.interrupt();
         boolean interrupted = false;
         while (thread.isAlive()) {
             try {
@@ -180,31 +163,16 @@ final class NodeArrayTail implements AutoCloseable {
         if (interrupted) {
             Thread.currentThread().interrupt();
         }
-        if (!handedOver) {
-            closeQuietly(input);
+        try {
+            channel.close();
+        } catch (IOException ignored) {
+            // nothing read from it is kept
         }
     }
 
     private void run() {
         try {
-            input.startDocument("a circuit document");
-            String m;
-            do {
-                // the members the first line repeats (values stand in for the document's)
-                m = input.nextProperty();
-            } while (m != null && !m.equals("nodes"));
-            if (m == null || input.token() != JsonToken.START_ARRAY) {
-                return;
-            }
-            while (!cancelled && input.nextElement()) {
-                reader.readNext("/nodes");
-                if (!findings.isEmpty()) {
-                    return;
-                }
-            }
-            clean = !cancelled;
-        } catch (FormatException | RuntimeException e) {
-            // the reader reads this part itself and reports what there is to report, where it is
+            clean = scanner.scan(Long.MAX_VALUE, false) == NodeScanner.End.ARRAY_END;
         } catch (Error e) {
             error = e;
         } finally {
@@ -212,8 +180,8 @@ final class NodeArrayTail implements AutoCloseable {
         }
     }
 
-    /** Whether the file starts as UTF-8 JSON text would without a byte order mark (no zero in the first bytes). */
-    private static boolean startsAsUtf8(FileChannel ch) throws IOException {
+    /** Whether the file starts as UTF-8 JSON text would without a byte order mark (no zero, nothing past ASCII). */
+    static boolean startsAsUtf8(FileChannel ch) throws IOException {
         ByteBuffer b = ByteBuffer.allocate(4);
         ch.read(b, 0);
         for (int i = 0; i < b.position(); i++) {
@@ -248,33 +216,5 @@ final class NodeArrayTail implements AutoCloseable {
             j--;
         }
         return j >= 0 && b.get(j) == c ? j : -1;
-    }
-
-    /** The tail's first line: the document's members so far, then the opening of the nodes array. */
-    static byte[] prefix(List<String> membersBefore) {
-        StringBuilder sb = new StringBuilder("{");
-        for (String m : membersBefore) {
-            sb.append('"');
-            for (int i = 0; i < m.length(); i++) {
-                char c = m.charAt(i);
-                if (c == '"' || c == '\\' || c < 0x20 || c >= 0x7f) {
-                    // escaped, so that the name is the same whatever it holds (lone surrogates included)
-                    sb.append(String.format(java.util.Locale.ROOT, "\\u%04x", (int) c));
-                } else {
-                    sb.append(c);
-                }
-            }
-            sb.append("\":0,");
-        }
-        sb.append("\"nodes\":[\n");
-        return sb.toString().getBytes(StandardCharsets.US_ASCII);
-    }
-
-    private static void closeQuietly(JsonInput in) {
-        try {
-            in.close();
-        } catch (FormatException ignored) {
-            // nothing read from it is kept
-        }
     }
 }

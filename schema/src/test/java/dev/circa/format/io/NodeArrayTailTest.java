@@ -31,6 +31,11 @@ class NodeArrayTailTest {
     @TempDir
     Path dir;
 
+    /** The reference: every node read by the JSON parser. */
+    private static CircuitReader parserOnly(ReadLimits limits) {
+        return new CircuitReader(limits, Long.MAX_VALUE, Long.MAX_VALUE, t -> { });
+    }
+
     /** The outcome of a read as text: every member of the document, or the error with its location. */
     private static String outcome(CircuitReader reader, Path file) {
         try {
@@ -74,9 +79,14 @@ class NodeArrayTailTest {
         Path file = dir.resolve(name);
         Files.write(file, text);
         AtomicInteger taken = new AtomicInteger();
-        String split = outcome(new CircuitReader(limits, ALWAYS, t -> taken.addAndGet(t ? 1 : 0)), file);
-        String single = outcome(new CircuitReader(limits, Long.MAX_VALUE), file);
-        assertEquals(single, split, name);
+        String split = outcome(new CircuitReader(limits, ALWAYS, ALWAYS, t -> taken.addAndGet(t ? 1 : 0)), file);
+        String scanned = outcome(new CircuitReader(limits, ALWAYS, Long.MAX_VALUE, t -> { }), file);
+        String parsed = outcome(parserOnly(limits), file);
+        if (!parsed.equals(split) || !parsed.equals(scanned)) {
+            Files.copy(file, Path.of("/tmp/dbg/fail-" + name), java.nio.file.StandardCopyOption.REPLACE_EXISTING);
+        }
+        assertEquals(parsed, scanned, name + ": read straight from the bytes");
+        assertEquals(parsed, split, name + ": read in two halves");
         return taken.get() > 0;
     }
 
@@ -91,7 +101,7 @@ class NodeArrayTailTest {
             switch (i < 2 ? i : rnd.nextInt(4)) {
                 case 0 -> sb.append("{\"id\": ").append(i).append(", \"input\": \"normal\", \"var\": 0, \"mean\": ")
                         .append(rnd.nextGaussian()).append(", \"sd\": ").append(0.1 + rnd.nextDouble()).append('}');
-                case 1 -> sb.append("{\"id\": ").append(i).append(", \"label\": \"vanne \u00e9t\u00e9 \u2014 ").append(i)
+                case 1 -> sb.append("{\"id\": ").append(i).append(i == 1 ? ", \"label\": \"vanne \u00e9t\u00e9 \u2014 " : ", \"label\": \"valve ").append(i)
                         .append("\", \"input\": \"categorical\", \"var\": 1, \"logProbs\": [-1.2, -0.5, -").append(rnd.nextDouble())
                         .append("]}");
                 case 2 -> sb.append("{\"id\": ").append(i).append(",\n  \"product\": [").append(rnd.nextInt(i)).append(", ")
@@ -118,6 +128,37 @@ class NodeArrayTailTest {
             String text = circuit(3000, sep, "", checks);
             assertTrue(assertSameRead("layout.json", text.getBytes(StandardCharsets.UTF_8), ReadLimits.DEFAULT),
                     "second half taken with separator " + sep.replace("\n", "\\n").replace("\r", "\\r").replace("\t", "\\t"));
+        }
+    }
+
+    @Test
+    void filesLargerThanTheScanBuffer_sameDocument_secondHalfTaken() throws Exception {
+        // a few MB: the scanners refill their 1 MiB buffers many times, with nodes across the refills
+        for (String sep : List.of(",\n", ",")) {
+            String text = circuit(45_000, sep, "", "");
+            assertTrue(text.length() > 3_000_000, text.length() + " bytes");
+            assertTrue(assertSameRead("large.json", text.getBytes(StandardCharsets.UTF_8), ReadLimits.DEFAULT),
+                    "second half taken");
+        }
+    }
+
+    @Test
+    void numbersAndIdsOfEveryForm_sameValuesToTheBitOrSameError() throws Exception {
+        // valid forms are read straight from the bytes; the others are left to the parser, whose error is the reference
+        List<String> weights = List.of("0", "-0", "1", "0.5", "-0.0", "1e-310", "4.9e-324", "2.2250738585072014e-308",
+                "1.7976931348623157e308", "1E5", "1e+5", "1.5E-5", "123456789012345678", "1234567890123456789",
+                "0.30000000000000004", "9007199254740993", "1e400", "-1e400", "01", "1.", ".5", "+1", "1e", "--1",
+                "0x10", "1.5.5", "NaN", "1e-400", "12345678901234567890123.5", "\"1\"", "true", "null");
+        for (String w : weights) {
+            String text = circuit(200, ",\n", "", "").replace("\"weights\": [", "\"weights\": [" + w + ", ");
+            assertSameRead("weight.json", text.getBytes(StandardCharsets.UTF_8), ReadLimits.DEFAULT);
+            String param = circuit(200, ",\n", "", "").replaceFirst("\"sd\": [0-9.]+", "\"sd\": " + w);
+            assertSameRead("param.json", param.getBytes(StandardCharsets.UTF_8), ReadLimits.DEFAULT);
+        }
+        for (String id : List.of("0", "7", "2147483647", "2147483648", "-1", "1.0", "1e2", "007", "99999999999")) {
+            String text = circuit(200, ",\n", "", "").replace("{\"id\": 150,", "{\"id\": " + id + ",")
+                    .replace("[150, ", "[" + id + ", ");
+            assertSameRead("id.json", text.getBytes(StandardCharsets.UTF_8), ReadLimits.DEFAULT);
         }
     }
 
@@ -177,8 +218,8 @@ class NodeArrayTailTest {
         AtomicInteger events = new AtomicInteger();
         Path file = dir.resolve("ext.json");
         Files.writeString(file, circuit(20, ",\n", "", ext));
-        String split = outcome(new CircuitReader(ReadLimits.DEFAULT, ALWAYS, t -> events.addAndGet(t ? 100 : 1)), file);
-        assertEquals(outcome(new CircuitReader(ReadLimits.DEFAULT, Long.MAX_VALUE), file), split);
+        String split = outcome(new CircuitReader(ReadLimits.DEFAULT, ALWAYS, ALWAYS, t -> events.addAndGet(t ? 100 : 1)), file);
+        assertEquals(outcome(parserOnly(ReadLimits.DEFAULT), file), split);
         assertEquals(1, events.get(), "the tail started and was dropped");
     }
 
@@ -209,9 +250,9 @@ class NodeArrayTailTest {
         Path file = dir.resolve("small.json");
         Files.writeString(file, circuit(100, ",\n", "", ""));
         AtomicInteger events = new AtomicInteger();
-        new CircuitReader(ReadLimits.DEFAULT, Files.size(file) + 1, t -> events.incrementAndGet()).read(file);
+        new CircuitReader(ReadLimits.DEFAULT, ALWAYS, Files.size(file) + 1, t -> events.incrementAndGet()).read(file);
         try (var in = Files.newInputStream(file)) {
-            new CircuitReader(ReadLimits.DEFAULT, ALWAYS, t -> events.incrementAndGet()).read(in, "small.json");
+            new CircuitReader(ReadLimits.DEFAULT, ALWAYS, ALWAYS, t -> events.incrementAndGet()).read(in, "small.json");
         }
         assertEquals(0, events.get(), "no second thread for a small file or a stream");
     }
