@@ -30,6 +30,11 @@ import tools.jackson.databind.JsonNode;
  * Values are not judged here (ranges, references, order, scopes): that is the validator's work.
  * Unknown properties outside {@code extensions} are kept as {@link ReadFinding}s.
  *
+ * <p>The JSON parser is the authority on all of this. For a stored file, plain nodes are read straight
+ * from the bytes ({@link NodeScanner}), the second half of a large file's nodes on a second thread
+ * ({@link NodeArrayTail}), and the parser takes over ({@link ResumedInput}) at the first node that needs
+ * it: the document, its locations, findings and errors are the same as the parser's alone.
+ *
  * <p>Instances hold only their limits and are safe to share between threads.
  */
 public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {

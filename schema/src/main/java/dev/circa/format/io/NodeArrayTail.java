@@ -2,22 +2,12 @@ package dev.circa.format.io;
 
 import dev.circa.format.NodeLocations;
 import dev.circa.format.NodeTable;
-import dev.circa.format.ReadFinding;
-import java.io.ByteArrayInputStream;
 import java.io.IOException;
-import java.io.InputStream;
-import java.io.SequenceInputStream;
 import java.nio.ByteBuffer;
-import java.nio.channels.Channels;
 import java.nio.channels.FileChannel;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardOpenOption;
-import java.util.ArrayList;
-import java.util.List;
 import java.util.concurrent.CountDownLatch;
-import tools.jackson.core.JsonToken;
 
 /**
  * Reads the second half of a large circuit's {@code nodes} array on another thread, while the
@@ -35,7 +25,7 @@ import tools.jackson.core.JsonToken;
  * does not read), since what the reader reports must not depend on the split. Used by one reading thread.
  */
 final class NodeArrayTail implements AutoCloseable {
-    /** Files smaller than this are read by one thread (a thread and a second parser cost more). */
+    /** Files smaller than this are read by one thread (a second thread costs more than it saves). */
     static final long MIN_BYTES = 8L << 20;
     /** How far past the middle the start of a node is looked for. */
     private static final int SCAN_BYTES = 1 << 16;
