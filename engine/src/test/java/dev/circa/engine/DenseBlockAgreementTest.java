@@ -96,9 +96,11 @@ class DenseBlockAgreementTest {
     }
 
     @Test
-    void logDensity_partsWithInfiniteDensities_denseEqualsGeneric() {
-        // a gamma density with shape < 1 is +inf at 0 (its limit at the edge of the support), so products of
-        // +inf and -inf parts are NaN; both paths must give the same numbers (common practice: IEEE 754 rules)
+    void logDensity_partsZeroAtTheEdgeOfTheSupport_denseEqualsGeneric() {
+        // a gamma input's support is open, (0, inf) (FORMAT.md), so it is 0 (log -inf) at 0 although its density
+        // grows without bound towards 0 for shape < 1, while an exponential's support includes 0: at 0 a part holds
+        // -inf nodes beside finite ones. (No valid parameters give a +inf log-density, so no NaN part arises.)
+        // Both paths must give the same numbers (common practice: IEEE 754 rules)
         TestCircuits t = new TestCircuits().variable("motor_current", VariableType.REAL)
                 .variable("alarm", VariableType.BINARY);
         int[] a = new int[4];
@@ -119,7 +121,7 @@ class DenseBlockAgreementTest {
         t.output("joint", s0).output("other", s1).output("mix", t.sum(new double[] {0.5, 0.5}, s0, s1));
         CompiledCircuit circuit = t.compile();
         assertEquals(1, circuit.denseBlockSummary().blocks(), "one block");
-        assertAgree(circuit, new double[] {0, 0, 0, 1, 0.5, 0, 0.5, 1, Double.NaN, 0, 0, Double.NaN}, "infinite parts");
+        assertAgree(circuit, new double[] {0, 0, 0, 1, 0.5, 0, 0.5, 1, Double.NaN, 0, 0, Double.NaN}, "zero at the support's edge");
     }
 
     @Test
