@@ -287,41 +287,25 @@ public final class NodeTable {
                 int sb = k / INTS;
                 int sj = k - sb * INTS;
                 int[] s = src.blocks[sb];
-                int[] d = writable();
-                int dj = size - (size / INTS) * INTS;
-                int n = Math.min(Math.min(src.size - k, s.length - sj), INTS - dj);
-            if (shift == 0) {
-                System.arraycopy(s, sj, d, dj, n);
-            } else {
-                for (int i = 0; i < n; i++) {
-                    d[dj + i] = s[sj + i] + shift;
+                if (size == end) {
+                    room();
                 }
-            }
+                int[] d = current;
+                int dj = size - start;
+                int n = Math.min(Math.min(src.size - k, s.length - sj), end - size);
+                if (shift == 0) {
+                    System.arraycopy(s, sj, d, dj, n);
+                } else {
+                    for (int i = 0; i < n; i++) {
+                        d[dj + i] = s[sj + i] + shift;
+                    }
+                }
                 size += n;
                 k += n;
                 if (k == src.size || k % INTS == 0) {
                     src.blocks[sb] = null;
                 }
             }
-            // the next add finds its block anew
-            end = size;
-        }
-
-        /** The block the next entry goes to, made full size. */
-        private int[] writable() {
-            int b = size / INTS;
-            if (b == blocks.length) {
-                blocks = Arrays.copyOf(blocks, b * 2);
-            }
-            int[] block = blocks[b];
-            if (block == null) {
-                block = new int[INTS];
-                blocks[b] = block;
-            } else if (block.length < INTS) {
-                block = Arrays.copyOf(block, INTS);
-                blocks[b] = block;
-            }
-            return block;
         }
     }
 
@@ -383,35 +367,19 @@ public final class NodeTable {
                 int sb = k / DOUBLES;
                 int sj = k - sb * DOUBLES;
                 double[] s = src.blocks[sb];
-                double[] d = writable();
-                int dj = size - (size / DOUBLES) * DOUBLES;
-                int n = Math.min(Math.min(src.size - k, s.length - sj), DOUBLES - dj);
-            System.arraycopy(s, sj, d, dj, n);
+                if (size == end) {
+                    room();
+                }
+                double[] d = current;
+                int dj = size - start;
+                int n = Math.min(Math.min(src.size - k, s.length - sj), end - size);
+                System.arraycopy(s, sj, d, dj, n);
                 size += n;
                 k += n;
                 if (k == src.size || k % DOUBLES == 0) {
                     src.blocks[sb] = null;
                 }
             }
-            // the next add finds its block anew
-            end = size;
-        }
-
-        /** The block the next entry goes to, made full size. */
-        private double[] writable() {
-            int b = size / DOUBLES;
-            if (b == blocks.length) {
-                blocks = Arrays.copyOf(blocks, b * 2);
-            }
-            double[] block = blocks[b];
-            if (block == null) {
-                block = new double[DOUBLES];
-                blocks[b] = block;
-            } else if (block.length < DOUBLES) {
-                block = Arrays.copyOf(block, DOUBLES);
-                blocks[b] = block;
-            }
-            return block;
         }
     }
 
@@ -468,35 +436,19 @@ public final class NodeTable {
                 int sb = k / BYTES;
                 int sj = k - sb * BYTES;
                 byte[] s = src.blocks[sb];
-                byte[] d = writable();
-                int dj = size - (size / BYTES) * BYTES;
-                int n = Math.min(Math.min(src.size - k, s.length - sj), BYTES - dj);
-            System.arraycopy(s, sj, d, dj, n);
+                if (size == end) {
+                    room();
+                }
+                byte[] d = current;
+                int dj = size - start;
+                int n = Math.min(Math.min(src.size - k, s.length - sj), end - size);
+                System.arraycopy(s, sj, d, dj, n);
                 size += n;
                 k += n;
                 if (k == src.size || k % BYTES == 0) {
                     src.blocks[sb] = null;
                 }
             }
-            // the next add finds its block anew
-            end = size;
-        }
-
-        /** The block the next entry goes to, made full size. */
-        private byte[] writable() {
-            int b = size / BYTES;
-            if (b == blocks.length) {
-                blocks = Arrays.copyOf(blocks, b * 2);
-            }
-            byte[] block = blocks[b];
-            if (block == null) {
-                block = new byte[BYTES];
-                blocks[b] = block;
-            } else if (block.length < BYTES) {
-                block = Arrays.copyOf(block, BYTES);
-                blocks[b] = block;
-            }
-            return block;
         }
     }
 

@@ -343,7 +343,7 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             int column = in.column();
             try (FileChannel ch = FileChannel.open(file, StandardOpenOption.READ)) {
                 long size = ch.size();
-                if (size < scanAtLeast || size > limits.maxBytes() || !NodeArrayTail.startsAsUtf8(ch)) {
+                if (size < scanAtLeast || size > limits.maxBytes() || !NodeScanner.startsAsUtf8(ch)) {
                     return 0;
                 }
                 if (size >= splitAtLeast) {

@@ -177,18 +177,7 @@ final class DeferredNumbers implements AutoCloseable {
             return;
         }
         decoder = null;
-        d.interrupt();
-        boolean interrupted = false;
-        while (d.isAlive()) {
-            try {
-                d.join();
-            } catch (InterruptedException e) {
-                interrupted = true;
-            }
-        }
-        if (interrupted) {
-            Thread.currentThread().interrupt();
-        }
+        Workers.stop(d);
     }
 
     private void put(BlockingQueue<Batch> q, Batch b) {

@@ -141,18 +141,7 @@ final class NodeArrayTail implements AutoCloseable {
     @Override
     public void close() {
         scanner.stop();
-        thread.interrupt();
-        boolean interrupted = false;
-        while (thread.isAlive()) {
-            try {
-                thread.join();
-            } catch (InterruptedException e) {
-                interrupted = true;
-            }
-        }
-        if (interrupted) {
-            Thread.currentThread().interrupt();
-        }
+        Workers.stop(thread);
         try {
             channel.close();
         } catch (IOException ignored) {
@@ -168,19 +157,6 @@ final class NodeArrayTail implements AutoCloseable {
         } finally {
             done.countDown();
         }
-    }
-
-    /** Whether the file starts as UTF-8 JSON text would without a byte order mark (no zero, nothing past ASCII). */
-    static boolean startsAsUtf8(FileChannel ch) throws IOException {
-        ByteBuffer b = ByteBuffer.allocate(4);
-        ch.read(b, 0);
-        for (int i = 0; i < b.position(); i++) {
-            int c = b.get(i) & 0xff;
-            if (c == 0 || c >= 0x80) {
-                return false;
-            }
-        }
-        return true;
     }
 
     /**

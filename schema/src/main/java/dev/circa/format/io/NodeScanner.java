@@ -49,15 +49,19 @@ final class NodeScanner {
     private static final int VAR = 7;
     private static final int PROBS = 9;
     private static final int LOG_PROBS = 10;
-    /** For each family, the bits of its parameters' keys. */
+    /** For each family, its parameters' keys (indices in {@link #KEYS}, in the family's order) and their bits. */
+    private static final int[][] FAMILY_KEYS = new int[Family.values().length][];
     private static final long[] FAMILY_PARAMS = new long[Family.values().length];
 
     static {
         for (Family f : Family.values()) {
+            int[] keys = new int[f.parameters().size()];
             long bits = 0;
-            for (String p : f.parameters()) {
-                bits |= 1L << List.of(KEYS).indexOf(p);
+            for (int k = 0; k < keys.length; k++) {
+                keys[k] = List.of(KEYS).indexOf(f.parameters().get(k));
+                bits |= 1L << keys[k];
             }
+            FAMILY_KEYS[f.ordinal()] = keys;
             FAMILY_PARAMS[f.ordinal()] = bits;
         }
     }
@@ -114,6 +118,19 @@ final class NodeScanner {
         this.bufStart = offset;
         this.line = line;
         this.lineStart = offset - (column - 1);
+    }
+
+    /** Whether the file starts as UTF-8 JSON text would without a byte order mark (no zero, nothing past ASCII). */
+    static boolean startsAsUtf8(FileChannel ch) throws IOException {
+        ByteBuffer b = ByteBuffer.allocate(4);
+        ch.read(b, 0);
+        for (int i = 0; i < b.position(); i++) {
+            int c = b.get(i) & 0xff;
+            if (c == 0 || c >= 0x80) {
+                return false;
+            }
+        }
+        return true;
     }
 
     /** The nodes read so far. */
@@ -326,19 +343,10 @@ final class NodeScanner {
             table.close(NodeTable.INPUT, id, label, family, (seen & (1L << LOG_PROBS)) != 0);
             return;
         }
-        for (String p : family.parameters()) {
-            table.appendValue(scalars[indexOf(p)]);
+        for (int key : FAMILY_KEYS[family.ordinal()]) {
+            table.appendValue(scalars[key]);
         }
         table.close(NodeTable.INPUT, id, label, family, false);
-    }
-
-    private static int indexOf(String key) {
-        for (int k = 0; k < KEYS.length; k++) {
-            if (KEYS[k].equals(key)) {
-                return k;
-            }
-        }
-        throw new IllegalArgumentException(key);
     }
 
     /** Reads the value of member {@code key}; false when the node is left to the parser. */
