@@ -50,6 +50,14 @@ public final class RegionTensorEvaluator {
     /** Per region with sums: log of the largest weight of each sum (NaN when a weight is not usable as scaled). */
     private final double[][] shift;
     /**
+     * Per region with sums: each weight times 2^-g, g = floor(log2 of its sum's largest weight), sum by sum
+     * ({@code [q * children + j]}): exact for plain weights, e^(log w - g ln 2) for log weights. Null where some
+     * weight is not usable as scaled (the linear evaluation sends every row to the log-domain one).
+     */
+    private final double[][] binaryScaled;
+    /** Per region with sums: g of each sum. */
+    private final long[][] binaryShift;
+    /**
      * Per leaf region, where its inputs start in the three arrays below (input j of bundle i at
      * {@code leafBase[r] + i * vars + j}): the mean, sd and log sd of each normal input with a
      * {@link ReferenceDensities#plain} mean, NaN for other inputs. Read in order, block after block, instead of
@@ -64,8 +72,22 @@ public final class RegionTensorEvaluator {
     private final int[] slot;
     /** Per slot: the number of nodes of the regions it serves. */
     private final int[] slotSize;
-    /** Per slot: a block of log-values, {@code [node][row]}, allocated on first use. */
+    /** Per slot: a block of log-values, or of linear values y, {@code [node][row]}, allocated on first use. */
     private final double[][][] block;
+    /** Per slot: the exponent E of each row of its block of linear values (value = y * 2^E). */
+    private final long[][] blockExp;
+    /** The exponent of the children of the region's sums in {@link #expChild}, at each row. */
+    private final long[] childExp = new long[CHUNK_ROWS];
+    /** Per partition of a region: the sum of its parts' exponents, at each row; grown on first use. */
+    private long[][] partitionExp = new long[0][];
+    /** The largest exponent of a region's sums at each row. */
+    private final long[] sumExp = new long[CHUNK_ROWS];
+    /** The rows of the block that the linear evaluation leaves to the log-domain one. */
+    private final boolean[] fallback = new boolean[CHUNK_ROWS];
+    /** Those rows' data and log-values, evaluated again in the log domain. */
+    private double[] fallbackData = new double[0];
+    private double[] fallbackOut = new double[0];
+    private final int[] fallbackRow = new int[CHUNK_ROWS];
     /** The children of the region's sums, {@code [child][row]}. */
     private final double[][] child;
     /** Each child's e^(v - vmax), {@code [child][row]}. */
@@ -116,9 +138,12 @@ public final class RegionTensorEvaluator {
         int nr = s.regionCount();
         this.scaled = new double[nr][];
         this.shift = new double[nr][];
+        this.binaryScaled = new double[nr][];
+        this.binaryShift = new long[nr][];
         for (int r = 0; r < nr; r++) {
             if (layout.hasSums(r)) {
                 scale(r);
+                binaryScale(r);
             }
         }
         int maxChildren = 1;
@@ -154,6 +179,7 @@ public final class RegionTensorEvaluator {
         this.slot = new int[nr];
         this.slotSize = assignSlots(s, layout, slot);
         this.block = new double[slotSize.length][][];
+        this.blockExp = new long[slotSize.length][];
         this.child = new double[maxChildren][CHUNK_ROWS];
         this.expChild = new double[maxChildren][CHUNK_ROWS];
         this.vmax = new double[CHUNK_ROWS];
@@ -175,6 +201,8 @@ public final class RegionTensorEvaluator {
         this.family = shared.family;
         this.scaled = shared.scaled;
         this.shift = shared.shift;
+        this.binaryScaled = shared.binaryScaled;
+        this.binaryShift = shared.binaryShift;
         this.leafBase = shared.leafBase;
         this.normalMean = shared.normalMean;
         this.normalSd = shared.normalSd;
@@ -182,6 +210,7 @@ public final class RegionTensorEvaluator {
         this.slot = shared.slot;
         this.slotSize = shared.slotSize;
         this.block = new double[slotSize.length][][];
+        this.blockExp = new long[slotSize.length][];
         this.child = new double[shared.child.length][CHUNK_ROWS];
         this.expChild = new double[shared.expChild.length][CHUNK_ROWS];
         this.vmax = new double[CHUNK_ROWS];
@@ -271,6 +300,40 @@ public final class RegionTensorEvaluator {
         shift[r] = sh;
     }
 
+    /**
+     * The weights of region r's sums for the linear evaluation: each sum's weights times 2^-g with g =
+     * floor(log2 of its largest weight), so that its largest scaled weight is in [1, 2). Left null when a weight
+     * is +inf or NaN, when a sum's weights are all 0, or when a log weight's g would pass 2^20.
+     */
+    private void binaryScale(int r) {
+        int k = layout.sums(r);
+        int c = layout.children(r);
+        boolean log = p.logWeights(r);
+        double[] sw = new double[k * c];
+        long[] g = new long[k];
+        for (int q = 0; q < k; q++) {
+            double[] w = p.weights(r, q);
+            double max = Double.NEGATIVE_INFINITY;
+            for (int j = 0; j < c; j++) {
+                double lw = log ? w[j] : Math.log(w[j]);
+                if (!(lw < Double.POSITIVE_INFINITY)) {
+                    return;
+                }
+                max = Math.max(max, log ? w[j] : w[j] == 0 ? Double.NEGATIVE_INFINITY : w[j]);
+            }
+            if (max == Double.NEGATIVE_INFINITY || log && !(Math.abs(max) < BinaryScale.LOG_LIMIT)) {
+                return;
+            }
+            g[q] = log ? BinaryScale.exponentOf(max) : BinaryScale.exponent(max);
+            for (int j = 0; j < c; j++) {
+                // plain weights: an exact scaling by a power of two (or an underflow far below the largest)
+                sw[q * c + j] = log ? BinaryScale.linear(w[j], g[q]) : Math.scalb(w[j], (int) -g[q]);
+            }
+        }
+        binaryScaled[r] = sw;
+        binaryShift[r] = g;
+    }
+
     /** Number of outputs (C). */
     public int outputCount() {
         return p.options().outputs();
@@ -343,18 +406,267 @@ public final class RegionTensorEvaluator {
     /** {@link #logDensity} on rows {@code from .. to-1} of {@code data}, written to the same rows of {@code out}. */
     private void logDensity(double[] data, int from, int to, double[] out) {
         for (int row0 = from; row0 < to; row0 += CHUNK_ROWS) {
-            evaluateBlock(data, row0, Math.min(CHUNK_ROWS, to - row0), out);
+            linearBlock(data, row0, Math.min(CHUNK_ROWS, to - row0), out);
         }
     }
 
-    private void evaluateBlock(double[] data, int row0, int n, double[] out) {
+    /** The block of a slot, allocated on first use. */
+    private double[][] block(int sl) {
+        if (block[sl] == null) {
+            block[sl] = new double[slotSize[sl]][CHUNK_ROWS];
+            blockExp[sl] = new long[CHUNK_ROWS];
+        }
+        return block[sl];
+    }
+
+    /**
+     * Rows {@code row0 .. row0+n-1} of {@code data} in linear space, each region a block of linear values and
+     * a power of two per row; the rows this leaves (see {@link #fallback}) are evaluated again by
+     * {@link #logBlock}, on their own.
+     */
+    private void linearBlock(double[] data, int row0, int n, double[] out) {
+        columns(data, row0, n);
+        Arrays.fill(fallback, 0, n, false);
+        int bundles = p.options().inputs();
+        for (int r : order) {
+            double[][] t = block(slot[r]);
+            long[] e = blockExp[slot[r]];
+            if (s.isLeaf(r)) {
+                if (r != s.root()) {
+                    bundles(r, n, t);
+                    toLinear(t, bundles, n, t, e);
+                    continue;
+                }
+                bundles(r, n, child);
+                toLinear(child, bundles, n, expChild, childExp);
+            } else {
+                scaledProducts(r, n);
+            }
+            if (binaryScaled[r] == null) {
+                Arrays.fill(fallback, 0, n, true);
+                Arrays.fill(e, 0, n, 0);
+                for (int q = 0; q < layout.sums(r); q++) {
+                    Arrays.fill(t[q], 0, n, 0);
+                }
+                continue;
+            }
+            for (int q = 0; q < layout.sums(r); q++) {
+                product(binaryScaled[r], q, layout.children(r), n);
+            }
+            if (r == s.root()) {
+                rootLogs(r, n, t);
+            } else {
+                normalise(r, n, t, e);
+            }
+        }
+        int co = outputCount();
+        double[][] root = block[slot[s.root()]];
+        int nv = family.length;
+        int left = 0;
+        for (int row = 0; row < n; row++) {
+            if (fallback[row]) {
+                fallbackRow[left++] = row;
+                continue;
+            }
+            for (int o = 0; o < co; o++) {
+                out[(row0 + row) * co + o] = root[o][row];
+            }
+        }
+        if (left == 0) {
+            return;
+        }
+        if (fallbackData.length == 0) {
+            fallbackData = new double[Math.multiplyExact(CHUNK_ROWS, nv)];
+            fallbackOut = new double[Math.multiplyExact(CHUNK_ROWS, co)];
+        }
+        for (int i = 0; i < left; i++) {
+            System.arraycopy(data, (row0 + fallbackRow[i]) * nv, fallbackData, i * nv, nv);
+        }
+        logBlock(fallbackData, 0, left, fallbackOut);
+        for (int i = 0; i < left; i++) {
+            System.arraycopy(fallbackOut, i * co, out, (row0 + fallbackRow[i]) * co, co);
+        }
+    }
+
+    /**
+     * Log-values {@code src[i][row]} ({@code i < count}) as linear values {@code dst[i][row]} times 2^E per row,
+     * E = floor(largest / ln 2): one exponential per value. A row whose largest is not finite (every value 0,
+     * or a value +inf or NaN) or not below {@link BinaryScale#LOG_LIMIT} in magnitude is left to the log domain.
+     * {@code dst} may be {@code src}.
+     */
+    private void toLinear(double[][] src, int count, int n, double[][] dst, long[] e) {
+        Arrays.fill(vmax, 0, n, Double.NEGATIVE_INFINITY);
+        for (int i = 0; i < count; i++) {
+            double[] v = src[i];
+            for (int row = 0; row < n; row++) {
+                vmax[row] = Math.max(vmax[row], v[row]);
+            }
+        }
+        for (int row = 0; row < n; row++) {
+            double m = vmax[row];
+            boolean ok = Math.abs(m) < BinaryScale.LOG_LIMIT;
+            fallback[row] |= !ok;
+            e[row] = ok ? BinaryScale.exponentOf(m) : 0;
+        }
+        for (int i = 0; i < count; i++) {
+            double[] v = src[i];
+            double[] y = dst[i];
+            for (int row = 0; row < n; row++) {
+                y[row] = BinaryScale.linear(v[row], e[row]);
+            }
+        }
+    }
+
+    /**
+     * The products of inner region r in linear space, into {@link #expChild} in layout order with their exponent
+     * in {@link #childExp}: a partition's exponent at a row is the sum of its parts' exponents, the region's
+     * the largest over its partitions, and a partition below it is scaled by the exact power of two between
+     * them (applied to its last part's values, then multiplied by the other parts', first part first). Every
+     * part has a value in [1, 2) at a row it does not leave to the log domain, so the partition with the
+     * largest exponent has a product of at least 1: whatever underflows elsewhere is below 2^-1074 of it.
+     */
+    private void scaledProducts(int r, int n) {
+        int[] partitions = s.partitionsOf(r);
+        if (partitionExp.length < partitions.length) {
+            partitionExp = new long[partitions.length][CHUNK_ROWS];
+        }
+        Arrays.fill(childExp, 0, n, Long.MIN_VALUE);
+        for (int i = 0; i < partitions.length; i++) {
+            int[] parts = s.parts(partitions[i]);
+            long[] pe = partitionExp[i];
+            System.arraycopy(blockExp[slot[parts[0]]], 0, pe, 0, n);
+            for (int t = 1; t < parts.length; t++) {
+                long[] add = blockExp[slot[parts[t]]];
+                for (int row = 0; row < n; row++) {
+                    pe[row] += add[row];
+                }
+            }
+            for (int row = 0; row < n; row++) {
+                childExp[row] = Math.max(childExp[row], pe[row]);
+            }
+        }
+        int c = 0;
+        for (int i = 0; i < partitions.length; i++) {
+            int[] parts = s.parts(partitions[i]);
+            int m = parts.length;
+            double[][] last = block[slot[parts[m - 1]]];
+            if (partitions.length > 1) {
+                last = scaledLast(last, layout.size(parts[m - 1]), partitionExp[i], n);
+            }
+            firstProduct(m);
+            boolean more = true;
+            while (more) {
+                double[] dst = expChild[c];
+                double[] a = m == 1 ? last[digit[0]] : block[slot[parts[0]]][digit[0]];
+                double[] b = m <= 2 ? last[digit[m - 1]] : block[slot[parts[1]]][digit[1]];
+                if (m == 1) {
+                    System.arraycopy(a, 0, dst, 0, n);
+                } else {
+                    for (int row = 0; row < n; row++) {
+                        dst[row] = a[row] * b[row];
+                    }
+                }
+                for (int t = 2; t < m; t++) {
+                    double[] f = t == m - 1 ? last[digit[t]] : block[slot[parts[t]]][digit[t]];
+                    for (int row = 0; row < n; row++) {
+                        dst[row] *= f[row];
+                    }
+                }
+                c++;
+                more = nextProduct(parts, m);
+            }
+        }
+    }
+
+    /**
+     * A partition's last part's values times 2^(its exponent - the region's) at each row (a power of two at
+     * most 1, exact unless the product underflows), in {@link #partExp}.
+     */
+    private double[][] scaledLast(double[][] y, int size, long[] pe, int n) {
+        if (partExp.length < size) {
+            double[][] grown = Arrays.copyOf(partExp, size);
+            for (int i = partExp.length; i < size; i++) {
+                grown[i] = new double[CHUNK_ROWS];
+            }
+            partExp = grown;
+        }
+        for (int row = 0; row < n; row++) {
+            partScale[row] = BinaryScale.pow2(pe[row] - childExp[row]);
+        }
+        for (int u = 0; u < size; u++) {
+            double[] src = y[u];
+            double[] dst = partExp[u];
+            for (int row = 0; row < n; row++) {
+                dst[row] = src[row] * partScale[row];
+            }
+        }
+        return partExp;
+    }
+
+    /**
+     * Whether the scaled sum {@code a} (in units of its largest weight's power of two) is usable: not below
+     * {@link #SCALED_FLOOR} (below it digits are lost, or every term was 0 or underflowed) and finite.
+     */
+    private static boolean usable(double a) {
+        return a >= SCALED_FLOOR && a < Double.POSITIVE_INFINITY;
+    }
+
+    /**
+     * Region r's sums from the scaled sums in {@link #dot}, as linear values normalised by their largest (in
+     * [1, 2)) by exact powers of two, into {@code t}, and the row's exponent into {@code e}; a row with an
+     * unusable scaled sum is left to the log domain.
+     */
+    private void normalise(int r, int n, double[][] t, long[] e) {
+        int k = layout.sums(r);
+        long[] g = binaryShift[r];
+        Arrays.fill(sumExp, 0, n, Long.MIN_VALUE);
+        for (int q = 0; q < k; q++) {
+            double[] a = dot[q];
+            long gq = g[q];
+            for (int row = 0; row < n; row++) {
+                double v = a[row];
+                fallback[row] |= !usable(v);
+                sumExp[row] = Math.max(sumExp[row], gq + Math.getExponent(v));
+            }
+        }
+        for (int q = 0; q < k; q++) {
+            double[] a = dot[q];
+            double[] y = t[q];
+            long gq = g[q];
+            for (int row = 0; row < n; row++) {
+                // v in [1, 2) first (exact: v is a normal number at a usable row), then the power of two to the largest
+                double v = a[row];
+                int ev = Math.getExponent(v);
+                y[row] = v * BinaryScale.pow2(-ev) * BinaryScale.pow2(gq + ev - sumExp[row]);
+            }
+        }
+        for (int row = 0; row < n; row++) {
+            e[row] = childExp[row] + sumExp[row];
+        }
+    }
+
+    /** The root's sums from the scaled sums in {@link #dot}, as log-values, into {@code t}. */
+    private void rootLogs(int r, int n, double[][] t) {
+        long[] g = binaryShift[r];
+        for (int q = 0; q < layout.sums(r); q++) {
+            double[] a = dot[q];
+            double[] y = t[q];
+            for (int row = 0; row < n; row++) {
+                double v = a[row];
+                fallback[row] |= !usable(v);
+                y[row] = BinaryScale.log(v, childExp[row] + g[q]);
+            }
+        }
+    }
+
+    /**
+     * Rows {@code row0 .. row0+n-1} of {@code data} in the log domain, each region a block of log-values: the
+     * exact path of the rows that the linear evaluation leaves.
+     */
+    private void logBlock(double[] data, int row0, int n, double[] out) {
         columns(data, row0, n);
         for (int r : order) {
-            double[][] t = block[slot[r]];
-            if (t == null) {
-                t = new double[slotSize[slot[r]]][CHUNK_ROWS];
-                block[slot[r]] = t;
-            }
+            double[][] t = block(slot[r]);
             if (s.isLeaf(r)) {
                 // a leaf below the root offers its bundles; the root leaf sums over them
                 bundles(r, n, r == s.root() ? child : t);
