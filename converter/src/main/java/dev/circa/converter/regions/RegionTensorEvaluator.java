@@ -9,18 +9,28 @@ import java.util.Arrays;
  * Evaluates a compiled region graph directly from its parameters, region by region, without
  * building or reading a circuit. Written separately from the engine to check it.
  *
- * <p>Rows are taken in blocks of {@value #CHUNK_ROWS}. Each region holds a block of log-values (in a slot
+ * <p>Rows are taken in blocks of {@value #CHUNK_ROWS}. Each region holds a block of values (in a slot
  * reused once the regions that read it are done, so memory stays small for any number of regions) laid out
- * node by node, a row array per node ({@code [node][row]}), filled children first:
- * a leaf's bundles are sums of its inputs' log-densities (a missing value counts 0); a partition's
- * products are sums of its parts' log-values over the cross product (first part varying slowest); a sum
- * is the log-sum-exp of weight plus child, computed for all rows of the block at once as a scaled
- * product in linear space, {@code vmax + log(wmax) + log(sum_j (w_j / wmax) e^(v_j - vmax))} with
- * {@code vmax} the row's largest child (a product's e^(v_j - vmax) taken as the product of its parts'
- * exponentials, each after its part's largest value is subtracted). A row whose scaled sum underflows (below 2^-900), whose
- * largest child is not finite, or that meets a non-finite weight falls back to the exact per-edge
- * log-sum-exp ({@link LogSumExp}). Each row is summed in one fixed order (children in layout order,
- * parts in partition order), so a row's value does not depend on the other rows of the call.
+ * node by node, a row array per node ({@code [node][row]}), filled children first, in linear space: at each row
+ * a region's values are {@code y_k * 2^E}, with the y_k held and E an integer per row (value 0 is y = 0). A
+ * leaf's bundles are sums of its inputs' log-densities (a missing value counts 0), turned into linear values by
+ * one exponential each, {@code e^(v - E ln 2)} with E = floor(largest / ln 2); a partition's products are
+ * products of its parts' y over the cross product (first part varying slowest) with the parts' exponents
+ * added, scaled by the exact power of two between the partition's exponent and the largest of the region's
+ * partitions; a sum is the weights (each sum's scaled by the power of two of its largest) times the products;
+ * an inner region's sums are then scaled by exact powers of two so that the largest is in [1, 2), and the
+ * root's are logged once, {@code log y + E ln 2} (ln 2 in two parts). No exponential or logarithm at the part
+ * or sum nodes: those were most of the time when the regions held log-values.
+ *
+ * <p>A row that a region cannot hold this way is evaluated again on its own in the log domain, as the blocks
+ * were before ({@link #logBlock}: log-values, each sum a scaled sum with the exact per-edge log-sum-exp,
+ * {@link LogSumExp}, where that underflows): a row where some scaled sum is below 2^-900 of its largest weight
+ * (digits lost, or every product 0 or underflowed; the partition with the largest exponent has a product of at
+ * least 1, so what underflows elsewhere is below 2^-1074 of it), or not finite; a leaf whose bundles are all 0
+ * (-inf), one +inf or NaN, or past 2^20 in magnitude; a region with a weight +inf or NaN or a sum of zero
+ * weights (every row). Each row is summed in one fixed order (children in layout order, parts in partition
+ * order), and which path a row takes depends on that row alone, so a row's value does not depend on the
+ * other rows of the call.
  *
  * <p>The scaled weights are computed once and shared by the evaluators made with {@link #sharing()};
  * each evaluator owns its blocks and reuses them on every call. Not thread-safe: one evaluator per thread.
@@ -33,7 +43,10 @@ public final class RegionTensorEvaluator {
      * 10^6 edges, unchanged at K = I = 24).
      */
     public static final int CHUNK_ROWS = 256;
-    /** Below this a scaled sum has lost too many digits: the row takes the exact per-edge log-sum-exp. */
+    /**
+     * Below this a scaled sum has lost too many digits: the linear evaluation leaves the row to the log domain, where
+     * the sum takes the exact per-edge log-sum-exp.
+     */
     private static final double SCALED_FLOOR = 0x1p-900;
 
     private final RegionParameters p;
@@ -88,6 +101,8 @@ public final class RegionTensorEvaluator {
     private double[] fallbackData = new double[0];
     private double[] fallbackOut = new double[0];
     private final int[] fallbackRow = new int[CHUNK_ROWS];
+    /** Rows evaluated in the log domain since this evaluator was made, for the tests. */
+    private long logDomainRows;
     /** The children of the region's sums, {@code [child][row]}. */
     private final double[][] child;
     /** Each child's e^(v - vmax), {@code [child][row]}. */
@@ -334,6 +349,11 @@ public final class RegionTensorEvaluator {
         binaryShift[r] = g;
     }
 
+    /** The rows this evaluator has left to the log-domain evaluation so far (each counted once per call). */
+    long logDomainRows() {
+        return logDomainRows;
+    }
+
     /** Number of outputs (C). */
     public int outputCount() {
         return p.options().outputs();
@@ -475,6 +495,7 @@ public final class RegionTensorEvaluator {
         if (left == 0) {
             return;
         }
+        logDomainRows += left;
         if (fallbackData.length == 0) {
             fallbackData = new double[Math.multiplyExact(CHUNK_ROWS, nv)];
             fallbackOut = new double[Math.multiplyExact(CHUNK_ROWS, co)];
