@@ -1,5 +1,6 @@
 package dev.circa.cli;
 
+import dev.circa.engine.BatchRunner;
 import dev.circa.engine.CompiledCircuit;
 import dev.circa.format.csv.CellValues;
 import dev.circa.format.csv.CsvReader;
@@ -44,7 +45,8 @@ final class EvalCommand implements Callable<Integer> {
         CompiledCircuit c = model.circuit();
         int nv = c.variableCount();
         int no = c.outputCount();
-        try (CsvReader csv = CsvReader.open(data.file, read.limits())) {
+        // every processor evaluates its share of each chunk (a row's value is the same on any thread)
+        try (CsvReader csv = CsvReader.open(data.file, read.limits()); BatchRunner runner = BatchRunner.onAllProcessors(c)) {
             DataColumns cols = DataColumns.readHeader(csv, c.variables());
             boolean[] givenMask = new boolean[nv];
             for (String g : given) {
@@ -68,9 +70,9 @@ final class EvalCommand implements Callable<Integer> {
                 int rows;
                 while ((rows = cols.readRows(data, cells, CHUNK)) > 0) {
                     if (given.isEmpty()) {
-                        model.logDensity(data, rows, result);
+                        runner.logDensity(data, rows, result);
                     } else {
-                        model.conditional(data, rows, givenMask, result);
+                        runner.conditional(data, rows, givenMask, result);
                     }
                     for (int r = 0; r < rows; r++) {
                         System.arraycopy(cells[r], 0, line, 0, header.length);

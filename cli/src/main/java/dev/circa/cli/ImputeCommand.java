@@ -1,5 +1,6 @@
 package dev.circa.cli;
 
+import dev.circa.engine.BatchRunner;
 import dev.circa.engine.CompiledCircuit;
 import dev.circa.format.csv.CellValues;
 import dev.circa.format.csv.CsvReader;
@@ -40,7 +41,8 @@ final class ImputeCommand implements Callable<Integer> {
         CompiledCircuit c = model.circuit();
         int outIndex = OutputChoice.index(c, outputName);
         int nv = c.variableCount();
-        try (CsvReader csv = CsvReader.open(data.file, read.limits())) {
+        // every processor explains its share of each chunk (a row's explanation is the same on any thread)
+        try (CsvReader csv = CsvReader.open(data.file, read.limits()); BatchRunner runner = BatchRunner.onAllProcessors(c)) {
             DataColumns cols = DataColumns.readHeader(csv, c.variables());
             String[] header = cols.header();
             output.write(out -> {
@@ -52,7 +54,7 @@ final class ImputeCommand implements Callable<Integer> {
                 String[] line = new String[header.length];
                 int rows;
                 while ((rows = cols.readRows(data, cells, CHUNK)) > 0) {
-                    model.impute(data, rows, outIndex, filled, logValue);
+                    runner.mpe(data, rows, outIndex, filled, logValue);
                     for (int r = 0; r < rows; r++) {
                         for (int col = 0; col < header.length; col++) {
                             int v = cols.variableOf(col);

@@ -75,6 +75,12 @@ public final class BatchRunner implements AutoCloseable {
         spread(rows, (e, from, to) -> e.conditionalRange(data, from, to, given, out));
     }
 
+    /** As {@link Evaluator#mpe}, spread over the threads (each row's explanation is its own: the same on any thread). */
+    public synchronized void mpe(double[] data, int rows, int output, double[] completed, double[] logValue) {
+        evaluators[0].checkMpe(data, rows, output, completed, logValue);
+        spread(rows, (e, from, to) -> e.mpeRange(data, from, to, output, completed, logValue));
+    }
+
     private interface RangeTask {
         void run(Evaluator e, int from, int to);
     }

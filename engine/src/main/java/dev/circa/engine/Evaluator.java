@@ -215,21 +215,31 @@ public final class Evaluator {
      * @param logValue output: per row, the max-product value of the output
      */
     public void mpe(double[] data, int rows, int output, double[] completed, double[] logValue) {
-        int nv = c.variableCount;
-        checkBatch(data, rows, completed, (long) rows * nv);
+        checkMpe(data, rows, output, completed, logValue);
+        mpeRange(data, 0, rows, output, completed, logValue);
+    }
+
+    /** The argument checks of {@link #mpe}. */
+    void checkMpe(double[] data, int rows, int output, double[] completed, double[] logValue) {
+        checkBatch(data, rows, completed, (long) rows * c.variableCount);
         if (logValue.length < rows) {
             throw new IllegalArgumentException("logValue has " + logValue.length + " entries (expected " + rows + ")");
         }
         if (output < 0 || output >= c.outputNode.length) {
             throw new IllegalArgumentException("no output " + output);
         }
+    }
+
+    /** {@link #mpe} of rows {@code from .. to-1} (arguments checked by the caller). */
+    void mpeRange(double[] data, int from, int to, int output, double[] completed, double[] logValue) {
+        int nv = c.variableCount;
         if (stack == null) {
             stack = new int[c.nodeCount];
             stamp = new int[c.nodeCount];
         }
         int root = c.outputNode[output];
-        for (int row0 = 0; row0 < rows; row0 += genericChunk) {
-            int n = Math.min(genericChunk, rows - row0);
+        for (int row0 = from; row0 < to; row0 += genericChunk) {
+            int n = Math.min(genericChunk, to - row0);
             double[] v = runMax(data, row0, n);
             for (int r = 0; r < n; r++) {
                 logValue[row0 + r] = v[root * n + r];

@@ -43,6 +43,43 @@ class BatchRunnerTest {
     }
 
     @Test
+    void mpe_anyThreadCountAndBatchSize_identicalToSerial() {
+        RandomCircuits rc = RandomCircuits.regionGraph(24, 9, 4, 3, 2, 0.3, true);
+        CompiledCircuit circuit = rc.compile();
+        int nv = circuit.variableCount();
+        double[] data = rc.rows(517, 0.4);
+        for (Evaluator.Mode mode : Evaluator.Mode.values()) {
+            for (int rows : new int[] {0, 1, 9, 64, 65, 517}) {
+                for (int output = 0; output < 2; output++) {
+                    double[] filled = new double[rows * nv];
+                    double[] value = new double[rows];
+                    new Evaluator(circuit, mode).mpe(data, rows, output, filled, value);
+                    for (int threads = 1; threads <= 3; threads++) {
+                        try (BatchRunner runner = new BatchRunner(circuit, threads, mode)) {
+                            double[] f = new double[rows * nv];
+                            double[] v = new double[rows];
+                            runner.mpe(data, rows, output, f, v);
+                            String what = mode + " rows " + rows + " output " + output + " threads " + threads;
+                            assertArrayEquals(filled, f, what);
+                            assertArrayEquals(value, v, what);
+                        }
+                    }
+                }
+            }
+        }
+    }
+
+    @Test
+    void mpe_badArguments_rejectedBeforeAnyThreadStarts() {
+        CompiledCircuit circuit = RandomCircuits.regionGraph(25, 4, 2, 2, 1, 0, false).compile();
+        try (BatchRunner runner = new BatchRunner(circuit, 2)) {
+            assertThrows(IllegalArgumentException.class, () -> runner.mpe(new double[40], 10, 0, new double[40], new double[9]));
+            assertThrows(IllegalArgumentException.class, () -> runner.mpe(new double[40], 10, 0, new double[39], new double[10]));
+            assertThrows(IllegalArgumentException.class, () -> runner.mpe(new double[40], 10, 1, new double[40], new double[10]));
+        }
+    }
+
+    @Test
     void logDensity_outputTooSmall_rejected() {
         CompiledCircuit circuit = RandomCircuits.regionGraph(23, 4, 2, 2, 1, 0, false).compile();
         try (BatchRunner runner = new BatchRunner(circuit, 2)) {

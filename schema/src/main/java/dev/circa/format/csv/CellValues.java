@@ -1,6 +1,7 @@
 package dev.circa.format.csv;
 
 import dev.circa.format.Variable;
+import tools.jackson.core.io.NumberInput;
 
 /**
  * Turns CSV cells into values and back (FORMAT.md section 5): an empty cell is missing (NaN), a
@@ -108,7 +109,7 @@ public final class CellValues {
         if (!isDecimal(s)) {
             throw new IllegalArgumentException("\"" + cell + "\" is not a log-density; expected a decimal number or -inf");
         }
-        double d = Double.parseDouble(s);
+        double d = decimal(s);
         if (!Double.isFinite(d)) {
             throw new IllegalArgumentException("\"" + cell + "\" is out of double range");
         }
@@ -119,7 +120,20 @@ public final class CellValues {
         if (!isDecimal(s)) {
             throw new IllegalArgumentException("\"" + s + "\" is not a number (variable " + v.name() + " is real)");
         }
-        return Double.parseDouble(s);
+        return decimal(s);
+    }
+
+    /** Longest cell decoded by the fast parser; longer ones (rare) go to {@link Double#parseDouble}. */
+    private static final int FAST_LENGTH = 40;
+
+    /**
+     * The double nearest to a cell that {@link #isDecimal} accepted: Jackson's fast decimal parser, which
+     * gives the double {@link Double#parseDouble} gives (both round to nearest; tested bit for bit) about
+     * five times sooner on the 17-digit cells that written doubles have (the JDK's parser takes its
+     * big-integer path for most of them: 1.3-2.4 s against 0.24-0.37 s for 8.3 million such cells).
+     */
+    private static double decimal(String s) {
+        return s.length() <= FAST_LENGTH ? NumberInput.parseDouble(s, true) : Double.parseDouble(s);
     }
 
     /**
@@ -169,8 +183,15 @@ public final class CellValues {
         return c >= '0' && c <= '9';
     }
 
+    /** An optional sign and 1 to 18 digits (so it fits a long), else the message that {@code expected} completes. */
     private static long integer(String s, Variable v, String expected) {
-        if (!s.matches("[+-]?[0-9]{1,18}")) {
+        int n = s.length();
+        int i = n > 0 && (s.charAt(0) == '+' || s.charAt(0) == '-') ? 1 : 0;
+        boolean digits = n - i >= 1 && n - i <= 18;
+        for (int k = i; k < n && digits; k++) {
+            digits = isDigit(s.charAt(k));
+        }
+        if (!digits) {
             throw new IllegalArgumentException("\"" + s + "\" is not a value of " + v.name() + "; expected " + expected);
         }
         return Long.parseLong(s);

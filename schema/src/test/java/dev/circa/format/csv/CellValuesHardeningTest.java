@@ -48,4 +48,53 @@ class CellValuesHardeningTest {
             assertThrows(IllegalArgumentException.class, () -> CellValues.parse(REAL, s), s);
         }
     }
+
+    @Test
+    void parse_manyDecimals_sameDoubleAsJavaParserToTheBit() {
+        // Reference: Double.parseDouble (Java SE API), which rounds every decimal to the nearest double.
+        // Written doubles (Double.toString: 17 digits at most), digit strings of 1 to 40 digits with
+        // exponents across the whole range, subnormals, and the cases where rounding is hardest (halfway
+        // between two doubles, the edges of the range; the values are common practice for decimal parsers).
+        java.util.SplittableRandom rnd = new java.util.SplittableRandom(20261203);
+        java.util.List<String> cells = new java.util.ArrayList<>(java.util.List.of("9007199254740993", "9007199254740995",
+                "2.2250738585072011e-308", "2.2250738585072012e-308", "4.9e-324", "2.4703282292062327e-324",
+                "2.4703282292062328e-324", "1.7976931348623157e308", "1.7976931348623158e308", "0.1", "0.3",
+                "1.00000000000000011102230246251565404236316680908203125", "123456789012345678901234567890",
+                "-0.0", "+0e999", "0.000000000000000000000000000000001e-290"));
+        for (int i = 0; i < 100_000; i++) {
+            double d = Double.longBitsToDouble(rnd.nextLong());
+            if (Double.isFinite(d)) {
+                cells.add(Double.toString(d));
+            }
+            StringBuilder b = new StringBuilder();
+            if (rnd.nextBoolean()) {
+                b.append(rnd.nextBoolean() ? '-' : '+');
+            }
+            int digits = 1 + rnd.nextInt(rnd.nextBoolean() ? 17 : 40);
+            int point = rnd.nextInt(digits + 1);
+            for (int k = 0; k < digits; k++) {
+                if (k == point) {
+                    b.append('.');
+                }
+                b.append((char) ('0' + rnd.nextInt(10)));
+            }
+            if (rnd.nextBoolean()) {
+                b.append(rnd.nextBoolean() ? 'e' : 'E').append(rnd.nextInt(-345, 330));
+            }
+            cells.add(b.toString());
+        }
+        int finite = 0;
+        for (String s : cells) {
+            double want = Double.parseDouble(s);
+            if (Double.isFinite(want)) {
+                assertEquals(Double.doubleToRawLongBits(want), Double.doubleToRawLongBits(CellValues.parse(REAL, s)), s);
+                assertEquals(Double.doubleToRawLongBits(want), Double.doubleToRawLongBits(CellValues.parseLogDensity(s)), s);
+                finite++;
+            } else {
+                assertThrows(IllegalArgumentException.class, () -> CellValues.parse(REAL, s), s);
+                assertThrows(IllegalArgumentException.class, () -> CellValues.parseLogDensity(s), s);
+            }
+        }
+        assertEquals(true, finite > 190_000, "finite cells compared: " + finite);
+    }
 }
