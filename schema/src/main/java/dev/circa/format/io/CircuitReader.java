@@ -58,7 +58,9 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
     /**
      * A reader that reads the nodes of stored files of at least {@code scanAtLeast} bytes straight from
      * their bytes ({@link NodeScanner}), and those of at least {@code splitAtLeast} bytes in two halves on
-     * two threads ({@link NodeArrayTail}); {@code tailEvents} hears, for each read that started a second
+     * two threads ({@link NodeArrayTail}), and those of every stream (standard input, gzip, a caller's
+     * stream) in order with one scanner, unless {@code scanAtLeast} is {@link Long#MAX_VALUE} (the parser
+     * reads everything); {@code tailEvents} hears, for each read that started a second
      * thread, whether its half was taken ({@code true}) or dropped ({@code false}). The document read is
      * the same either way.
      */
@@ -336,11 +338,15 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         private int scanNodes() throws FormatException {
             Path file = in.storedFile();
             long at = in.byteOffset();
-            if (file == null || at < 0 || limits.maxDepth() < 4) {
+            if (at < 0 || limits.maxDepth() < 4) {
                 return 0;
             }
             int line = in.line();
             int column = in.column();
+            if (file == null) {
+                // a stream's length is not known: any stream is scanned, unless this reader never scans
+                return scanAtLeast == Long.MAX_VALUE ? 0 : scanStream(at, line, column);
+            }
             try (FileChannel ch = FileChannel.open(file, StandardOpenOption.READ)) {
                 long size = ch.size();
                 if (size < scanAtLeast || size > limits.maxBytes() || !NodeScanner.startsAsUtf8(ch)) {
@@ -368,6 +374,26 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             } catch (IOException e) {
                 throw new FormatException(file.toString(), 0, 0, null, "cannot be read: " + IoMessages.of(e));
             }
+        }
+
+        /**
+         * The same for an input read in order (standard input, a gzip file, a stream given by the caller):
+         * one {@link NodeScanner} takes the bytes the parser had read past the array's <code>[</code>, then the
+         * stream, and a parser reads on from where it stopped ({@link ResumedInput}) with the bytes it had read
+         * and not taken. Every byte is read from the stream once, in order (so a stream that is hashed as it is
+         * read, as for a certified load, is hashed whole). Inputs the parser reads as characters are left to it.
+         */
+        private int scanStream(long at, int line, int column) throws FormatException {
+            java.io.InputStream source = in.source();
+            byte[] ahead = source == null ? null : in.releaseBuffered();
+            if (ahead == null) {
+                return 0;
+            }
+            NodeScanner scanner = new NodeScanner(source, ahead, at + 1, line, column + 1, limits, table, nodeLocations);
+            scanner.scan(Long.MAX_VALUE, true);
+            in = ResumedInput.open(scanner.rest(), source, scanner.failure(), scanner.offset(), scanner.line(),
+                    scanner.column(), membersBefore, limits, file);
+            return scanner.count();
         }
 
         /** Goes on with a parser that starts at {@code offset} in the nodes array ({@link ResumedInput}). */

@@ -33,6 +33,8 @@ public final class JsonInput implements AutoCloseable {
     private final String file;
     /** The regular file read as stored (not standard input, not gzip), or {@code null}: see {@link #storedFile()}. */
     private Path storedFile;
+    /** The stream the parser reads (null when it was given a parser): see {@link #source()}. */
+    private InputStream source;
     /** The value of the integer {@link #isIntIn(int, int)} last accepted. */
     private int intValue;
     /** Added to every line the parser reports: the input starts this many lines into the file. */
@@ -65,6 +67,24 @@ public final class JsonInput implements AutoCloseable {
      */
     Path storedFile() {
         return storedFile;
+    }
+
+    /** The stream this input's parser reads, when it reads one (else {@code null}). */
+    InputStream source() {
+        return source;
+    }
+
+    /**
+     * The bytes the parser has read from {@link #source()} past the current token and not yet taken, or
+     * {@code null} when it reads characters (an input in UTF-16 or UTF-32) and cannot give them back.
+     */
+    byte[] releaseBuffered() throws FormatException {
+        java.io.ByteArrayOutputStream out = new java.io.ByteArrayOutputStream();
+        try {
+            return parser.releaseBuffered(out) < 0 ? null : out.toByteArray();
+        } catch (JacksonException e) {
+            throw fail(e);
+        }
     }
 
     /**
@@ -101,7 +121,9 @@ public final class JsonInput implements AutoCloseable {
     /** Reads JSON from {@code in} under {@code limits}; {@code file} names it in messages. */
     public static JsonInput fromStream(InputStream in, String file, ReadLimits limits) throws FormatException {
         try {
-            return new JsonInput(mapperFor(limits).createParser(in), file);
+            JsonInput input = new JsonInput(mapperFor(limits).createParser(in), file);
+            input.source = in;
+            return input;
         } catch (JacksonException e) {
             // The parser is created after the encoding is detected from the first bytes: any problem is at the start.
             FormatException f = translate(e, file);

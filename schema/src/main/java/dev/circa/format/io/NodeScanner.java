@@ -4,6 +4,7 @@ import dev.circa.format.Family;
 import dev.circa.format.NodeLocations;
 import dev.circa.format.NodeTable;
 import java.io.IOException;
+import java.io.InputStream;
 import java.nio.ByteBuffer;
 import java.nio.channels.FileChannel;
 import java.util.Arrays;
@@ -66,7 +67,14 @@ final class NodeScanner {
         }
     }
 
+    /** The file read at positions, or {@code null} when the bytes come from {@link #stream} in order. */
     private final FileChannel channel;
+    /** The input read in order (its bytes the parser had read ahead first, from {@link #ahead}), or {@code null}. */
+    private final InputStream stream;
+    private byte[] ahead;
+    private int aheadPos;
+    /** The stream's failure, kept so that the parser meets it again where it reads on ({@link #rest()}). */
+    private IOException failure;
     private final ReadLimits limits;
     private final NodeTable.Builder table;
     private final NodeLocations.Recorder locations;
@@ -110,14 +118,53 @@ final class NodeScanner {
      */
     NodeScanner(FileChannel channel, long offset, int line, int column, ReadLimits limits, NodeTable.Builder table,
             NodeLocations.Recorder locations, long fileSize) {
+        this(channel, null, null, offset, line, column, limits, table, locations,
+                (int) Math.max(64, Math.min(1 << 20, fileSize - offset + 1)));
+    }
+
+    /**
+     * A scanner of an input read in order: {@code ahead} (what the parser had read past the array's
+     * <code>[</code>), then {@code stream}; {@code offset} is the input's byte offset of {@code ahead}'s first byte.
+     */
+    NodeScanner(InputStream stream, byte[] ahead, long offset, int line, int column, ReadLimits limits,
+            NodeTable.Builder table, NodeLocations.Recorder locations) {
+        this(null, stream, ahead, offset, line, column, limits, table, locations, STREAM_BUFFER);
+    }
+
+    private NodeScanner(FileChannel channel, InputStream stream, byte[] ahead, long offset, int line, int column,
+            ReadLimits limits, NodeTable.Builder table, NodeLocations.Recorder locations, int buffer) {
         this.channel = channel;
+        this.stream = stream;
+        this.ahead = ahead;
         this.limits = limits;
         this.table = table;
         this.locations = locations;
-        this.buf = new byte[(int) Math.max(64, Math.min(1 << 20, fileSize - offset + 1))];
+        this.buf = new byte[buffer];
         this.bufStart = offset;
         this.line = line;
         this.lineStart = offset - (column - 1);
+    }
+
+    /** The first buffer of a scanner of a stream (it grows when a node needs more). */
+    private static final int STREAM_BUFFER = 1 << 16;
+
+    /**
+     * After a scan of a stream: the bytes read from it and not taken, from the end of the scan on (the
+     * parser reads them, then the rest of the stream).
+     */
+    byte[] rest() {
+        int from = (int) (endOffset - bufStart);
+        int left = ahead == null ? 0 : ahead.length - aheadPos;
+        byte[] r = Arrays.copyOfRange(buf, from, lim + left);
+        if (left > 0) {
+            System.arraycopy(ahead, aheadPos, r, lim - from, left);
+        }
+        return r;
+    }
+
+    /** The stream's failure that ended the scan, or {@code null}. */
+    IOException failure() {
+        return failure;
     }
 
     /** Whether the file starts as UTF-8 JSON text would without a byte order mark (no zero, nothing past ASCII). */
@@ -640,6 +687,29 @@ final class NodeScanner {
         return true;
     }
 
+    /** Reads from {@link #ahead}, then from {@link #stream}; keeps the stream's failure. */
+    private int readStream(byte[] b, int off, int len) throws IOException {
+        if (ahead != null && aheadPos < ahead.length) {
+            int n = Math.min(len, ahead.length - aheadPos);
+            System.arraycopy(ahead, aheadPos, b, off, n);
+            aheadPos += n;
+            return n;
+        }
+        if (failure != null) {
+            throw failure;
+        }
+        try {
+            int n;
+            do {
+                n = stream.read(b, off, len);
+            } while (n == 0);
+            return n;
+        } catch (IOException e) {
+            failure = e;
+            throw e;
+        }
+    }
+
     /** Whether {@code c} may follow a number: white space, a comma, a bracket or a brace. */
     private static boolean delimiter(byte c) {
         return c == ',' || c == ']' || c == '}' || c == ' ' || c == '\n' || c == '\t' || c == '\r';
@@ -674,7 +744,8 @@ final class NodeScanner {
             }
             buf = Arrays.copyOf(buf, Math.min(MAX_BUFFER, buf.length * 2));
         }
-        int n = channel.read(ByteBuffer.wrap(buf, lim, buf.length - lim), bufStart + lim);
+        int n = channel != null ? channel.read(ByteBuffer.wrap(buf, lim, buf.length - lim), bufStart + lim)
+                : readStream(buf, lim, buf.length - lim);
         if (n <= 0) {
             eof = true;
             return false;

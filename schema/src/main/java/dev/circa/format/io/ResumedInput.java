@@ -41,11 +41,38 @@ final class ResumedInput {
         channel.position(offset);
         InputStream stream = new LimitedInputStream(new SequenceInputStream(new ByteArrayInputStream(prefix),
                 Channels.newInputStream(channel)), limits.maxBytes() - offset + prefix.length, name);
+        return open(stream, prefix, offset, line, column, limits, name);
+    }
+
+    /**
+     * The same for an input read in order: {@code rest} (its bytes from {@code offset} on that were
+     * read but not taken), then {@code stream} (or {@code failure}, the error the stream gave, again).
+     */
+    static JsonInput open(byte[] rest, InputStream stream, IOException failure, long offset, int line, int column,
+            List<String> membersBefore, ReadLimits limits, String name) throws FormatException {
+        byte[] prefix = prefix(membersBefore);
+        InputStream then = failure == null ? stream : new InputStream() {
+            @Override
+            public int read() throws IOException {
+                throw failure;
+            }
+        };
+        InputStream in = new SequenceInputStream(java.util.Collections.enumeration(List.of(
+                new ByteArrayInputStream(prefix), new ByteArrayInputStream(rest), then)));
+        return open(in, prefix, offset, line, column, limits, name);
+    }
+
+    private static JsonInput open(InputStream stream, byte[] prefix, long offset, int line, int column, ReadLimits limits,
+            String name) throws FormatException {
         JsonInput input;
         try {
             input = JsonInput.fromStream(stream, name, limits);
         } catch (FormatException e) {
-            stream.close();
+            try {
+                stream.close();
+            } catch (IOException closing) {
+                e.addSuppressed(closing);
+            }
             throw e;
         }
         input.moveTo(line, column);

@@ -82,12 +82,30 @@ class NodeArrayTailTest {
         String split = outcome(new CircuitReader(limits, ALWAYS, ALWAYS, t -> taken.addAndGet(t ? 1 : 0)), file);
         String scanned = outcome(new CircuitReader(limits, ALWAYS, Long.MAX_VALUE, t -> { }), file);
         String parsed = outcome(parserOnly(limits), file);
-        if (!parsed.equals(split) || !parsed.equals(scanned)) {
-            Files.copy(file, Path.of("/tmp/dbg/fail-" + name), java.nio.file.StandardCopyOption.REPLACE_EXISTING);
-        }
         assertEquals(parsed, scanned, name + ": read straight from the bytes");
         assertEquals(parsed, split, name + ": read in two halves");
+        // as a stream: in the stream's own reads, and a few bytes at a time (every buffer boundary)
+        assertEquals(parsed, outcome(new CircuitReader(limits, ALWAYS, ALWAYS, t -> { }), file, Integer.MAX_VALUE),
+                name + ": read from a stream");
+        assertEquals(parsed, outcome(new CircuitReader(limits, ALWAYS, ALWAYS, t -> { }), file, 1 + name.length() % 7),
+                name + ": read from a stream a few bytes at a time");
         return taken.get() > 0;
+    }
+
+    /** The outcome of reading {@code file} as a stream that gives at most {@code chunk} bytes per read. */
+    private static String outcome(CircuitReader reader, Path file, int chunk) {
+        try (java.io.InputStream in = new java.io.FilterInputStream(Files.newInputStream(file)) {
+            @Override
+            public int read(byte[] b, int off, int len) throws java.io.IOException {
+                return super.read(b, off, Math.min(len, chunk));
+            }
+        }) {
+            return describe(reader.read(in, file.toString()));
+        } catch (FormatException e) {
+            return e.getClass().getSimpleName() + " " + e.line() + ":" + e.column() + " " + e.pointer() + " " + e.getMessage();
+        } catch (java.io.IOException | RuntimeException e) {
+            return "unexpected " + e;
+        }
     }
 
     /** A circuit of {@code n} nodes of every kind: a node per line, or as {@code layout} says. */
