@@ -14,17 +14,7 @@ final class LogDomainPass {
     private static final int CHUNK_ROWS = RegionTensorEvaluator.CHUNK_ROWS;
 
     private final DirectModel m;
-    private final RegionStructure s;
-    private final Layout layout;
-    private final int[] slot;
-    private final ScaledWeights w;
     private final DirectBlocks b;
-    private final double[][][] block;
-    private final double[][] child;
-    private final double[][] expChild;
-    private final double[] vmax;
-    private final double[][] dot;
-    private final double[] partScale;
     /** One sum's children at one row, for the exact per-edge log-sum-exp. */
     private final double[] column;
     /** Per part of a partition, where its exponentials start in {@link DirectBlocks#partRows}. */
@@ -35,17 +25,7 @@ final class LogDomainPass {
     /** The log-domain pass of an evaluator of {@code m} working in {@code b}. */
     LogDomainPass(DirectModel m, DirectBlocks b) {
         this.m = m;
-        this.s = m.s;
-        this.layout = m.layout;
-        this.slot = m.slot;
-        this.w = m.weights;
         this.b = b;
-        this.block = b.block;
-        this.child = b.child;
-        this.expChild = b.expChild;
-        this.vmax = b.vmax;
-        this.dot = b.dot;
-        this.partScale = b.partScale;
         this.column = new double[m.maxChildren];
     }
 
@@ -56,11 +36,11 @@ final class LogDomainPass {
     void logBlock(double[] data, int row0, int n, double[] out) {
         b.columns(data, row0, n);
         for (int r : m.order) {
-            double[][] t = b.block(slot[r]);
-            if (s.isLeaf(r)) {
+            double[][] t = b.block(m.slot[r]);
+            if (m.s.isLeaf(r)) {
                 // a leaf below the root offers its bundles; the root leaf sums over them
-                b.bundles(r, n, r == s.root() ? child : t);
-                if (r != s.root()) {
+                b.bundles(r, n, r == m.s.root() ? b.child : t);
+                if (r != m.s.root()) {
                     continue;
                 }
             } else {
@@ -69,7 +49,7 @@ final class LogDomainPass {
             sums(r, n, t);
         }
         int co = m.outputCount();
-        double[][] root = block[slot[s.root()]];
+        double[][] root = b.block[m.slot[m.s.root()]];
         for (int row = 0; row < n; row++) {
             for (int o = 0; o < co; o++) {
                 out[(row0 + row) * co + o] = root[o][row];
@@ -80,17 +60,17 @@ final class LogDomainPass {
     /** The products of inner region r, in layout order, into {@link DirectBlocks#child}. */
     private void products(int r, int n) {
         int c = 0;
-        for (int part : s.partitionsOf(r)) {
-            int[] parts = s.parts(part);
+        for (int part : m.s.partitionsOf(r)) {
+            int[] parts = m.s.parts(part);
             int pm = parts.length;
             b.firstProduct(pm);
             int[] digit = b.digit;
             boolean more = true;
             while (more) {
-                double[] dst = child[c];
-                System.arraycopy(block[slot[parts[0]]][digit[0]], 0, dst, 0, n);
+                double[] dst = b.child[c];
+                System.arraycopy(b.block[m.slot[parts[0]]][digit[0]], 0, dst, 0, n);
                 for (int t = 1; t < pm; t++) {
-                    double[] src = block[slot[parts[t]]][digit[t]];
+                    double[] src = b.block[m.slot[parts[t]]][digit[t]];
                     for (int row = 0; row < n; row++) {
                         dst[row] += src[row];
                     }
@@ -103,19 +83,20 @@ final class LogDomainPass {
 
     /** The sums of region r over the children in {@link DirectBlocks#child}, into {@code t}. */
     private void sums(int r, int n, double[][] t) {
-        int c = layout.children(r);
-        int k = layout.sums(r);
+        double[] vmax = b.vmax;
+        int c = m.layout.children(r);
+        int k = m.layout.sums(r);
         Arrays.fill(vmax, 0, n, Double.NEGATIVE_INFINITY);
         for (int j = 0; j < c; j++) {
-            double[] v = child[j];
+            double[] v = b.child[j];
             for (int row = 0; row < n; row++) {
                 vmax[row] = Math.max(vmax[row], v[row]);
             }
         }
-        if (s.isLeaf(r)) {
+        if (m.s.isLeaf(r)) {
             for (int j = 0; j < c; j++) {
-                double[] v = child[j];
-                double[] e = expChild[j];
+                double[] v = b.child[j];
+                double[] e = b.expChild[j];
                 for (int row = 0; row < n; row++) {
                     e[row] = Math.exp(v[row] - vmax[row]);
                 }
@@ -124,7 +105,7 @@ final class LogDomainPass {
             linearProducts(r, n);
         }
         for (int q = 0; q < k; q++) {
-            b.product(w.scaled[r], q, c, n);
+            b.product(m.weights.scaled[r], q, c, n);
             finish(r, q, n, c, t[q]);
         }
     }
@@ -139,10 +120,12 @@ final class LogDomainPass {
      * each here, against a fraction of a nanosecond for a vectorised add or multiply).
      */
     private void linearProducts(int r, int n) {
+        double[] vmax = b.vmax;
+        double[] partScale = b.partScale;
         final double neg = Double.NEGATIVE_INFINITY;
         int c = 0;
-        for (int part : s.partitionsOf(r)) {
-            int[] parts = s.parts(part);
+        for (int part : m.s.partitionsOf(r)) {
+            int[] parts = m.s.parts(part);
             int pm = parts.length;
             if (partFirst.length < pm) {
                 partFirst = new int[pm];
@@ -151,8 +134,8 @@ final class LogDomainPass {
             int rows = 0;
             double[][] partExp = b.partRows(0);
             for (int t = 0; t < pm; t++) {
-                double[][] src = block[slot[parts[t]]];
-                int size = layout.size(parts[t]);
+                double[][] src = b.block[m.slot[parts[t]]];
+                int size = m.layout.size(parts[t]);
                 System.arraycopy(src[0], 0, partMax, 0, n);
                 for (int u = 1; u < size; u++) {
                     double[] v = src[u];
@@ -183,7 +166,7 @@ final class LogDomainPass {
             int[] digit = b.digit;
             boolean more = true;
             while (more) {
-                double[] dst = expChild[c];
+                double[] dst = b.expChild[c];
                 System.arraycopy(partScale, 0, dst, 0, n);
                 for (int t = 0; t < pm; t++) {
                     double[] e = partExp[partFirst[t] + digit[t]];
@@ -199,8 +182,9 @@ final class LogDomainPass {
 
     /** Sum q of region r from its scaled sum in {@link DirectBlocks#dot}, at each row, into {@code t}. */
     private void finish(int r, int q, int n, int c, double[] t) {
-        double sh = w.shift[r][q];
-        double[] a = dot[q];
+        double[] vmax = b.vmax;
+        double sh = m.weights.shift[r][q];
+        double[] a = b.dot[q];
         for (int row = 0; row < n; row++) {
             double top = vmax[row];
             if (top == Double.NEGATIVE_INFINITY) {
@@ -216,7 +200,7 @@ final class LogDomainPass {
     /** Sum q of region r at one row by the per-edge log-sum-exp. */
     private double exact(int r, int q, int row, int c) {
         for (int j = 0; j < c; j++) {
-            column[j] = child[j][row];
+            column[j] = b.child[j][row];
         }
         return LogSumExp.weighted(m.p.weights(r, q), m.p.logWeights(r), column, c);
     }
