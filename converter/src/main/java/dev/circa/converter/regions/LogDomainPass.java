@@ -7,8 +7,9 @@ import java.util.Arrays;
  * The exact path of the direct evaluation, for the rows that {@link LinearPass} cannot hold: each region a block of
  * log-values, each sum a scaled sum ({@link ScaledWeights#scaled}, the log of the largest weight added back) over
  * the children's e^(v - vmax), with the exact per-edge log-sum-exp ({@link LogSumExp}) where the scaled sum is below
- * {@link DirectBlocks#SCALED_FLOOR} or the row's largest child or the weights are not finite. Each row is summed in
- * one fixed order (children in layout order, parts in partition order), whatever the other rows of the call.
+ * {@link DirectBlocks#SCALED_FLOOR}, where the row's largest child is +inf or NaN, or where the sum's weights
+ * have no scaled form. Each row is summed in one fixed order (children in layout order, parts in partition
+ * order), whatever the other rows of the call.
  */
 final class LogDomainPass {
     private static final int CHUNK_ROWS = RegionTensorEvaluator.CHUNK_ROWS;
