@@ -2,7 +2,7 @@ package dev.circa.converter.regions;
 
 /**
  * Numbers held as a linear value and an integer power of two ({@code value = y * 2^E}), for the linear
- * evaluation of {@link RegionTensorEvaluator}: exact powers of two built from their bits, the conversion of a
+ * evaluation of {@link LinearPass}: exact powers of two built from their bits, the conversion of a
  * log-value to such a pair and back, with ln 2 split in two so that {@code E * ln 2} keeps its digits for
  * large |E|. Stateless.
  */
