@@ -153,7 +153,8 @@ public final class ModelLoader {
             throw ModelException.unreadable(e);
         }
         Path fileName = file.getFileName();
-        return validate(name, read(stored, name, fileName != null && InputFiles.isGzipName(fileName.toString())));
+        boolean gzip = fileName != null && InputFiles.isGzipName(fileName.toString());
+        return validate(name, read(stored, name, gzip, gzip ? null : file));
     }
 
     /**
@@ -201,7 +202,9 @@ public final class ModelLoader {
         DigestingInputStream d = openDigested(file);
         CircuitDocument doc;
         try {
-            doc = read(d, name, isGzip(file));
+            // the stream is hashed as it is read; a second thread may read part of the nodes from the file,
+            // taken only when the stream's bytes of that part hash the same (CircuitReader.readAlongside)
+            doc = read(d, name, isGzip(file), isGzip(file) ? null : file);
         } catch (ModelException e) {
             try {
                 d.finish(cert.model().bytes());
@@ -238,12 +241,18 @@ public final class ModelLoader {
 
     /** Reads a circuit from its stored bytes under the limits and the hook; closes {@code stored}. */
     CircuitDocument read(InputStream stored, String name, boolean gzip) throws ModelException {
+        return read(stored, name, gzip, null);
+    }
+
+    /** The same; {@code sameFile}, when given, is the file the stored bytes are read from. */
+    private CircuitDocument read(InputStream stored, String name, boolean gzip, Path sameFile) throws ModelException {
         CircuitDocument doc;
         InputStream observed = stored;
         try {
             observed = hook.wrap(stored, name);
             try (InputStream in = InputFiles.decoded(observed, name, gzip, limits.maxBytes())) {
-                doc = new CircuitReader(limits).read(in, name);
+                doc = sameFile == null ? new CircuitReader(limits).read(in, name)
+                        : new CircuitReader(limits).readAlongside(in, name, sameFile);
             }
         } catch (FormatException e) {
             closeAfterFailure(observed);

@@ -10,7 +10,9 @@ import dev.circa.format.Output;
 import dev.circa.format.ReadFinding;
 import dev.circa.format.SourceLocation;
 import java.io.IOException;
+import java.io.InputStream;
 import java.nio.channels.FileChannel;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardOpenOption;
 import java.util.ArrayList;
@@ -73,9 +75,29 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
 
     @Override
     protected CircuitDocument read(JsonInput in) throws FormatException {
+        return read(in, null);
+    }
+
+    private CircuitDocument read(JsonInput in, Path sameFile) throws FormatException {
         try (Pass pass = new Pass(in, limits(), scanAtLeast, splitAtLeast, tailEvents); DeferredNumbers numbers = pass.numbers) {
+            pass.sameFile = sameFile;
             return pass.run();
         }
+    }
+
+    /**
+     * Reads {@code stream}, which gives the bytes of the regular file {@code sameFile} as stored, from its
+     * start and in order (through a digest, for example, which then sees every byte once). Like
+     * {@link #read(InputStream, String)}, except that for a large file a second thread reads the second
+     * half of the nodes straight from the file; its nodes are taken only when the stream's bytes of that
+     * half have the same SHA-256 digest as the bytes it read, and the read fails, saying so, when they differ
+     * (the file changed while it was read). The stream is not closed.
+     *
+     * @param name the file's name in messages
+     */
+    public CircuitDocument readAlongside(InputStream stream, String name, Path sameFile) throws FormatException {
+        JsonInput in = JsonInput.fromStream(stream, name, limits());
+        return read(in, sameFile);
     }
 
     /** The state of one read. */
@@ -90,6 +112,8 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         /** The document's members before {@code nodes}, in order. */
         private final List<String> membersBefore = new ArrayList<>();
         private NodeArrayTail tail;
+        /** The regular file a stream input reads in order, when the caller says so ({@link #readAlongside}). */
+        Path sameFile;
         private final Consumer<Boolean> tailEvents;
         private final String file;
         private final List<ReadFinding> unknown = new ArrayList<>();
@@ -390,10 +414,69 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                 return 0;
             }
             NodeScanner scanner = new NodeScanner(source, ahead, at + 1, line, column + 1, limits, table, nodeLocations);
-            scanner.scan(Long.MAX_VALUE, true);
+            long size = sizeOfSameFile();
+            if (size >= splitAtLeast && size <= limits.maxBytes()) {
+                tail = NodeArrayTail.start(sameFile, size, at, limits, true);
+            }
+            NodeScanner.End end = scanner.scan(tail == null ? Long.MAX_VALUE : tail.nodeOffset(), true);
+            if (end == NodeScanner.End.MET) {
+                if (takeHashedTail(scanner)) {
+                    return -1;
+                }
+                closeTail();
+                scanner.scan(Long.MAX_VALUE, false);
+            }
+            closeTail();
             in = ResumedInput.open(scanner.rest(), source, scanner.failure(), scanner.offset(), scanner.line(),
                     scanner.column(), membersBefore, limits, file);
             return scanner.count();
+        }
+
+        /** The size of {@link #sameFile} when it is a regular file, else -1. */
+        private long sizeOfSameFile() {
+            try {
+                return sameFile != null && Files.isRegularFile(sameFile) ? Files.size(sameFile) : -1;
+            } catch (IOException e) {
+                return -1;
+            }
+        }
+
+        /**
+         * At the node where a hashed tail started: when the tail holds, passes over the stream's bytes of its
+         * nodes (hashing them), checks them against the tail's digest, takes the tail's nodes and goes on after
+         * the array with a parser over the rest of the stream. False when the tail does not hold (the scanner
+         * reads on by itself).
+         */
+        private boolean takeHashedTail(NodeScanner scanner) throws FormatException {
+            int line = scanner.line();
+            int column = scanner.column();
+            if (!tail.handOver(line, column, scanner.count(), limits.maxNodes())) {
+                return false;
+            }
+            java.security.MessageDigest passed = NodeArrayTail.sha256();
+            boolean same;
+            try {
+                same = scanner.passTo(tail.endOffset(), passed) && java.security.MessageDigest.isEqual(passed.digest(),
+                        tail.digest());
+            } catch (FormatException e) {
+                throw e;
+            } catch (IOException e) {
+                throw new FormatException(file, 0, 0, null, "cannot be read: " + IoMessages.of(e));
+            }
+            if (!same) {
+                throw new FormatException(file, 0, 0, null, "changed while it was read: the second half of its nodes"
+                        + " differs between two reads of the file; read it again once it is written");
+            }
+            table.appendAll(tail.table());
+            nodeLocations.appendAll(tail.locations(), line, column);
+            tailEvents.accept(Boolean.TRUE);
+            in = ResumedInput.open(scanner.rest(), in.source(), scanner.failure(), tail.endOffset(), tail.endLine(),
+                    tail.endColumn(), membersBefore, limits, file);
+            // the tail ended on the array's ']'
+            in.nextElement();
+            tail.close();
+            tail = null;
+            return true;
         }
 
         /** Goes on with a parser that starts at {@code offset} in the nodes array ({@link ResumedInput}). */

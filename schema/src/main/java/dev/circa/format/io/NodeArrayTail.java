@@ -60,12 +60,25 @@ final class NodeArrayTail implements AutoCloseable {
      * @param nodesOffset the byte offset of the nodes array's <code>[</code>
      */
     static NodeArrayTail start(Path file, long size, long nodesOffset, ReadLimits limits) {
+        return start(file, size, nodesOffset, limits, false);
+    }
+
+    /**
+     * The same; with {@code hash}, the tail also takes the SHA-256 digest of the bytes it reads, from its
+     * brace to the array's end ({@link #digest()}), so that a reader of the same file as a stream can check
+     * that the tail read the bytes it passes over.
+     */
+    static NodeArrayTail start(Path file, long size, long nodesOffset, ReadLimits limits, boolean hash) {
         try (FileChannel ch = FileChannel.open(file, StandardOpenOption.READ)) {
             long brace = objectAfterComma(ch, nodesOffset + (size - nodesOffset) / 2);
             if (brace < 0) {
                 return null;
             }
             NodeArrayTail tail = new NodeArrayTail(brace, FileChannel.open(file, StandardOpenOption.READ), limits, size);
+            if (hash) {
+                tail.scanner.hashTaken(sha256());
+                tail.hashing = true;
+            }
             tail.thread.start();
             return tail;
         } catch (IOException e) {
@@ -149,9 +162,29 @@ final class NodeArrayTail implements AutoCloseable {
         }
     }
 
+    /** SHA-256, which every Java platform has. */
+    static java.security.MessageDigest sha256() {
+        try {
+            return java.security.MessageDigest.getInstance("SHA-256");
+        } catch (java.security.NoSuchAlgorithmException e) {
+            throw new IllegalStateException("SHA-256 is missing from this Java platform", e);
+        }
+    }
+
+    /** The digest of the bytes read, from the brace to the array's end (after a clean {@link #handOver}, with hashing). */
+    byte[] digest() {
+        return digest;
+    }
+
+    private volatile byte[] digest;
+    private boolean hashing;
+
     private void run() {
         try {
             clean = scanner.scan(Long.MAX_VALUE, false) == NodeScanner.End.ARRAY_END;
+            if (clean && hashing) {
+                digest = scanner.takenDigest();
+            }
         } catch (Error e) {
             error = e;
         } finally {

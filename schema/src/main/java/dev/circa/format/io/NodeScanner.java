@@ -76,6 +76,8 @@ final class NodeScanner {
     /** The stream's failure, kept so that the parser meets it again where it reads on ({@link #rest()}). */
     private IOException failure;
     private final ReadLimits limits;
+    /** When set, every byte the scan takes, in order ({@link #hashTaken}). */
+    private java.security.MessageDigest taken;
     private final NodeTable.Builder table;
     private final NodeLocations.Recorder locations;
     private byte[] buf;
@@ -160,6 +162,40 @@ final class NodeScanner {
             System.arraycopy(ahead, aheadPos, r, lim - from, left);
         }
         return r;
+    }
+
+    /** Makes the scan feed {@code d} every byte it takes, from its start to where it ends ({@link #takenDigest()}). */
+    void hashTaken(java.security.MessageDigest d) {
+        taken = d;
+    }
+
+    /** After a scan with {@link #hashTaken}: the digest of the bytes from its start to its end (exclusive). */
+    byte[] takenDigest() {
+        taken.update(buf, 0, (int) (endOffset - bufStart));
+        return taken.digest();
+    }
+
+    /**
+     * Passes over the input from where the scan stopped to {@code target} (a later byte offset) without
+     * reading nodes, feeding the bytes to {@code d}; the scan then stands at {@code target} (its line and
+     * column are the caller's to know). False when the input ends first.
+     */
+    boolean passTo(long target, java.security.MessageDigest d) throws IOException {
+        pos = (int) (endOffset - bufStart);
+        while (bufStart + lim < target) {
+            d.update(buf, pos, lim - pos);
+            pos = lim;
+            mark = lim;
+            if (!fill()) {
+                return false;
+            }
+        }
+        int to = (int) (target - bufStart);
+        d.update(buf, pos, to - pos);
+        pos = to;
+        mark = to;
+        endOffset = target;
+        return true;
     }
 
     /** The stream's failure that ended the scan, or {@code null}. */
@@ -732,6 +768,9 @@ final class NodeScanner {
             return false;
         }
         if (mark > 0) {
+            if (taken != null) {
+                taken.update(buf, 0, mark);
+            }
             System.arraycopy(buf, mark, buf, 0, lim - mark);
             bufStart += mark;
             pos -= mark;

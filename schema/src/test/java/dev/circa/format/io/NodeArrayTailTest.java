@@ -89,7 +89,42 @@ class NodeArrayTailTest {
                 name + ": read from a stream");
         assertEquals(parsed, outcome(new CircuitReader(limits, ALWAYS, ALWAYS, t -> { }), file, 1 + name.length() % 7),
                 name + ": read from a stream a few bytes at a time");
-        return taken.get() > 0;
+        AtomicInteger alongside = new AtomicInteger();
+        assertEquals(parsed, alongside(new CircuitReader(limits, ALWAYS, ALWAYS, t -> alongside.addAndGet(t ? 1 : 0)), file,
+                file), name + ": read from a stream, the second half from the file on a second thread");
+        return taken.get() > 0 || alongside.get() > 0;
+    }
+
+    /** The outcome of {@link CircuitReader#readAlongside}: the stream of {@code file}, the second thread on {@code same}. */
+    private static String alongside(CircuitReader reader, Path file, Path same) {
+        try (java.io.InputStream in = Files.newInputStream(file)) {
+            return describe(reader.readAlongside(in, file.toString(), same));
+        } catch (FormatException e) {
+            return e.getClass().getSimpleName() + " " + e.line() + ":" + e.column() + " " + e.pointer() + " " + e.getMessage();
+        } catch (java.io.IOException | RuntimeException e) {
+            return "unexpected " + e;
+        }
+    }
+
+    @Test
+    void streamBesideItsFile_secondHalfTakenWhenItsBytesHashTheSame_refusedWhenTheFileDiffers() throws Exception {
+        Path file = dir.resolve("alongside.json");
+        // every node plain (node 1's label in ASCII), so that the stream's scanner reads up to the second half
+        String text = circuit(4000, ",\n", "", "").replace("vanne \u00e9t\u00e9 \u2014 ", "valve ");
+        Files.writeString(file, text);
+        AtomicInteger events = new AtomicInteger();
+        String read = alongside(new CircuitReader(ReadLimits.DEFAULT, ALWAYS, ALWAYS, t -> events.addAndGet(t ? 100 : 1)),
+                file, file);
+        assertEquals(outcome(parserOnly(ReadLimits.DEFAULT), file), read);
+        assertEquals(100, events.get(), "the second half was read on the second thread and taken");
+        // the same file with one weight changed in its last node: the stream reads one, the second thread the other
+        int last = text.lastIndexOf("0.");
+        String changed = text.substring(0, last) + (text.charAt(last + 2) == '9' ? "0.1" : "0.9") + text.substring(last + 3);
+        assertEquals(text.length(), changed.length());
+        Path other = dir.resolve("alongside-changed.json");
+        Files.writeString(other, changed);
+        String refused = alongside(new CircuitReader(ReadLimits.DEFAULT, ALWAYS, ALWAYS, t -> { }), file, other);
+        assertTrue(refused.startsWith("FormatException 0:0 null " + file + ": changed while it was read"), refused);
     }
 
     /** The outcome of reading {@code file} as a stream that gives at most {@code chunk} bytes per read. */
