@@ -18,9 +18,10 @@ import java.util.Arrays;
  * is the double of its state index or count. A value outside an input's support has density 0 (log -inf).
  *
  * <p>Not thread-safe: use one evaluator per thread (they may share the circuit). An evaluator owns a
- * workspace of about {@code nodeCount x chunk} doubles that is grown on first use and reused by every
- * later call; rows are processed in chunks of at most {@value #MAX_CHUNK_ROWS} rows, fewer for circuits
- * so large that the workspace would pass {@value #VALUE_BUDGET} doubles, so memory stays bounded for any
+ * workspace of about {@code nodeCount x chunk} doubles (and, for {@link #mpe}, as many ints: the child
+ * each sum chose) that is grown on first use and reused by every later call; rows are processed in
+ * chunks of at most {@value #MAX_CHUNK_ROWS} rows, fewer for circuits so large that the workspace
+ * would pass {@value #VALUE_BUDGET} doubles, so memory stays bounded for any
  * batch size. On the automatic path with dense blocks, a node's values are kept only while a later node
  * reads them, so the workspace is {@code slots x chunk} doubles for far fewer slots than nodes, and chunks
  * of up to {@value #DENSE_CHUNK_ROWS} rows (longer matrix products: on the 10^6-edge circuit of bench/run at
@@ -65,6 +66,8 @@ public final class Evaluator {
     private final double[] scratch;
     private final MvNormalWorkspace mvn;
     private double[] value = new double[0];
+    /** Per sum and row of the last max-product pass, the child edge a backtrack takes (node-major, as {@link #value}). */
+    private int[] choice = new int[0];
     private double[] denseValue = new double[0];
     private double[] partial = new double[0];
     private boolean[] hide;
@@ -206,7 +209,8 @@ public final class Evaluator {
      * Most probable explanation by max-product and backtracking: each row's missing cells filled with the
      * values of the best assignment reached from {@code output}. For a smooth, decomposable and
      * deterministic circuit this is the exact MPE and {@code logValue} its log-density; for other circuits
-     * it is an approximation (the caller states which). Variables outside the output's scope stay NaN.
+     * it is an approximation (the caller states which). Variables outside the output's scope stay NaN. At a
+     * sum the backtrack takes the first of its children with the largest weighted value, in the sum's order.
      *
      * @param data input: as {@link #logDensity}
      * @param rows input: number of rows
@@ -244,12 +248,12 @@ public final class Evaluator {
             for (int r = 0; r < n; r++) {
                 logValue[row0 + r] = v[root * n + r];
                 System.arraycopy(data, (row0 + r) * nv, completed, (row0 + r) * nv, nv);
-                backtrack(v, n, r, root, completed, (row0 + r) * nv);
+                backtrack(n, r, root, completed, (row0 + r) * nv);
             }
         }
     }
 
-    private void backtrack(double[] v, int n, int r, int root, double[] completed, int rowBase) {
+    private void backtrack(int n, int r, int root, double[] completed, int rowBase) {
         int mark = nextGeneration();
         int top = 0;
         stack[top++] = root;
@@ -267,15 +271,8 @@ public final class Evaluator {
                     }
                 }
             } else if (c.kind[i] == CircuitData.SUM) {
-                int best = c.childIndex[s];
-                double bestValue = c.logWeight[s] + v[best * n + r];
-                for (int e = s + 1; e < end; e++) {
-                    double t = c.logWeight[e] + v[c.childIndex[e] * n + r];
-                    if (t > bestValue) {
-                        bestValue = t;
-                        best = c.childIndex[e];
-                    }
-                }
+                // the child the forward pass chose (ForwardKernel.run with a choice): no scan of the children here
+                int best = c.childIndex[choice[i * n + r]];
                 if (stamp[best] != mark) {
                     stamp[best] = mark;
                     stack[top++] = best;
@@ -317,14 +314,18 @@ public final class Evaluator {
 
     /** Max-product values of every node (node-major), fused products on the automatic path. */
     private double[] runMax(double[] data, int row0, int n) {
-        if (blocks == null) {
-            return run(data, row0, n, null, true);
-        }
         long need = (long) c.nodeCount * n;
         if (value.length < need) {
             value = new double[(int) Math.min(Integer.MAX_VALUE - 8, (long) c.nodeCount * genericChunk)];
         }
-        DenseKernel.runMax(c, blocks, data, row0, n, value, scratch, mvn);
+        if (choice.length < need) {
+            choice = new int[value.length];
+        }
+        if (blocks == null) {
+            ForwardKernel.run(c, data, row0, n, null, true, value, choice, scratch, mvn);
+        } else {
+            DenseKernel.runMax(c, blocks, data, row0, n, value, choice, scratch, mvn);
+        }
         return value;
     }
 

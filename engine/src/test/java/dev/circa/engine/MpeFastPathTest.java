@@ -35,4 +35,32 @@ class MpeFastPathTest {
         }
         assertTrue(checked > 6, "most circuits take the automatic path");
     }
+
+    @Test
+    void mpe_tiedChildren_firstOfTheLargestTakenOnBothPaths() throws Exception {
+        // Two normal components of equal weight and spread have equal modes: the first child of the sum is
+        // taken (the rule Evaluator#mpe states: the first of the largest, in the sum's order; common practice);
+        // with unequal weights the heavier one. Every row missing, in a batch of 5.
+        String json = """
+                {"format": "circa.circuit", "version": "1.0", "variables": [{"name": "flow", "type": "real"}],
+                 "nodes": [{"id": 0, "input": "normal", "var": 0, "mean": 2.0, "sd": 0.5},
+                           {"id": 1, "input": "normal", "var": 0, "mean": 7.0, "sd": 0.5},
+                           {"id": 2, "sum": [0, 1], "weights": [0.5, 0.5]},
+                           {"id": 3, "sum": [1, 0], "weights": [0.5, 0.5]},
+                           {"id": 4, "sum": [0, 1], "weights": [0.4, 0.6]}],
+                 "outputs": [{"name": "a", "node": 2}, {"name": "b", "node": 3}, {"name": "c", "node": 4}]}""";
+        CompiledCircuit circuit = CompiledCircuit.compile(new dev.circa.format.io.CircuitReader().readString(json, "tie.json"));
+        double[] data = {Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN};
+        double[] expected = {2.0, 7.0, 7.0};
+        for (Evaluator.Mode mode : Evaluator.Mode.values()) {
+            for (int output = 0; output < 3; output++) {
+                double[] completed = new double[5];
+                double[] value = new double[5];
+                new Evaluator(circuit, mode).mpe(data, 5, output, completed, value);
+                double[] want = new double[5];
+                java.util.Arrays.fill(want, expected[output]);
+                assertArrayEquals(want, completed, mode + " output " + output);
+            }
+        }
+    }
 }

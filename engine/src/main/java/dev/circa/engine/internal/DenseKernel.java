@@ -76,7 +76,7 @@ public final class DenseKernel {
      * entries are left unset; every other node as {@link ForwardKernel#node}.
      */
     public static void runMax(CircuitData c, DenseBlocks d, double[] data, int row0, int rows, double[] value,
-            double[] scratch, MvNormalWorkspace mvn) {
+            int[] choice, double[] scratch, MvNormalWorkspace mvn) {
         final byte[] action = d.action;
         final int nv = c.variableCount;
         for (int i = 0; i < c.nodeCount; i++) {
@@ -106,7 +106,7 @@ public final class DenseKernel {
                     value[base + r] = acc;
                 }
             } else if (a != DenseBlocks.SKIP || c.kind[i] != CircuitData.INPUT) {
-                ForwardKernel.node(c, i, data, row0, rows, null, true, value, scratch, mvn);
+                ForwardKernel.node(c, i, data, row0, rows, null, true, value, choice, scratch, mvn);
             }
         }
     }

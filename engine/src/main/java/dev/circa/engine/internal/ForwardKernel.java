@@ -26,14 +26,24 @@ public final class ForwardKernel {
      */
     public static void run(CircuitData c, double[] data, int row0, int rows, boolean[] hide, boolean max,
             double[] value, double[] scratch, MvNormalWorkspace mvn) {
+        run(c, data, row0, rows, hide, max, value, null, scratch, mvn);
+    }
+
+    /**
+     * The same; with {@code choice} (max-product only, node-major like {@code value}), each sum also records at
+     * each row the child edge a backtrack takes: the first of the largest weighted children, or the first child
+     * when its own weighted value is NaN (what a scan of the children in order with {@code >} keeps).
+     */
+    public static void run(CircuitData c, double[] data, int row0, int rows, boolean[] hide, boolean max,
+            double[] value, int[] choice, double[] scratch, MvNormalWorkspace mvn) {
         for (int i = 0; i < c.nodeCount; i++) {
-            node(c, i, data, row0, rows, hide, max, value, scratch, mvn);
+            node(c, i, data, row0, rows, hide, max, value, choice, scratch, mvn);
         }
     }
 
     /** Evaluates node {@code i} alone, its children being done; arguments as {@link #run}. */
     static void node(CircuitData c, int i, double[] data, int row0, int rows, boolean[] hide, boolean max,
-            double[] value, double[] scratch, MvNormalWorkspace mvn) {
+            double[] value, int[] choice, double[] scratch, MvNormalWorkspace mvn) {
         final int[] childStart = c.childStart;
         final int[] childIndex = c.childIndex;
         final double[] logWeight = c.logWeight;
@@ -53,6 +63,10 @@ public final class ForwardKernel {
             for (int r = 0; r < rows; r++) {
                 value[base + r] = Double.NEGATIVE_INFINITY;
             }
+            if (choice != null) {
+                maxWithChoice(value, base, rows, s, end, childIndex, logWeight, choice, scratch);
+                return;
+            }
             for (int e = s; e < end; e++) {
                 int cb = childIndex[e] * rows;
                 double w = logWeight[e];
@@ -68,6 +82,34 @@ public final class ForwardKernel {
             }
         } else {
             input(c, data, row0, rows, hide, max, value, base, c.inputSlot[i], c.variableCount, mvn);
+        }
+    }
+
+    /**
+     * A sum's maxima (the same doubles as without a choice) and, per row, the edge of the child a backtrack
+     * takes ({@link #run}); {@code nanFirst} marks the rows whose first weighted child is NaN.
+     */
+    private static void maxWithChoice(double[] value, int base, int rows, int s, int end, int[] childIndex,
+            double[] logWeight, int[] choice, double[] nanFirst) {
+        int cb0 = childIndex[s] * rows;
+        double w0 = logWeight[s];
+        for (int r = 0; r < rows; r++) {
+            double t = w0 + value[cb0 + r];
+            nanFirst[r] = t != t ? 1 : 0;
+            choice[base + r] = s;
+        }
+        for (int e = s; e < end; e++) {
+            int cb = childIndex[e] * rows;
+            double w = logWeight[e];
+            for (int r = 0; r < rows; r++) {
+                double t = w + value[cb + r];
+                if (t > value[base + r]) {
+                    value[base + r] = t;
+                    if (nanFirst[r] == 0) {
+                        choice[base + r] = e;
+                    }
+                }
+            }
         }
     }
 
