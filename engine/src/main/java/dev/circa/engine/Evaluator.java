@@ -131,7 +131,7 @@ public final class Evaluator {
     void logDensityRange(double[] data, int from, int to, double[] out) {
         for (int row0 = from; row0 < to; row0 += chunk) {
             int n = Math.min(chunk, to - row0);
-            double[] v = run(data, row0, n, null, false);
+            double[] v = run(data, row0, n, null);
             copyOutputs(v, row0, n, out);
         }
     }
@@ -174,13 +174,13 @@ public final class Evaluator {
         }
         for (int row0 = from; row0 < to; row0 += chunk) {
             int n = Math.min(chunk, to - row0);
-            double[] v = run(data, row0, n, null, false);
+            double[] v = run(data, row0, n, null);
             for (int r = 0; r < n; r++) {
                 for (int o = 0; o < outs; o++) {
                     partial[r * outs + o] = v[outputRow[o] * n + r];
                 }
             }
-            v = run(data, row0, n, hide, false);
+            v = run(data, row0, n, hide);
             for (int r = 0; r < n; r++) {
                 for (int o = 0; o < outs; o++) {
                     double evidence = v[outputRow[o] * n + r];
@@ -314,11 +314,8 @@ public final class Evaluator {
 
     /** Max-product values of every node (node-major), fused products on the automatic path. */
     private double[] runMax(double[] data, int row0, int n) {
-        long need = (long) c.nodeCount * n;
-        if (value.length < need) {
-            value = new double[(int) Math.min(Integer.MAX_VALUE - 8, (long) c.nodeCount * genericChunk)];
-        }
-        if (choice.length < need) {
+        growValue(n);
+        if (choice.length < value.length) {
             choice = new int[value.length];
         }
         if (blocks == null) {
@@ -329,8 +326,9 @@ public final class Evaluator {
         return value;
     }
 
-    private double[] run(double[] data, int row0, int n, boolean[] hidden, boolean max) {
-        if (blocks != null && !max) {
+    /** Sum-product values (of slots on the automatic path with dense blocks, else node-major) of a chunk. */
+    private double[] run(double[] data, int row0, int n, boolean[] hidden) {
+        if (blocks != null) {
             long need = (long) blocks.slotCount * n;
             if (denseValue.length < need) {
                 denseValue = new double[(int) Math.min(Integer.MAX_VALUE - 8, (long) blocks.slotCount * chunk)];
@@ -341,12 +339,16 @@ public final class Evaluator {
             DenseKernel.run(c, blocks, data, row0, n, hidden, denseValue, scratch, mvn, dense);
             return denseValue;
         }
-        long need = (long) c.nodeCount * n;
-        if (value.length < need) {
+        growValue(n);
+        ForwardKernel.run(c, data, row0, n, hidden, false, value, scratch, mvn);
+        return value;
+    }
+
+    /** Makes {@link #value} hold every node at {@code n} rows (sized once for the largest chunk). */
+    private void growValue(int n) {
+        if (value.length < (long) c.nodeCount * n) {
             value = new double[(int) Math.min(Integer.MAX_VALUE - 8, (long) c.nodeCount * genericChunk)];
         }
-        ForwardKernel.run(c, data, row0, n, hidden, max, value, scratch, mvn);
-        return value;
     }
 
     private void copyOutputs(double[] v, int row0, int n, double[] out) {

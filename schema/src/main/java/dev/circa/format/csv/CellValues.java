@@ -11,6 +11,8 @@ import tools.jackson.core.io.NumberInput;
 public final class CellValues {
     /** The largest count read or written: every whole number up to 2^53 is exactly a double. */
     public static final long MAX_COUNT = 1L << 53;
+    /** Longest cell decoded by the fast parser; longer ones (rare) go to {@link Double#parseDouble}. */
+    private static final int FAST_LENGTH = 40;
 
     private CellValues() {
     }
@@ -122,9 +124,6 @@ public final class CellValues {
         }
         return decimal(s);
     }
-
-    /** Longest cell decoded by the fast parser; longer ones (rare) go to {@link Double#parseDouble}. */
-    private static final int FAST_LENGTH = 40;
 
     /**
      * The double nearest to a cell that {@link #isDecimal} accepted: Jackson's fast decimal parser, which

@@ -9,6 +9,7 @@ import dev.circa.format.NodeTable;
 import dev.circa.format.Output;
 import dev.circa.format.ReadFinding;
 import dev.circa.format.SourceLocation;
+import dev.circa.format.certificate.CertificateWriter;
 import java.io.IOException;
 import java.io.InputStream;
 import java.nio.channels.FileChannel;
@@ -408,7 +409,7 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
          * read, as for a certified load, is hashed whole). Inputs the parser reads as characters are left to it.
          */
         private int scanStream(long at, int line, int column) throws FormatException {
-            java.io.InputStream source = in.source();
+            InputStream source = in.source();
             byte[] ahead = source == null ? null : in.releaseBuffered();
             if (ahead == null) {
                 return 0;
@@ -420,15 +421,14 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             }
             NodeScanner.End end = scanner.scan(tail == null ? Long.MAX_VALUE : tail.nodeOffset(), true);
             if (end == NodeScanner.End.MET) {
-                if (takeHashedTail(scanner)) {
+                if (takeHashedTail(scanner, source)) {
                     return -1;
                 }
-                closeTail();
                 scanner.scan(Long.MAX_VALUE, false);
             }
             closeTail();
-            in = ResumedInput.open(scanner.rest(), source, scanner.failure(), scanner.offset(), scanner.line(),
-                    scanner.column(), membersBefore, limits, file);
+            goOn(ResumedInput.open(scanner.rest(), source, scanner.failure(), scanner.offset(), scanner.line(),
+                    scanner.column(), membersBefore, limits, file));
             return scanner.count();
         }
 
@@ -447,13 +447,13 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
          * the array with a parser over the rest of the stream. False when the tail does not hold (the scanner
          * reads on by itself).
          */
-        private boolean takeHashedTail(NodeScanner scanner) throws FormatException {
+        private boolean takeHashedTail(NodeScanner scanner, InputStream source) throws FormatException {
             int line = scanner.line();
             int column = scanner.column();
             if (!tail.handOver(line, column, scanner.count(), limits.maxNodes())) {
                 return false;
             }
-            java.security.MessageDigest passed = NodeArrayTail.sha256();
+            java.security.MessageDigest passed = CertificateWriter.newSha256();
             boolean same;
             try {
                 same = scanner.passTo(tail.endOffset(), passed) && java.security.MessageDigest.isEqual(passed.digest(),
@@ -467,25 +467,36 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                 throw new FormatException(file, 0, 0, null, "changed while it was read: the second half of its nodes"
                         + " differs between two reads of the file; read it again once it is written");
             }
-            table.appendAll(tail.table());
-            nodeLocations.appendAll(tail.locations(), line, column);
-            tailEvents.accept(Boolean.TRUE);
-            in = ResumedInput.open(scanner.rest(), in.source(), scanner.failure(), tail.endOffset(), tail.endLine(),
-                    tail.endColumn(), membersBefore, limits, file);
-            // the tail ended on the array's ']'
-            in.nextElement();
-            tail.close();
-            tail = null;
+            adoptTail(line, column, ResumedInput.open(scanner.rest(), source, scanner.failure(), tail.endOffset(),
+                    tail.endLine(), tail.endColumn(), membersBefore, limits, file));
             return true;
         }
 
         /** Goes on with a parser that starts at {@code offset} in the nodes array ({@link ResumedInput}). */
         private void resume(long offset, int line, int column) throws IOException {
-            JsonInput next = ResumedInput.open(first.storedFile(), offset, line, column, membersBefore, limits, file);
+            goOn(ResumedInput.open(first.storedFile(), offset, line, column, membersBefore, limits, file));
+        }
+
+        /** Reads on with {@code next}, closing a resumed input this read opened before (the caller closes the first). */
+        private void goOn(JsonInput next) throws FormatException {
             if (in != first) {
                 in.close();
             }
             in = next;
+        }
+
+        /**
+         * Takes a tail that holds: its nodes (from the node met at {@code line}, {@code column}), then reads on
+         * with {@code after}, a parser standing on the array's <code>]</code> where the tail ended.
+         */
+        private void adoptTail(int line, int column, JsonInput after) throws FormatException {
+            table.appendAll(tail.table());
+            nodeLocations.appendAll(tail.locations(), line, column);
+            tailEvents.accept(Boolean.TRUE);
+            goOn(after);
+            in.nextElement();
+            tail.close();
+            tail = null;
         }
 
         /**
@@ -496,20 +507,16 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             if (!tail.handOver(line, column, nodesBefore, limits.maxNodes())) {
                 return false;
             }
-            table.appendAll(tail.table());
-            nodeLocations.appendAll(tail.locations(), line, column);
-            tailEvents.accept(Boolean.TRUE);
+            JsonInput after;
             try {
-                resume(tail.endOffset(), tail.endLine(), tail.endColumn());
-                // the tail ended on the array's ']'
-                in.nextElement();
+                after = ResumedInput.open(first.storedFile(), tail.endOffset(), tail.endLine(), tail.endColumn(),
+                        membersBefore, limits, file);
             } catch (FormatException e) {
                 throw e;
             } catch (IOException e) {
                 throw new FormatException(file, 0, 0, null, "cannot be read: " + IoMessages.of(e));
             }
-            tail.close();
-            tail = null;
+            adoptTail(line, column, after);
             return true;
         }
 

@@ -40,6 +40,8 @@ final class NodeArrayTail implements AutoCloseable {
     /** Whether the tail read its nodes up to the end of the array. */
     private volatile boolean clean;
     private volatile Error error;
+    /** SHA-256 of the bytes read, when the tail hashes ({@link #digest()}). */
+    private volatile byte[] digest;
     /** Where the array ends, in the file's lines and columns (after {@link #handOver}). */
     private int endLine;
     private int endColumn;
@@ -76,8 +78,7 @@ final class NodeArrayTail implements AutoCloseable {
             }
             NodeArrayTail tail = new NodeArrayTail(brace, FileChannel.open(file, StandardOpenOption.READ), limits, size);
             if (hash) {
-                tail.scanner.hashTaken(sha256());
-                tail.hashing = true;
+                tail.scanner.hashTaken(dev.circa.format.certificate.CertificateWriter.newSha256());
             }
             tail.thread.start();
             return tail;
@@ -162,27 +163,15 @@ final class NodeArrayTail implements AutoCloseable {
         }
     }
 
-    /** SHA-256, which every Java platform has. */
-    static java.security.MessageDigest sha256() {
-        try {
-            return java.security.MessageDigest.getInstance("SHA-256");
-        } catch (java.security.NoSuchAlgorithmException e) {
-            throw new IllegalStateException("SHA-256 is missing from this Java platform", e);
-        }
-    }
-
     /** The digest of the bytes read, from the brace to the array's end (after a clean {@link #handOver}, with hashing). */
     byte[] digest() {
         return digest;
     }
 
-    private volatile byte[] digest;
-    private boolean hashing;
-
     private void run() {
         try {
             clean = scanner.scan(Long.MAX_VALUE, false) == NodeScanner.End.ARRAY_END;
-            if (clean && hashing) {
+            if (clean) {
                 digest = scanner.takenDigest();
             }
         } catch (Error e) {

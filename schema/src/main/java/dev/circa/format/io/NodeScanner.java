@@ -169,8 +169,11 @@ final class NodeScanner {
         taken = d;
     }
 
-    /** After a scan with {@link #hashTaken}: the digest of the bytes from its start to its end (exclusive). */
+    /** After a scan: the digest of the bytes from its start to its end (exclusive), or null without {@link #hashTaken}. */
     byte[] takenDigest() {
+        if (taken == null) {
+            return null;
+        }
         taken.update(buf, 0, (int) (endOffset - bufStart));
         return taken.digest();
     }
