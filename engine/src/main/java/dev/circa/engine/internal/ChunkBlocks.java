@@ -2,13 +2,15 @@ package dev.circa.engine.internal;
 
 /**
  * {@link DenseKernel}'s evaluation of one dense block at every row of a chunk of several rows (the
- * one-row case is {@code DenseKernel.blockRow}, with the same values bit for bit). The method is the
- * kernel's: per row, each part's maximum, the segments' sums of maxima and the block's largest; each part
- * node's exponential after its part's maximum is subtracted; a segment's products as the outer product of
+ * one-row case is {@link RowBlocks}, with the same values bit for bit). The method is the
+ * kernel's: per row, each part's offset (its maximum, or the offset of the block that holds it in linear
+ * form), the segments' sums of offsets and the block's largest; each part node's factor (its exponential
+ * after its part's maximum is subtracted, or its mantissa as it is); a segment's products as the outer product of
  * its parts' exponentials (times exp(segment maximum - block maximum) when there are several segments);
  * then sums = weights x products, every entry summed over the products in order from the first; and
  * log(sum) + largest log-weight + block maximum, or the exact log-sum-exp where the linear sum is below
- * {@link DenseKernel#TINY} or the row's maximum is not finite.
+ * {@link DenseKernel#TINY} or the row's maximum is not finite, or the sums in linear form
+ * ({@link LinearOutput}) where the block holds them so.
  *
  * <p>Layout: every per-row quantity of the block is a row array of its own ({@code products[j][r]},
  * {@code sums[k][r]}, {@code partMax[p][r]}, {@code segMax[s][r]}, {@code partExp[j][r]}), and a node's
@@ -213,8 +215,8 @@ final class ChunkBlocks {
 
     /**
      * Block b's sums from {@link #sums} at every row: in linear form where it holds them
-     * ({@link LinearOutput}, the same operations as the one-row case), else log-values as
-     * every other block and offset NaN.
+     * ({@link LinearOutput#held}, the same operations as the one-row case), else log-values as every other
+     * block, with offset NaN. Every loop but the one over a chunk with rows not held indexes its arrays alike.
      */
     private void linearSums(CircuitData c, DenseBlocks d, int b, int rows, double[] value) {
         final int k0 = d.sumStart[b];
@@ -223,62 +225,77 @@ final class ChunkBlocks {
         final double[] bm = blockMax;
         final double[] ck = check;
         final double[] top = cells;
-        final double[] inv = offsets;
-        final double neg = Double.NEGATIVE_INFINITY;
+        final double[] low = offsets;
         for (int r = 0; r < rows; r++) {
             top[r] = 0;
-            held[r] = ck[r] == 0 && bm[r] != neg;
-        }
-        for (int k = k0; k < k1; k++) {
-            final double[] ct = sums[k - k0];
-            final double sk = scale[k];
-            final boolean live = sk != 0;
-            for (int r = 0; r < rows; r++) {
-                double sum = ct[r];
-                held[r] &= !live || LinearOutput.holds(sum);
-                top[r] = Math.max(top[r], sum * sk);
-            }
-        }
-        for (int r = 0; r < rows; r++) {
-            int ex = Math.getExponent(top[r]);
-            exponent[r] = ex;
-            inv[r] = held[r] ? LinearOutput.pow2(-ex) : 0;
+            low[r] = Double.POSITIVE_INFINITY;
         }
         for (int k = k0; k < k1; k++) {
             final double[] ct = sums[k - k0];
             final double sk = scale[k];
             if (sk != 0) {
                 for (int r = 0; r < rows; r++) {
-                    held[r] &= ct[r] * sk * inv[r] >= Double.MIN_NORMAL;
+                    double a = ct[r] * sk;
+                    top[r] = Math.max(top[r], a);
+                    low[r] = Math.min(low[r], a);
                 }
+            }
+        }
+        boolean all = true;
+        final double[] inv = low;
+        for (int r = 0; r < rows; r++) {
+            boolean h = LinearOutput.held(ck[r], bm[r], low[r], top[r]);
+            int ex = Math.getExponent(top[r]);
+            exponent[r] = ex;
+            held[r] = h;
+            inv[r] = h ? LinearOutput.pow2(-ex) : 0;
+            all &= h;
+        }
+        for (int k = k0; k < k1; k++) {
+            final int vb = d.sumSlot[k] * rows;
+            final double[] ct = sums[k - k0];
+            final double sk = scale[k];
+            if (all) {
+                for (int r = 0; r < rows; r++) {
+                    value[vb + r] = ct[r] * sk * inv[r];
+                }
+            } else {
+                logWhereNotHeld(c, d, k, k - k0, rows, value);
             }
         }
         final int ob = d.offsetSlot[b] * rows;
         final double base = d.logTop[b];
-        for (int k = k0; k < k1; k++) {
-            final int node = d.sumNode[k];
-            final int vb = d.sumSlot[k] * rows;
-            final double[] ct = sums[k - k0];
-            final double sk = scale[k];
-            final double lw = d.maxLogWeight[k];
-            for (int r = 0; r < rows; r++) {
-                double sum = ct[r];
-                double m = bm[r];
-                if (held[r]) {
-                    value[vb + r] = sum * sk * inv[r];
-                } else if (ck[r] != 0) {
-                    value[vb + r] = ExactSum.value(c, d, node, rows, r, value);
-                } else if (m == neg || lw == neg) {
-                    value[vb + r] = neg;
-                } else if (sum >= DenseKernel.TINY) {
-                    value[vb + r] = Math.log(sum) + (lw + m);
-                } else {
-                    value[vb + r] = ExactSum.value(c, d, node, rows, r, value);
-                }
-            }
-        }
         for (int r = 0; r < rows; r++) {
             value[ob + r] = held[r] ? LinearOutput.offset(base + bm[r], exponent[r]) : Double.NaN;
+        }
+    }
+
+    /**
+     * Sum k (the block's {@code index}-th) at every row: its mantissa where the row is held, else its log-value
+     * (as every other block).
+     */
+    private void logWhereNotHeld(CircuitData c, DenseBlocks d, int k, int index, int rows, double[] value) {
+        final int node = d.sumNode[k];
+        final int vb = d.sumSlot[k] * rows;
+        final double[] ct = sums[index];
+        final double sk = d.sumScale[k];
+        final double lw = d.maxLogWeight[k];
+        final double[] inv = offsets;
+        final double neg = Double.NEGATIVE_INFINITY;
+        for (int r = 0; r < rows; r++) {
+            double sum = ct[r];
+            double m = blockMax[r];
+            if (held[r]) {
+                value[vb + r] = sum * sk * inv[r];
+            } else if (check[r] != 0) {
+                value[vb + r] = ExactSum.value(c, d, node, rows, r, value);
+            } else if (m == neg || lw == neg) {
+                value[vb + r] = neg;
+            } else if (sum >= DenseKernel.TINY) {
+                value[vb + r] = Math.log(sum) + (lw + m);
+            } else {
+                value[vb + r] = ExactSum.value(c, d, node, rows, r, value);
+            }
         }
     }
 

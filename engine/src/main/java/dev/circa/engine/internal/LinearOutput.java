@@ -25,6 +25,12 @@ final class LinearOutput {
      * product y * factor stays in the normal range.
      */
     static final double MIN_SUM_SCALE = 1e-100;
+    /**
+     * A row's largest sum times its factor must be below this for the row to be held: every other is at least
+     * {@link DenseKernel#TINY} (about 2^-664), so scaled by the largest's power of two it stays above 2^-964, a
+     * normal double.
+     */
+    static final double TOP_LIMIT = 0x1p300;
 
     private LinearOutput() {
     }
@@ -39,8 +45,14 @@ final class LinearOutput {
         return base + ex * LN2_HI + ex * LN2_LO;
     }
 
-    /** Whether a sum's linear value {@code ct} (before its factor) can be held: at least TINY and finite. */
-    static boolean holds(double ct) {
-        return ct >= DenseKernel.TINY && ct <= Double.MAX_VALUE;
+    /**
+     * Whether a block's sums at a row are held in linear form: no part +inf or NaN ({@code check} 0), some
+     * product not 0 (the block maximum not -inf), every sum with a non-zero weight at least
+     * {@link DenseKernel#TINY} once times its factor ({@code low}, so its digits are sound: the largest product
+     * is at least 1 and what underflowed is below 2^-1022 of it) and the largest below {@link #TOP_LIMIT}
+     * ({@code top}, so that every scaled mantissa is a normal double). NaN in {@code low} or {@code top} fails.
+     */
+    static boolean held(double check, double blockMax, double low, double top) {
+        return check == 0 & blockMax != Double.NEGATIVE_INFINITY & low >= DenseKernel.TINY & top < TOP_LIMIT;
     }
 }

@@ -123,31 +123,28 @@ final class RowBlocks {
 
     /**
      * Block b's sums {@code ct} at the row in linear form, mantissas and offset into their slots, when the
-     * form holds them all ({@link LinearOutput}); else nothing is written and the answer is false.
+     * form holds them ({@link LinearOutput#held}, the same operations as {@link ChunkBlocks}); else nothing
+     * is written and the answer is false.
      */
     private static boolean linearSums(DenseBlocks d, int b, double blockMax, double[] ct, double[] value) {
         final int k0 = d.sumStart[b];
         final int k1 = d.sumStart[b + 1];
         final double[] scale = d.sumScale;
         double top = 0;
-        boolean ok = true;
+        double low = Double.POSITIVE_INFINITY;
         for (int k = k0; k < k1; k++) {
-            double sum = ct[k - k0];
-            double a = sum * scale[k];
-            ok &= scale[k] == 0 || LinearOutput.holds(sum);
-            top = Math.max(top, a);
+            final double sk = scale[k];
+            if (sk != 0) {
+                double a = ct[k - k0] * sk;
+                top = Math.max(top, a);
+                low = Math.min(low, a);
+            }
         }
-        if (!ok) {
+        if (!LinearOutput.held(0, blockMax, low, top)) {
             return false;
         }
         final int ex = Math.getExponent(top);
         final double inv = LinearOutput.pow2(-ex);
-        for (int k = k0; k < k1; k++) {
-            double y = ct[k - k0] * scale[k] * inv;
-            if (scale[k] != 0 && y < Double.MIN_NORMAL) {
-                return false;
-            }
-        }
         for (int k = k0; k < k1; k++) {
             value[d.sumSlot[k]] = ct[k - k0] * scale[k] * inv;
         }
