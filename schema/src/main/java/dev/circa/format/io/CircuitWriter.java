@@ -23,7 +23,7 @@ import tools.jackson.databind.ObjectMapper;
  * Writes a circuit document in the canonical member order of FORMAT.md (format, version, name,
  * description, provenance, variables, nodes, outputs, checks, extensions), nodes in the order
  * given (children first when the document is valid), one node per line. Every double is written
- * so that it reads back bit for bit ({@link Double#toString(double)} round-trips). Stateless and
+ * so that it reads back bit for bit (the shortest decimal that does: {@link JsonInput#mapperFor}). Stateless and
  * thread-safe.
  */
 public final class CircuitWriter {
