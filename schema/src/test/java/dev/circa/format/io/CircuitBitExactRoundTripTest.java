@@ -155,6 +155,18 @@ class CircuitBitExactRoundTripTest {
     }
 
     @Test
+    void write_inputWithTooFewParameters_refusedNamingTheNode() {
+        // a normal needs mean and sd (FORMAT.md); a document built in code with one is not written at all
+        CircuitDocument doc = CircuitDocument.builder()
+                .variables(List.of(Variable.of("inlet_pressure", VariableType.REAL)))
+                .nodes(List.of(new InputNode(4, null, Family.NORMAL, new int[] {0}, new double[] {3.1}, false)))
+                .outputs(List.of(new Output("joint", 4))).build();
+        IllegalArgumentException e = org.junit.jupiter.api.Assertions.assertThrows(IllegalArgumentException.class,
+                () -> text(doc));
+        assertEquals("input node 4 (normal) has 1 variable and 1 parameter: too few to write", e.getMessage());
+    }
+
+    @Test
     void writeThenRead_gzipFile_identicalAndCompressed() throws Exception {
         CircuitDocument doc = everyFamily();
         Path p = dir.resolve("every-family.json.gz");
