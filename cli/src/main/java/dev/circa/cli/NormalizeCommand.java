@@ -41,7 +41,7 @@ final class NormalizeCommand implements Callable<Integer> {
         Model model = read.use(circuitFile);
         NormalizationResult r;
         try {
-            r = Renormalizer.normalize(model.document(), model.circuit());
+            r = Renormalizer.normalize(model.document(), model.circuit(), model.report());
         } catch (NotNormalizableException e) {
             throw new FormatException(circuitFile.toString(), 0, 0, null, "cannot be renormalised: " + e.getMessage());
         }

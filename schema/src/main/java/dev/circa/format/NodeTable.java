@@ -80,6 +80,49 @@ public final class NodeTable {
         retained = r + (labels == null ? 0 : 4L * LABEL_BLOCK * labels.length);
     }
 
+    /** A copy of {@code t} with other numbers: every other column is shared (they are never written). */
+    private NodeTable(NodeTable t, double[][] values) {
+        size = t.size;
+        kind = t.kind;
+        id = t.id;
+        family = t.family;
+        flags = t.flags;
+        labels = t.labels;
+        childStart = t.childStart;
+        children = t.children;
+        valueStart = t.valueStart;
+        this.values = values;
+        varStart = t.varStart;
+        vars = t.vars;
+        retained = t.retained;
+    }
+
+    /** A node's number rewritten: {@code j} is its position among the node's numbers. */
+    @FunctionalInterface
+    public interface NumberRewrite {
+        double apply(int node, int j, double number);
+    }
+
+    /**
+     * The same nodes with every number (a sum's weights, an input's parameters) replaced by what
+     * {@code rewrite} gives for it, node by node in order; ids, children, variables and labels are
+     * shared with this table, so the copy costs only the new numbers.
+     */
+    public NodeTable withNumbers(NumberRewrite rewrite) {
+        double[][] out = new double[values.length][];
+        for (int b = 0; b < values.length; b++) {
+            out[b] = new double[values[b].length];
+        }
+        for (int i = 0; i < size; i++) {
+            int a = valueStart(i);
+            int end = valueEnd(i);
+            for (int k = a; k < end; k++) {
+                out[k / DOUBLES][k % DOUBLES] = rewrite.apply(i, k - a, values[k / DOUBLES][k % DOUBLES]);
+            }
+        }
+        return new NodeTable(this, out);
+    }
+
     private static long entries(Object[] blocks) {
         long n = 0;
         for (Object b : blocks) {

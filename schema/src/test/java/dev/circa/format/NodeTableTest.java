@@ -127,6 +127,35 @@ class NodeTableTest {
     }
 
     @Test
+    void withNumbers_everyNumberRewrittenInPlace_restSharedAndTheOriginalUntouched() {
+        // across block boundaries of the number column (more than one block of doubles); each number becomes a
+        // function of its node, its position in the node and its old value, so a slip of one position shows
+        Random rnd = new Random(16);
+        List<Node> nodes = randomNodes(rnd, 150_000);
+        NodeTable t = NodeTable.of(nodes);
+        assertTrue(t.valueCount() > (1 << 17), "more numbers than one block holds: " + t.valueCount());
+        NodeTable u = t.withNumbers((i, j, v) -> v * 3 + i + j / 8.0);
+        assertEquals(t.size(), u.size());
+        assertEquals(t.valueCount(), u.valueCount());
+        for (int i = 0; i < t.size(); i++) {
+            Node was = nodes.get(i);
+            Node now = u.node(i);
+            double[] want = was instanceof SumNode s ? s.weights().clone()
+                    : was instanceof InputNode in ? in.params().clone() : new double[0];
+            for (int j = 0; j < want.length; j++) {
+                want[j] = want[j] * 3 + i + j / 8.0;
+            }
+            assertEquals(was.getClass(), now.getClass());
+            assertEquals(was.id(), now.id());
+            assertEquals(was.label(), now.label());
+            assertArrayEquals(was.children(), now.children());
+            assertArrayEquals(want, now instanceof SumNode s ? s.weights() : now instanceof InputNode in ? in.params()
+                    : new double[0]);
+            assertSameNode(was, t.node(i));
+        }
+    }
+
+    @Test
     void appendAll_twoHalvesAcrossBlocks_sameEntriesAsOneBuilder() {
         // the halves meet at odd places in every column (a partly filled block on both sides), labels in both
         int n = 1_100_000;

@@ -7,10 +7,7 @@ import dev.circa.format.CheckCase;
 import dev.circa.format.Checks;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.Family;
-import dev.circa.format.InputNode;
-import dev.circa.format.Node;
-import dev.circa.format.ProductNode;
-import dev.circa.format.SumNode;
+import dev.circa.format.NodeTable;
 import dev.circa.validator.Diagnostic;
 import dev.circa.validator.Property;
 import dev.circa.validator.ValidationOptions;
@@ -57,86 +54,56 @@ public final class Renormalizer {
      *     the node and a variable), has a negative weight or probability, or a sum of total mass 0
      */
     public static NormalizationResult normalize(CircuitDocument doc, CompiledCircuit c) throws NotNormalizableException {
-        requireSmoothDecomposable(doc);
-        int n = c.nodeCount();
-        List<Node> nodes = doc.nodes();
-        double[] logZ = new double[n];
+        return normalize(doc, c, null);
+    }
+
+    /**
+     * The same, given {@code report}, the validator's report of {@code doc} (for example the one it was
+     * loaded with): when it proves the circuit smooth and decomposable, the structure is not validated
+     * again; {@code null} or a report that does not prove both validates it here.
+     */
+    public static NormalizationResult normalize(CircuitDocument doc, CompiledCircuit c, ValidationReport report)
+            throws NotNormalizableException {
+        if (report == null || report.property(Property.SMOOTH) != Verdict.TRUE
+                || report.property(Property.DECOMPOSABLE) != Verdict.TRUE) {
+            requireSmoothDecomposable(doc);
+        }
+        NodeTable t = doc.nodeTable();
+        double[] logZ = logPartitions(t, c);
         int[] cs = c.childStart();
         int[] ci = c.childIndex();
-        double[] lw = c.logWeight();
+        int n = c.nodeCount();
+        boolean[] changed = new boolean[n];
+        double[] total = new double[n];
         for (int i = 0; i < n; i++) {
-            Node node = nodes.get(i);
-            if (node instanceof InputNode in) {
-                double m = inputLogMass(in);
-                logZ[i] = Math.abs(m) <= ROUNDING ? 0 : m;
-            } else if (node instanceof ProductNode) {
-                double s = 0;
-                for (int k = cs[i]; k < cs[i + 1]; k++) {
-                    s += logZ[ci[k]];
+            if (t.kind(i) == NodeTable.INPUT && t.family(i) == Family.CATEGORICAL && logZ[i] != 0 && !t.logForm(i)) {
+                for (int k = t.valueStart(i); k < t.valueEnd(i); k++) {
+                    total[i] += t.value(k);
                 }
-                logZ[i] = s;
-            } else {
-                SumNode sum = (SumNode) node;
-                if (!sum.logWeights()) {
-                    for (int j = 0; j < sum.weights().length; j++) {
-                        if (!(sum.weights()[j] >= 0)) {
-                            throw new NotNormalizableException("sum node " + sum.id() + " has weight " + sum.weights()[j]
-                                    + " for child " + sum.children()[j] + "; renormalisation needs non-negative weights");
-                        }
-                    }
-                }
-                double m = Double.NEGATIVE_INFINITY;
-                for (int k = cs[i]; k < cs[i + 1]; k++) {
-                    m = Math.max(m, lw[k] + logZ[ci[k]]);
-                }
-                if (m == Double.NEGATIVE_INFINITY) {
-                    throw new NotNormalizableException("sum node " + sum.id()
-                            + " has total mass 0 (every weight or every child's mass is 0); it cannot be normalised");
-                }
-                if (m == Double.POSITIVE_INFINITY) {
-                    throw new NotNormalizableException("sum node " + sum.id() + " has infinite mass; it cannot be normalised");
-                }
-                double s = 0;
-                for (int k = cs[i]; k < cs[i + 1]; k++) {
-                    s += Math.exp(lw[k] + logZ[ci[k]] - m);
-                }
-                logZ[i] = m + Math.log(s);
             }
         }
-        List<Node> out = new ArrayList<>(n);
+        NodeTable rescaled = t.withNumbers((i, j, w) -> {
+            byte kind = t.kind(i);
+            double v = w;
+            if (kind == NodeTable.SUM) {
+                double shift = logZ[ci[cs[i] + j]] - logZ[i];
+                v = t.logForm(i) ? w + shift : w == 0 ? 0 : Math.exp(Math.log(w) + shift);
+                changed[i] |= v != w;
+            } else if (kind == NodeTable.INPUT && t.family(i) == Family.CATEGORICAL && logZ[i] != 0) {
+                v = t.logForm(i) ? w - logZ[i] : w / total[i];
+                changed[i] = true;
+            }
+            return v;
+        });
         int sumsChanged = 0;
         int inputsChanged = 0;
         for (int i = 0; i < n; i++) {
-            Node node = nodes.get(i);
-            if (node instanceof InputNode in && in.family() == Family.CATEGORICAL && logZ[i] != 0) {
-                double[] p = in.params().clone();
-                double total = 0;
-                for (double q : p) {
-                    total += q;
-                }
-                for (int k = 0; k < p.length; k++) {
-                    p[k] = in.logForm() ? p[k] - logZ[i] : p[k] / total;
-                }
-                out.add(new InputNode(in.id(), in.label(), in.family(), in.vars(), p, in.logForm()));
-                inputsChanged++;
-            } else if (node instanceof SumNode sum) {
-                double[] w = new double[sum.weights().length];
-                boolean changed = false;
-                for (int j = 0; j < w.length; j++) {
-                    double shift = logZ[ci[cs[i] + j]] - logZ[i];
-                    if (sum.logWeights()) {
-                        w[j] = sum.weights()[j] + shift;
-                    } else {
-                        w[j] = sum.weights()[j] == 0 ? 0 : Math.exp(Math.log(sum.weights()[j]) + shift);
-                    }
-                    changed |= w[j] != sum.weights()[j];
-                }
-                out.add(new SumNode(sum.id(), sum.label(), sum.children(), w, sum.logWeights()));
-                if (changed) {
+            if (changed[i]) {
+                if (t.kind(i) == NodeTable.SUM) {
                     sumsChanged++;
+                } else {
+                    inputsChanged++;
                 }
-            } else {
-                out.add(node);
             }
         }
         double[] before = new double[c.outputCount()];
@@ -147,7 +114,7 @@ public final class Renormalizer {
         }
         CircuitDocument result = CircuitDocument.builder()
                 .version(doc.version()).name(doc.name()).description(doc.description()).provenance(provenanceAfter(doc.provenance(), names, before))
-                .variables(doc.variables()).nodes(out).outputs(doc.outputs())
+                .variables(doc.variables()).nodeTable(rescaled).outputs(doc.outputs())
                 .checks(shiftedChecks(doc.checks(), c, before)).extensions(doc.extensions())
                 .build();
         double[] after;
@@ -157,6 +124,59 @@ public final class Renormalizer {
             throw new IllegalStateException("a renormalised circuit failed to compile: " + e.getMessage(), e);
         }
         return new NormalizationResult(result, names, before, after, sumsChanged, inputsChanged);
+    }
+
+    /**
+     * Z_j of every node in log space, children first, read from the columns of {@code t}: an input's log mass
+     * (0 within {@link #ROUNDING}), a product's the sum of its children's, a sum's the log-sum-exp of log-weight
+     * plus child log Z. Throws on a negative weight or probability and on a sum of mass 0 or infinite mass.
+     */
+    private static double[] logPartitions(NodeTable t, CompiledCircuit c) throws NotNormalizableException {
+        int n = c.nodeCount();
+        double[] logZ = new double[n];
+        int[] cs = c.childStart();
+        int[] ci = c.childIndex();
+        double[] lw = c.logWeight();
+        for (int i = 0; i < n; i++) {
+            byte kind = t.kind(i);
+            if (kind == NodeTable.INPUT) {
+                double m = inputLogMass(t, i);
+                logZ[i] = Math.abs(m) <= ROUNDING ? 0 : m;
+            } else if (kind == NodeTable.PRODUCT) {
+                double s = 0;
+                for (int k = cs[i]; k < cs[i + 1]; k++) {
+                    s += logZ[ci[k]];
+                }
+                logZ[i] = s;
+            } else {
+                if (!t.logForm(i)) {
+                    for (int k = t.valueStart(i); k < t.valueEnd(i); k++) {
+                        if (!(t.value(k) >= 0)) {
+                            throw new NotNormalizableException("sum node " + t.id(i) + " has weight " + t.value(k)
+                                    + " for child " + t.childId(t.childStart(i) + k - t.valueStart(i))
+                                    + "; renormalisation needs non-negative weights");
+                        }
+                    }
+                }
+                double m = Double.NEGATIVE_INFINITY;
+                for (int k = cs[i]; k < cs[i + 1]; k++) {
+                    m = Math.max(m, lw[k] + logZ[ci[k]]);
+                }
+                if (m == Double.NEGATIVE_INFINITY) {
+                    throw new NotNormalizableException("sum node " + t.id(i)
+                            + " has total mass 0 (every weight or every child's mass is 0); it cannot be normalised");
+                }
+                if (m == Double.POSITIVE_INFINITY) {
+                    throw new NotNormalizableException("sum node " + t.id(i) + " has infinite mass; it cannot be normalised");
+                }
+                double s = 0;
+                for (int k = cs[i]; k < cs[i + 1]; k++) {
+                    s += Math.exp(lw[k] + logZ[ci[k]] - m);
+                }
+                logZ[i] = m + Math.log(s);
+            }
+        }
+        return logZ;
     }
 
     private static Checks shiftedChecks(Checks checks, CompiledCircuit c, double[] logZ) {
@@ -173,36 +193,38 @@ public final class Renormalizer {
         return new Checks(checks.atol(), checks.rtol(), cases);
     }
 
-    /** log of the total mass of an input: 0 for a normalised family, log(sum of probabilities) for a categorical. */
-    private static double inputLogMass(InputNode in) throws NotNormalizableException {
-        if (in.family() != Family.CATEGORICAL) {
+    /** log of the total mass of input {@code i}: 0 for a normalised family, log(sum of probabilities) for a categorical. */
+    private static double inputLogMass(NodeTable t, int i) throws NotNormalizableException {
+        if (t.family(i) != Family.CATEGORICAL) {
             return 0;
         }
-        double[] p = in.params();
-        if (in.logForm()) {
+        int a = t.valueStart(i);
+        int b = t.valueEnd(i);
+        if (t.logForm(i)) {
             double m = Double.NEGATIVE_INFINITY;
-            for (double q : p) {
-                m = Math.max(m, q);
+            for (int k = a; k < b; k++) {
+                m = Math.max(m, t.value(k));
             }
             if (m == Double.NEGATIVE_INFINITY) {
-                throw new NotNormalizableException("categorical input " + in.id() + " has total mass 0");
+                throw new NotNormalizableException("categorical input " + t.id(i) + " has total mass 0");
             }
             double s = 0;
-            for (double q : p) {
-                s += Math.exp(q - m);
+            for (int k = a; k < b; k++) {
+                s += Math.exp(t.value(k) - m);
             }
             return m + Math.log(s);
         }
         double s = 0;
-        for (double q : p) {
+        for (int k = a; k < b; k++) {
+            double q = t.value(k);
             if (!(q >= 0)) {
-                throw new NotNormalizableException("categorical input " + in.id() + " has probability " + q
+                throw new NotNormalizableException("categorical input " + t.id(i) + " has probability " + q
                         + "; renormalisation needs non-negative probabilities");
             }
             s += q;
         }
         if (s == 0) {
-            throw new NotNormalizableException("categorical input " + in.id() + " has total mass 0");
+            throw new NotNormalizableException("categorical input " + t.id(i) + " has total mass 0");
         }
         return Math.log(s);
     }

@@ -3,12 +3,9 @@ package dev.circa.converter.regions;
 import dev.circa.converter.npz.NpzArchive;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.Family;
-import dev.circa.format.InputNode;
-import dev.circa.format.Node;
+import dev.circa.format.NodeTable;
 import dev.circa.format.Output;
-import dev.circa.format.ProductNode;
 import dev.circa.format.Provenance;
-import dev.circa.format.SumNode;
 import dev.circa.format.io.FormatException;
 import dev.circa.format.regions.RegionGraph;
 import java.io.IOException;
@@ -62,27 +59,40 @@ public final class RegionCompiler {
     public static CircuitDocument compile(RegionParameters params, Provenance provenance) {
         RegionStructure s = params.structure();
         int nv = s.variables().size();
-        int[][] varArrays = new int[nv][];
+        Family[] family = new Family[nv];
         for (int v = 0; v < nv; v++) {
-            varArrays[v] = new int[] {v};
+            family[v] = params.family(v);
         }
-        List<Node> nodes = new ArrayList<>();
+        // straight into the node columns: no record per node
+        NodeTable.Builder nodes = new NodeTable.Builder();
         Layout.Visitor visitor = new Layout.Visitor() {
             @Override
             public void input(int position, int region, int bundle, int varPos) {
                 int var = s.vars(region)[varPos];
-                Family f = params.family(var);
-                nodes.add(new InputNode(position, null, f, varArrays[var], params.inputParams(region, bundle, varPos), false));
+                nodes.appendVar(var);
+                for (double x : params.inputParams(region, bundle, varPos)) {
+                    nodes.appendValue(x);
+                }
+                nodes.close(NodeTable.INPUT, position, null, family[var], false);
             }
 
             @Override
             public void product(int position, int region, int[] children) {
-                nodes.add(new ProductNode(position, null, children));
+                for (int c : children) {
+                    nodes.appendChild(c);
+                }
+                nodes.close(NodeTable.PRODUCT, position, null, null, false);
             }
 
             @Override
             public void sum(int position, int region, int k, int[] children) {
-                nodes.add(new SumNode(position, null, children, params.weights(region, k), params.logWeights(region)));
+                for (int c : children) {
+                    nodes.appendChild(c);
+                }
+                for (double w : params.weights(region, k)) {
+                    nodes.appendValue(w);
+                }
+                nodes.close(NodeTable.SUM, position, null, null, params.logWeights(region));
             }
         };
         int[] roots;
@@ -97,7 +107,7 @@ public final class RegionCompiler {
         }
         RegionGraph g = s.graph();
         return CircuitDocument.builder().name(g.name()).description(g.description()).provenance(provenance)
-                .variables(s.variables()).nodes(nodes).outputs(outputs).build();
+                .variables(s.variables()).nodeTable(nodes.build()).outputs(outputs).build();
     }
 
     /**

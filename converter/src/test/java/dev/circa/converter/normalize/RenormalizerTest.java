@@ -21,6 +21,9 @@ import dev.circa.format.Variable;
 import dev.circa.format.VariableType;
 import dev.circa.format.io.CircuitReader;
 import dev.circa.format.io.CircuitWriter;
+import dev.circa.validator.ValidationOptions;
+import dev.circa.validator.ValidationReport;
+import dev.circa.validator.Validator;
 import dev.circa.validator.compare.CircuitComparison;
 import dev.circa.validator.compare.CompareOptions;
 import dev.circa.validator.compare.ComparisonReport;
@@ -252,6 +255,30 @@ public class RenormalizerTest {
         assertTrue(cmp.passed(), cmp::toText);
         assertEquals(4000, cmp.points());
         assertTrue(r.sumsChanged() >= 3);
+    }
+
+    @Test
+    void normalize_givenTheValidatorsReport_sameNumbersAsValidatingAgain() throws Exception {
+        // circa normalize passes the report the model was loaded with; the result must not depend on it
+        for (CircuitDocument doc : List.of(discrete(true, 2.5), discrete(false, 3.7), discrete(true, false, 0.4))) {
+            CompiledCircuit c = CompiledCircuit.compile(doc);
+            ValidationReport report = new Validator(ValidationOptions.defaults()).validate(doc);
+            NormalizationResult plain = Renormalizer.normalize(doc, c);
+            NormalizationResult given = Renormalizer.normalize(doc, c, report);
+            assertEquals(plain.sumsChanged(), given.sumsChanged());
+            assertEquals(plain.inputsChanged(), given.inputsChanged());
+            assertArrayEquals(plain.logPartitionAfter(), given.logPartitionAfter());
+            for (int i = 0; i < doc.nodes().size(); i++) {
+                Node a = plain.document().nodes().get(i);
+                Node b = given.document().nodes().get(i);
+                assertArrayEquals(numbers(a), numbers(b));
+            }
+        }
+    }
+
+    /** A sum's weights, an input's parameters, nothing for a product. */
+    private static double[] numbers(Node n) {
+        return n instanceof SumNode s ? s.weights() : n instanceof InputNode in ? in.params() : new double[0];
     }
 
     @Test

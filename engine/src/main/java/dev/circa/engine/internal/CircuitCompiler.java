@@ -93,24 +93,34 @@ public final class CircuitCompiler {
             childStart[i] = e;
             inputSlot[i] = -1;
             if (k == NodeTable.INPUT) {
-                InputNode in = (InputNode) t.node(i);
                 kind[i] = CircuitData.INPUT;
                 inputSlot[i] = slot;
-                checkInput(i, in, variables);
-                family[slot] = (byte) Families.code(in.family(), in.logForm());
                 inputNode[slot] = i;
                 varStart[slot] = vp;
-                for (int v : in.vars()) {
-                    varIndex[vp++] = v;
-                }
                 paramStart[slot] = pp;
-                System.arraycopy(in.params(), 0, params, pp, in.params().length);
-                pp += in.params().length;
                 factorStart[slot] = -1;
-                maxDim = Math.max(maxDim, in.vars().length);
-                if (in.family() == Family.MVNORMAL) {
-                    factorStart[slot] = fp;
-                    fp = choleskyInto(i, in, factor, fp);
+                if (plainInput(t, i, variables)) {
+                    // the usual input, read from the columns (no record): what the record's way below does with it
+                    family[slot] = (byte) Families.code(t.family(i), t.logForm(i));
+                    varIndex[vp++] = t.var(t.varStart(i));
+                    for (int q = t.valueStart(i); q < t.valueEnd(i); q++) {
+                        params[pp++] = t.value(q);
+                    }
+                    maxDim = Math.max(maxDim, 1);
+                } else {
+                    InputNode in = (InputNode) t.node(i);
+                    checkInput(i, in, variables);
+                    family[slot] = (byte) Families.code(in.family(), in.logForm());
+                    for (int v : in.vars()) {
+                        varIndex[vp++] = v;
+                    }
+                    System.arraycopy(in.params(), 0, params, pp, in.params().length);
+                    pp += in.params().length;
+                    maxDim = Math.max(maxDim, in.vars().length);
+                    if (in.family() == Family.MVNORMAL) {
+                        factorStart[slot] = fp;
+                        fp = choleskyInto(i, in, factor, fp);
+                    }
                 }
                 slot++;
             } else {
@@ -179,6 +189,34 @@ public final class CircuitCompiler {
 
     private static String where(int i, int id) {
         return "node " + id + " (/nodes/" + i + ")";
+    }
+
+    /**
+     * Whether input {@code i} is one {@link #checkInput} accepts without a word, told from the columns: one
+     * variable in range whose type its family accepts, a family other than categorical, indicator and mvnormal,
+     * its number of parameters, each finite and within its limit, in order.
+     */
+    private static boolean plainInput(NodeTable t, int i, List<Variable> variables) {
+        Family f = t.family(i);
+        if (f == Family.MVNORMAL || f == Family.CATEGORICAL || f == Family.INDICATOR || t.varEnd(i) - t.varStart(i) != 1) {
+            return false;
+        }
+        int v = t.var(t.varStart(i));
+        if (v < 0 || v >= variables.size() || !f.accepts(variables.get(v).type())) {
+            return false;
+        }
+        int a = t.valueStart(i);
+        List<ParameterLimits.Limit> limits = ParameterLimits.of(f);
+        if (t.valueEnd(i) - a != limits.size()) {
+            return false;
+        }
+        for (int q = 0; q < limits.size(); q++) {
+            double x = t.value(a + q);
+            if (!Double.isFinite(x) || !limits.get(q).holds(x, Integer.MAX_VALUE)) {
+                return false;
+            }
+        }
+        return !ParameterLimits.ordered(f) || t.value(a) < t.value(a + 1);
     }
 
     private static void checkInput(int i, InputNode in, List<Variable> variables) throws CompileException {

@@ -135,6 +135,7 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         }
 
         CircuitDocument run() throws FormatException {
+            startTailEarly();
             in.startDocument("a circuit document");
             // A missing member is reported at the start of the object that lacks it.
             int rootLine = in.line();
@@ -377,7 +378,12 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                 if (size < scanAtLeast || size > limits.maxBytes() || !NodeScanner.startsAsUtf8(ch)) {
                     return 0;
                 }
-                if (size >= splitAtLeast) {
+                if (tail != null && (size < splitAtLeast || tail.nodeOffset() <= at)) {
+                    // started early, at a node the reader cannot meet: before the nodes array
+                    tail.close();
+                    tail = null;
+                }
+                if (size >= splitAtLeast && tail == null) {
                     tail = NodeArrayTail.start(file, size, at, limits);
                 }
                 NodeScanner scanner = new NodeScanner(ch, at + 1, line, column + 1, limits, table, nodeLocations, size);
@@ -398,6 +404,28 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                 throw e;
             } catch (IOException e) {
                 throw new FormatException(file.toString(), 0, 0, null, "cannot be read: " + IoMessages.of(e));
+            }
+        }
+
+        /**
+         * For a large stored file, starts the second half's reader before the document's first member is read,
+         * from a node near the middle of the whole file (the nodes are most of a large circuit): it then reads on
+         * the second core while this thread reads what comes before the nodes, and the scanner's code is
+         * compiled for the nodes first. {@link #scanNodes} keeps it when its node lies after the nodes array's
+         * start, and otherwise drops it unheard and starts one from the middle of what is left.
+         */
+        private void startTailEarly() {
+            Path file = in.storedFile();
+            if (file == null || limits.maxDepth() < 4) {
+                return;
+            }
+            try (FileChannel ch = FileChannel.open(file, StandardOpenOption.READ)) {
+                long size = ch.size();
+                if (size >= splitAtLeast && size >= scanAtLeast && size <= limits.maxBytes() && NodeScanner.startsAsUtf8(ch)) {
+                    tail = NodeArrayTail.start(file, size, 0, limits);
+                }
+            } catch (IOException e) {
+                // the read itself reports a file it cannot read
             }
         }
 

@@ -3,12 +3,10 @@ package dev.circa.format.io;
 import dev.circa.format.CheckCase;
 import dev.circa.format.Checks;
 import dev.circa.format.CircuitDocument;
+import dev.circa.format.Counts;
 import dev.circa.format.Family;
-import dev.circa.format.InputNode;
-import dev.circa.format.Node;
+import dev.circa.format.NodeTable;
 import dev.circa.format.Output;
-import dev.circa.format.ProductNode;
-import dev.circa.format.SumNode;
 import dev.circa.format.Variable;
 import java.io.IOException;
 import java.io.OutputStream;
@@ -23,7 +21,7 @@ import tools.jackson.databind.ObjectMapper;
  * Writes a circuit document in the canonical member order of FORMAT.md (format, version, name,
  * description, provenance, variables, nodes, outputs, checks, extensions), nodes in the order
  * given (children first when the document is valid), one node per line. Every double is written
- * so that it reads back bit for bit ({@link Double#toString(double)} round-trips). Stateless and
+ * so that it reads back bit for bit (the shortest decimal that does: {@link JsonInput#mapperFor}). Stateless and
  * thread-safe.
  */
 public final class CircuitWriter {
@@ -58,9 +56,10 @@ public final class CircuitWriter {
             g.writeRaw("\n");
             g.writeName("nodes");
             g.writeStartArray();
-            for (Node n : doc.nodes()) {
+            NodeTable t = doc.nodeTable();
+            for (int i = 0; i < t.size(); i++) {
                 g.writeRaw("\n");
-                writeNode(g, n);
+                writeNode(g, t, i);
             }
             g.writeRaw("\n");
             g.writeEndArray();
@@ -130,58 +129,73 @@ public final class CircuitWriter {
         g.writeEndArray();
     }
 
-    private static void writeNode(JsonGenerator g, Node n) {
+    /** Node {@code i} of {@code t}, read from the columns (no record made). */
+    private static void writeNode(JsonGenerator g, NodeTable t, int i) {
         g.writeStartObject();
         g.writeName("id");
-        g.writeNumber(n.id());
-        if (n.label() != null) {
+        g.writeNumber(t.id(i));
+        String label = t.label(i);
+        if (label != null) {
             g.writeName("label");
-            g.writeString(n.label());
+            g.writeString(label);
         }
-        if (n instanceof InputNode in) {
-            writeInput(g, in);
-        } else if (n instanceof ProductNode p) {
-            g.writeName("product");
-            writeInts(g, p.children());
-        } else if (n instanceof SumNode s) {
-            g.writeName("sum");
-            writeInts(g, s.children());
-            g.writeName(s.logWeights() ? "logWeights" : "weights");
-            writeDoubles(g, s.weights(), 0, s.weights().length);
+        byte kind = t.kind(i);
+        if (kind == NodeTable.INPUT) {
+            writeInput(g, t, i);
+        } else {
+            g.writeName(kind == NodeTable.PRODUCT ? "product" : "sum");
+            g.writeStartArray();
+            for (int e = t.childStart(i); e < t.childEnd(i); e++) {
+                g.writeNumber(t.childId(e));
+            }
+            g.writeEndArray();
+            if (kind == NodeTable.SUM) {
+                g.writeName(t.logForm(i) ? "logWeights" : "weights");
+                writeNumbers(g, t, t.valueStart(i), t.valueEnd(i));
+            }
         }
         g.writeEndObject();
     }
 
-    private static void writeInput(JsonGenerator g, InputNode in) {
-        Family f = in.family();
+    private static void writeInput(JsonGenerator g, NodeTable t, int i) {
+        Family f = t.family(i);
         g.writeName("input");
         g.writeString(f.jsonName());
-        double[] p = in.params();
+        int p = t.valueStart(i);
+        int d = t.varEnd(i) - t.varStart(i);
+        int need = f == Family.MVNORMAL ? d + d * d : f == Family.CATEGORICAL ? 0 : f.parameters().size();
+        if (d < 1 || t.valueEnd(i) - p < need) {
+            throw new IllegalArgumentException("input node " + t.id(i) + " (" + f.jsonName() + ") has "
+                    + Counts.of(d, "variable") + " and " + Counts.of(t.valueEnd(i) - p, "parameter") + ": too few to write");
+        }
         if (f == Family.MVNORMAL) {
             g.writeName("vars");
-            writeInts(g, in.vars());
-            int d = in.vars().length;
+            g.writeStartArray();
+            for (int k = t.varStart(i); k < t.varEnd(i); k++) {
+                g.writeNumber(t.var(k));
+            }
+            g.writeEndArray();
             g.writeName("mean");
-            writeDoubles(g, p, 0, d);
+            writeNumbers(g, t, p, p + d);
             g.writeName("cov");
             g.writeStartArray();
-            for (int i = 0; i < d; i++) {
-                writeDoubles(g, p, d + i * d, d);
+            for (int r = 0; r < d; r++) {
+                writeNumbers(g, t, p + d + r * d, p + d + (r + 1) * d);
             }
             g.writeEndArray();
             return;
         }
         g.writeName("var");
-        g.writeNumber(in.var());
+        g.writeNumber(t.var(t.varStart(i)));
         if (f == Family.CATEGORICAL) {
-            g.writeName(in.logForm() ? "logProbs" : "probs");
-            writeDoubles(g, p, 0, p.length);
+            g.writeName(t.logForm(i) ? "logProbs" : "probs");
+            writeNumbers(g, t, p, t.valueEnd(i));
             return;
         }
         List<String> names = f.parameters();
-        for (int i = 0; i < names.size(); i++) {
-            g.writeName(names.get(i));
-            writeNumber(g, p[i], f == Family.BINOMIAL && i == 0 || f == Family.INDICATOR);
+        for (int k = 0; k < names.size(); k++) {
+            g.writeName(names.get(k));
+            writeNumber(g, t.value(p + k), f == Family.BINOMIAL && k == 0 || f == Family.INDICATOR);
         }
     }
 
@@ -235,18 +249,11 @@ public final class CircuitWriter {
         g.writeEndObject();
     }
 
-    private static void writeInts(JsonGenerator g, int[] a) {
+    /** Numbers {@code from} to {@code to} (exclusive) of {@code t}, as an array. */
+    private static void writeNumbers(JsonGenerator g, NodeTable t, int from, int to) {
         g.writeStartArray();
-        for (int v : a) {
-            g.writeNumber(v);
-        }
-        g.writeEndArray();
-    }
-
-    private static void writeDoubles(JsonGenerator g, double[] a, int from, int len) {
-        g.writeStartArray();
-        for (int i = from; i < from + len; i++) {
-            g.writeNumber(a[i]);
+        for (int k = from; k < to; k++) {
+            g.writeNumber(t.value(k));
         }
         g.writeEndArray();
     }

@@ -13,6 +13,7 @@ import tools.jackson.core.JsonParser;
 import tools.jackson.core.JsonToken;
 import tools.jackson.core.StreamReadConstraints;
 import tools.jackson.core.StreamReadFeature;
+import tools.jackson.core.StreamWriteFeature;
 import tools.jackson.core.TokenStreamLocation;
 import tools.jackson.core.exc.StreamConstraintsException;
 import tools.jackson.core.json.JsonFactory;
@@ -131,12 +132,18 @@ public final class JsonInput implements AutoCloseable {
         }
     }
 
-    /** A JSON mapper that enforces {@code limits}, rejects duplicate keys and NaN literals. */
+    /**
+     * A JSON mapper that enforces {@code limits}, rejects duplicate keys and NaN literals, and writes each double
+     * as the shortest decimal that reads back to the same bits.
+     */
     public static ObjectMapper mapperFor(ReadLimits limits) {
         JsonFactory factory = JsonFactory.builder()
                 .streamReadConstraints(constraints(limits))
                 .enable(StreamReadFeature.STRICT_DUPLICATE_DETECTION)
                 .disable(JsonReadFeature.ALLOW_NON_NUMERIC_NUMBERS)
+                // doubles written as the shortest decimal that reads back to the same bits, about 7x faster than
+                // Double.toString on Java 17 (which sometimes writes a digit more); tested against the JDK's parser
+                .enable(StreamWriteFeature.USE_FAST_DOUBLE_WRITER)
                 .build();
         return JsonMapper.builder(factory).build();
     }

@@ -266,6 +266,12 @@ final class NodeScanner {
             if (stopped) {
                 return stop(End.LEFT);
             }
+            if (lim - pos < buf.length >> 2) {
+                // a quarter of the buffer ahead of every node: the node's own loops then almost never refill,
+                // so the compiled code that first sees them never meets a refill it has not seen (which would
+                // send it back to the interpreter to be compiled again, on each thread)
+                fill();
+            }
             if (!skipSpace()) {
                 // the parser reads on from where this scan stood (and finds what ends the input there)
                 return back();

@@ -277,6 +277,32 @@ class NodeArrayTailTest {
     }
 
     @Test
+    void startedBeforeTheHeader_keptInsideTheNodes_droppedUnheardAndStartedAgainWhenInTheVariables() throws Exception {
+        // the second half's reader starts before the first member, at a node near the middle of the whole file
+        String plain = circuit(400, ",\n", "", "");
+        AtomicInteger events = new AtomicInteger();
+        Path file = dir.resolve("plain.json");
+        Files.writeString(file, plain);
+        String read = outcome(new CircuitReader(ReadLimits.DEFAULT, ALWAYS, ALWAYS, t -> events.addAndGet(t ? 100 : 1)), file);
+        assertEquals(outcome(parserOnly(ReadLimits.DEFAULT), file), read);
+        assertEquals(100, events.get(), "the half started early was taken");
+        // 3,000 variables before the nodes: the file's middle is in "variables", where the early start finds an
+        // object after a comma the reader never meets; it is dropped unheard and one from the nodes' middle taken
+        StringBuilder vars = new StringBuilder();
+        for (int v = 0; v < 3000; v++) {
+            vars.append(", {\"name\": \"bearing_temperature_").append(v).append("\", \"type\": \"real\"}");
+        }
+        String wide = plain.replace("\"states\": [\"closed\", \"half\", \"open\"]}", "\"states\": [\"closed\", \"half\", \"open\"]}" + vars);
+        assertTrue(wide.indexOf("\"nodes\"") > wide.length() / 2, "the middle lies in the variables");
+        events.set(0);
+        Path wideFile = dir.resolve("wide.json");
+        Files.writeString(wideFile, wide);
+        read = outcome(new CircuitReader(ReadLimits.DEFAULT, ALWAYS, ALWAYS, t -> events.addAndGet(t ? 100 : 1)), wideFile);
+        assertEquals(outcome(parserOnly(ReadLimits.DEFAULT), wideFile), read);
+        assertEquals(100, events.get(), "one half heard of, from the nodes' middle, and taken");
+    }
+
+    @Test
     void mutatedFixturesAndLargerCircuits_splitReadSameAsSingleRead() throws Exception {
         List<byte[]> corpus = new java.util.ArrayList<>(CircuitReaderFuzzTest.fixtures());
         int fixtures = corpus.size();

@@ -113,13 +113,22 @@ public final class Determinism {
         return verdict[i];
     }
 
-    private final java.util.Map<Long, Box> broadBoxes = new java.util.HashMap<>();
+    /** Per broad support (real line, non-negative, counts), the box of each variable over it, made when first needed. */
+    private final Box[][] broadBoxes = new Box[3][];
 
     private Box single(int v, Support sp) {
-        if (sp == Support.REAL_LINE || sp == Support.NON_NEGATIVE || sp == Support.COUNTS) {
+        int broad = sp == Support.REAL_LINE ? 0 : sp == Support.NON_NEGATIVE ? 1 : sp == Support.COUNTS ? 2 : -1;
+        if (broad >= 0) {
             // shared, so that boxes built from them can be recognised as the same by identity
-            long key = ((long) v << 2) | (sp == Support.REAL_LINE ? 0 : sp == Support.NON_NEGATIVE ? 1 : 2);
-            return broadBoxes.computeIfAbsent(key, k -> new Box(new int[] {v}, new Support[] {sp}, true));
+            Box[] byVar = broadBoxes[broad];
+            if (byVar == null) {
+                byVar = new Box[g.document().variables().size()];
+                broadBoxes[broad] = byVar;
+            }
+            if (byVar[v] == null) {
+                byVar[v] = new Box(new int[] {v}, new Support[] {sp}, true);
+            }
+            return byVar[v];
         }
         return new Box(new int[] {v}, new Support[] {sp}, true);
     }

@@ -30,7 +30,7 @@ public final class Parameters {
         boolean any = false;
         for (int i = 0; i < t.size(); i++) {
             byte k = t.kind(i);
-            bad[i] = k == NodeTable.INPUT ? !sound(doc, (InputNode) t.node(i), tol) : k == NodeTable.SUM && !soundSum(t, i);
+            bad[i] = k == NodeTable.INPUT ? !soundInput(doc, t, i, tol) : k == NodeTable.SUM && !soundSum(t, i);
             any |= bad[i];
         }
         anyBad = any;
@@ -71,6 +71,34 @@ public final class Parameters {
         }
         weightTotal[i] = total;
         return sound;
+    }
+
+    /**
+     * Whether input {@code i} has sound parameters: read from the columns for a one-variable family with a
+     * fixed number of parameters (no record made: most inputs of a large circuit); a categorical, an mvnormal
+     * or an input with another number of parameters or variables as a record, by {@link #sound}.
+     */
+    private static boolean soundInput(CircuitDocument doc, NodeTable t, int i, double tol) {
+        Family f = t.family(i);
+        int a = t.valueStart(i);
+        int b = t.valueEnd(i);
+        List<Limit> limits = ParameterLimits.of(f);
+        if (f == Family.CATEGORICAL || f == Family.MVNORMAL || b - a != limits.size() || t.varEnd(i) - t.varStart(i) != 1) {
+            return sound(doc, (InputNode) t.node(i), tol);
+        }
+        for (int k = a; k < b; k++) {
+            if (!Double.isFinite(t.value(k))) {
+                return false;
+            }
+        }
+        int v = t.var(t.varStart(i));
+        int states = v >= 0 && v < doc.variables().size() ? states(doc.variables().get(v)) : Integer.MAX_VALUE;
+        for (int k = 0; k < limits.size(); k++) {
+            if (!limits.get(k).holds(t.value(a + k), states)) {
+                return false;
+            }
+        }
+        return !ParameterLimits.ordered(f) || t.value(a) < t.value(a + 1);
     }
 
     private static boolean sound(CircuitDocument doc, InputNode in, double tol) {
