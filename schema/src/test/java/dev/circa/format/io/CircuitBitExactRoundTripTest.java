@@ -81,12 +81,7 @@ class CircuitBitExactRoundTripTest {
             } while (!Double.isFinite(v));
             w[i] = v;
         }
-        int[] children = new int[w.length];
-        CircuitDocument doc = CircuitDocument.builder()
-                .variables(List.of(Variable.of("inlet_pressure", VariableType.REAL)))
-                .nodes(List.of(new InputNode(0, null, Family.NORMAL, new int[] {0}, new double[] {3.1, 0.2}, false),
-                        new SumNode(1, null, children, w, true)))
-                .outputs(List.of(new Output("joint", 1))).build();
+        CircuitDocument doc = sumOver(w);
         assertSameDocument(doc, roundTrip(doc));
     }
 
@@ -131,12 +126,7 @@ class CircuitBitExactRoundTripTest {
                 default -> w[n++] = random.nextInt(1_000_000) / Math.pow(10, random.nextInt(1, 9));
             }
         }
-        int[] children = new int[w.length];
-        CircuitDocument doc = CircuitDocument.builder()
-                .variables(List.of(Variable.of("inlet_pressure", VariableType.REAL)))
-                .nodes(List.of(new InputNode(0, null, Family.NORMAL, new int[] {0}, new double[] {3.1, 0.2}, false),
-                        new SumNode(1, null, children, w, true)))
-                .outputs(List.of(new Output("joint", 1))).build();
+        CircuitDocument doc = sumOver(w);
         String json = text(doc);
         String weights = json.substring(json.indexOf("\"logWeights\""));
         weights = weights.substring(weights.indexOf('[') + 1, weights.indexOf(']'));
@@ -231,6 +221,15 @@ class CircuitBitExactRoundTripTest {
                         new CheckCase("regime", Map.of("alarm", "ringing"), -0.0))))
                 .extensions(ext)
                 .build();
+    }
+
+    /** One normal input and a sum over it, once per weight, with {@code w} as its log-weights. */
+    private static CircuitDocument sumOver(double[] w) {
+        return CircuitDocument.builder()
+                .variables(List.of(Variable.of("inlet_pressure", VariableType.REAL)))
+                .nodes(List.of(new InputNode(0, null, Family.NORMAL, new int[] {0}, new double[] {3.1, 0.2}, false),
+                        new SumNode(1, null, new int[w.length], w, true)))
+                .outputs(List.of(new Output("joint", 1))).build();
     }
 
     private static String text(CircuitDocument doc) throws IOException {
