@@ -2,13 +2,15 @@ package dev.circa.engine.internal;
 
 /**
  * {@link DenseKernel}'s evaluation of one dense block at every row of a chunk of several rows (the
- * one-row case is {@code DenseKernel.blockRow}, with the same values bit for bit). The method is the
- * kernel's: per row, each part's maximum, the segments' sums of maxima and the block's largest; each part
- * node's exponential after its part's maximum is subtracted; a segment's products as the outer product of
+ * one-row case is {@link RowBlocks}, with the same values bit for bit). The method is the
+ * kernel's: per row, each part's offset (its maximum, or the offset of the block that holds it in linear
+ * form), the segments' sums of offsets and the block's largest; each part node's factor (its exponential
+ * after its part's maximum is subtracted, or its mantissa as it is); a segment's products as the outer product of
  * its parts' exponentials (times exp(segment maximum - block maximum) when there are several segments);
  * then sums = weights x products, every entry summed over the products in order from the first; and
  * log(sum) + largest log-weight + block maximum, or the exact log-sum-exp where the linear sum is below
- * {@link DenseKernel#TINY} or the row's maximum is not finite.
+ * {@link DenseKernel#TINY} or the row's maximum is not finite, or the sums in linear form
+ * ({@link LinearOutput}) where the block holds them so.
  *
  * <p>Layout: every per-row quantity of the block is a row array of its own ({@code products[j][r]},
  * {@code sums[k][r]}, {@code partMax[p][r]}, {@code segMax[s][r]}, {@code partExp[j][r]}), and a node's
@@ -38,6 +40,13 @@ final class ChunkBlocks {
     private final double[] check;
     /** One node's values, or one product row while a segment is expanded. */
     private final double[] cells;
+    /** One part's offsets, or the powers of two that scale a block's sums. */
+    private final double[] offsets;
+    /** Per part of the block, whether some row of the chunk holds it as log-values. */
+    private final boolean[] partLog;
+    /** Per row, whether the block's sums are held in linear form, and their binary exponent. */
+    private final boolean[] held;
+    private final int[] exponent;
 
     ChunkBlocks(DenseBlocks blocks, int rows) {
         this.products = new double[Math.max(1, blocks.maxWidth)][rows];
@@ -48,6 +57,10 @@ final class ChunkBlocks {
         this.blockMax = new double[rows];
         this.check = new double[rows];
         this.cells = new double[rows];
+        this.offsets = new double[rows];
+        this.partLog = new boolean[Math.max(1, blocks.maxParts)];
+        this.held = new boolean[rows];
+        this.exponent = new int[rows];
     }
 
     /** Block {@code b} at rows 0 .. rows-1 of slot-major {@code value}: its sums' values into their slots. */
@@ -71,14 +84,17 @@ final class ChunkBlocks {
             }
             for (int p = d.partStart[s]; p < d.partStart[s + 1]; p++) {
                 final double[] pm = partMax[p - part0];
-                final int g0 = d.groupStart[p];
-                final int g1 = d.groupStart[p + 1];
-                System.arraycopy(value, d.groupSlot[g0] * rows, pm, 0, rows);
-                for (int g = g0 + 1; g < g1; g++) {
-                    System.arraycopy(value, d.groupSlot[g] * rows, x, 0, rows);
+                final int os = d.partOffsetSlot[p];
+                boolean logRows = os < 0;
+                if (os >= 0) {
+                    System.arraycopy(value, os * rows, pm, 0, rows);
                     for (int r = 0; r < rows; r++) {
-                        pm[r] = Math.max(pm[r], x[r]);
+                        logRows |= pm[r] != pm[r];
                     }
+                }
+                partLog[p - part0] = logRows;
+                if (logRows) {
+                    partMaximum(d, p, rows, value, pm);
                 }
                 for (int r = 0; r < rows; r++) {
                     sm[r] += pm[r];
@@ -113,16 +129,28 @@ final class ChunkBlocks {
             for (int p = d.partStart[s]; p < d.partStart[s + 1]; p++) {
                 final int g0 = d.groupStart[p];
                 final int size = d.groupStart[p + 1] - g0;
-                if (size == 1) {
+                final int os = d.partOffsetSlot[p];
+                if (size == 1 && os < 0) {
                     continue;
                 }
                 final double[] pm = partMax[p - part0];
                 for (int j = 0; j < size; j++) {
                     final int vb = d.groupSlot[g0 + j] * rows;
                     final double[] e = partExp[j];
-                    for (int r = 0; r < rows; r++) {
-                        double v = value[vb + r];
-                        e[r] = v == neg ? 0 : Math.exp(v - pm[r]);
+                    if (os < 0) {
+                        for (int r = 0; r < rows; r++) {
+                            double v = value[vb + r];
+                            e[r] = v == neg ? 0 : Math.exp(v - pm[r]);
+                        }
+                    } else if (!partLog[p - part0]) {
+                        System.arraycopy(value, vb, e, 0, rows);
+                    } else {
+                        final int ob = os * rows;
+                        for (int r = 0; r < rows; r++) {
+                            double v = value[vb + r];
+                            double l = value[ob + r];
+                            e[r] = l == l ? v : v == neg ? 0 : Math.exp(v - pm[r]);
+                        }
                     }
                 }
                 expand(out, cur, size, rows);
@@ -132,6 +160,11 @@ final class ChunkBlocks {
         multiply(d, b, n, rows);
         final int k0 = d.sumStart[b];
         final int k1 = d.sumStart[b + 1];
+        final int os = d.offsetSlot[b];
+        if (os >= 0) {
+            linearSums(c, d, b, rows, value);
+            return;
+        }
         for (int k = k0; k < k1; k++) {
             final int node = d.sumNode[k];
             final int base = d.sumSlot[k] * rows;
@@ -141,14 +174,127 @@ final class ChunkBlocks {
                 double m = bm[r];
                 double sum = ct[r];
                 if (ck[r] != 0) {
-                    value[base + r] = DenseKernel.exact(c, d.childSlot, node, rows, r, value);
+                    value[base + r] = ExactSum.value(c, d, node, rows, r, value);
                 } else if (m == neg || lw == neg) {
                     value[base + r] = neg;
                 } else if (sum >= DenseKernel.TINY) {
                     value[base + r] = Math.log(sum) + (lw + m);
                 } else {
-                    value[base + r] = DenseKernel.exact(c, d.childSlot, node, rows, r, value);
+                    value[base + r] = ExactSum.value(c, d, node, rows, r, value);
                 }
+            }
+        }
+    }
+
+    /**
+     * Part p's maximum log-value at every row into {@code pm} ({@link Math#max}, so a NaN node makes it NaN);
+     * for a part held in linear form, its offset where the row holds the linear form.
+     */
+    private void partMaximum(DenseBlocks d, int p, int rows, double[] value, double[] pm) {
+        final double[] x = cells;
+        final int g0 = d.groupStart[p];
+        final int g1 = d.groupStart[p + 1];
+        final int os = d.partOffsetSlot[p];
+        if (os >= 0) {
+            System.arraycopy(value, os * rows, offsets, 0, rows);
+        }
+        System.arraycopy(value, d.groupSlot[g0] * rows, pm, 0, rows);
+        for (int g = g0 + 1; g < g1; g++) {
+            System.arraycopy(value, d.groupSlot[g] * rows, x, 0, rows);
+            for (int r = 0; r < rows; r++) {
+                pm[r] = Math.max(pm[r], x[r]);
+            }
+        }
+        if (os >= 0) {
+            for (int r = 0; r < rows; r++) {
+                double l = offsets[r];
+                pm[r] = l == l ? l : pm[r];
+            }
+        }
+    }
+
+    /**
+     * Block b's sums from {@link #sums} at every row: in linear form where it holds them
+     * ({@link LinearOutput#held}, the same operations as the one-row case), else log-values as every other
+     * block, with offset NaN. Every loop but the one over a chunk with rows not held indexes its arrays alike.
+     */
+    private void linearSums(CircuitData c, DenseBlocks d, int b, int rows, double[] value) {
+        final int k0 = d.sumStart[b];
+        final int k1 = d.sumStart[b + 1];
+        final double[] scale = d.sumScale;
+        final double[] bm = blockMax;
+        final double[] ck = check;
+        final double[] top = cells;
+        final double[] low = offsets;
+        for (int r = 0; r < rows; r++) {
+            top[r] = 0;
+            low[r] = Double.POSITIVE_INFINITY;
+        }
+        for (int k = k0; k < k1; k++) {
+            final double[] ct = sums[k - k0];
+            final double sk = scale[k];
+            if (sk != 0) {
+                for (int r = 0; r < rows; r++) {
+                    double a = ct[r] * sk;
+                    top[r] = Math.max(top[r], a);
+                    low[r] = Math.min(low[r], a);
+                }
+            }
+        }
+        boolean all = true;
+        final double[] inv = low;
+        for (int r = 0; r < rows; r++) {
+            boolean h = LinearOutput.held(ck[r], bm[r], low[r], top[r]);
+            int ex = Math.getExponent(top[r]);
+            exponent[r] = ex;
+            held[r] = h;
+            inv[r] = h ? LinearOutput.pow2(-ex) : 0;
+            all &= h;
+        }
+        for (int k = k0; k < k1; k++) {
+            final int vb = d.sumSlot[k] * rows;
+            final double[] ct = sums[k - k0];
+            final double sk = scale[k];
+            if (all) {
+                for (int r = 0; r < rows; r++) {
+                    value[vb + r] = ct[r] * sk * inv[r];
+                }
+            } else {
+                logWhereNotHeld(c, d, k, k - k0, rows, value);
+            }
+        }
+        final int ob = d.offsetSlot[b] * rows;
+        final double base = d.logTop[b];
+        for (int r = 0; r < rows; r++) {
+            value[ob + r] = held[r] ? LinearOutput.offset(base + bm[r], exponent[r]) : Double.NaN;
+        }
+    }
+
+    /**
+     * Sum k (the block's {@code index}-th) at every row: its mantissa where the row is held, else its log-value
+     * (as every other block).
+     */
+    private void logWhereNotHeld(CircuitData c, DenseBlocks d, int k, int index, int rows, double[] value) {
+        final int node = d.sumNode[k];
+        final int vb = d.sumSlot[k] * rows;
+        final double[] ct = sums[index];
+        final double sk = d.sumScale[k];
+        final double lw = d.maxLogWeight[k];
+        final double[] inv = offsets;
+        final double neg = Double.NEGATIVE_INFINITY;
+        for (int r = 0; r < rows; r++) {
+            double sum = ct[r];
+            double m = blockMax[r];
+            if (held[r]) {
+                value[vb + r] = sum * sk * inv[r];
+            } else if (check[r] != 0) {
+                value[vb + r] = ExactSum.value(c, d, node, rows, r, value);
+            } else if (m == neg || lw == neg) {
+                value[vb + r] = neg;
+            } else if (sum >= DenseKernel.TINY) {
+                value[vb + r] = Math.log(sum) + (lw + m);
+            } else {
+                value[vb + r] = ExactSum.value(c, d, node, rows, r, value);
             }
         }
     }

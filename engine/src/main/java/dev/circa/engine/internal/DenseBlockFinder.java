@@ -187,11 +187,13 @@ public final class DenseBlockFinder {
         fuseInputProducts(c, action, refs);
         int[] nodeSlot = new int[n];
         int[] childSlot = new int[ci.length];
+        LinearSlots linear = new LinearSlots(c, action, sumStarts, sums, maxLogWeight, segStarts, partStarts,
+                groupStarts, groupNodes);
         int slotCount = assignSlots(c, action, blockAt, sumStarts, sums, segStarts, partStarts, groupStarts, groupNodes,
-                nodeSlot, childSlot);
+                nodeSlot, childSlot, linear);
         return new DenseBlocks(action, blockAt, sumStarts, sums, maxLogWeight, width.toArray(),
                 weights.toArray(new DMatrixRMaj[0]), segStarts, segOffset.toArray(), segLength.toArray(),
-                partStarts, groupStarts, groupNodes, blockEdges, nodeSlot, childSlot, slotCount, c);
+                partStarts, groupStarts, groupNodes, blockEdges, nodeSlot, childSlot, slotCount, linear, c);
     }
 
     /**
@@ -224,11 +226,13 @@ public final class DenseBlockFinder {
 
     /**
      * Linear-scan slot assignment in node order: a node gets a free slot when it is evaluated (a block's
-     * sums all at the block) and gives it back after its last reader (outputs never). Fills
-     * {@code nodeSlot} and {@code childSlot}; returns the number of slots.
+     * sums all at the block, and a linear block's offset with them) and gives it back after its last reader
+     * (outputs never; a linear block's offset after the last reader of its sums). Fills {@code nodeSlot},
+     * {@code childSlot} and the slots of {@code linear}; returns the number of slots.
      */
     private static int assignSlots(CircuitData c, byte[] action, int[] blockAt, int[] sumStart, int[] sumNode,
-            int[] segStart, int[] partStart, int[] groupStart, int[] groupNode, int[] nodeSlot, int[] childSlot) {
+            int[] segStart, int[] partStart, int[] groupStart, int[] groupNode, int[] nodeSlot, int[] childSlot,
+            LinearSlots linear) {
         final int n = c.nodeCount;
         final int[] cs = c.childStart;
         final int[] ci = c.childIndex;
@@ -249,6 +253,13 @@ public final class DenseBlockFinder {
         }
         for (int o : c.outputNode) {
             lastUse[o] = never;
+        }
+        // a linear block's offset is read by every reader of its sums
+        int[] offsetLastUse = new int[sumStart.length - 1];
+        for (int b = 0; b < offsetLastUse.length; b++) {
+            for (int k = sumStart[b]; k < sumStart[b + 1]; k++) {
+                offsetLastUse[b] = Math.max(offsetLastUse[b], lastUse[sumNode[k]]);
+            }
         }
         Arrays.fill(nodeSlot, -1);
         int[] free = new int[n];
@@ -283,19 +294,33 @@ public final class DenseBlockFinder {
                 for (int k = sumStart[b]; k < sumStart[b + 1]; k++) {
                     nodeSlot[sumNode[k]] = freeCount > 0 ? free[--freeCount] : slots++;
                 }
+                if (linear.linear[b]) {
+                    linear.offsetSlot[b] = freeCount > 0 ? free[--freeCount] : slots++;
+                }
                 // the block's products read their children (the parts) here, for the exact path
                 int list0 = cs[i];
                 for (int j = list0; j < cs[i + 1]; j++) {
                     int q = ci[j];
                     for (int e = cs[q]; e < cs[q + 1]; e++) {
                         childSlot[e] = nodeSlot[ci[e]];
+                        int from = linear.linearBlockOf(ci[e]);
+                        linear.childOffsetSlot[e] = from < 0 ? -1 : linear.offsetSlot[from];
                     }
+                }
+                for (int p = partStart[segStart[b]]; p < partStart[segStart[b + 1]]; p++) {
+                    int from = linear.linearBlockOf(groupNode[groupStart[p]]);
+                    linear.partOffsetSlot[p] = from < 0 ? -1 : linear.offsetSlot[from];
                 }
                 for (int g = groupStart[partStart[segStart[b]]]; g < groupStart[partStart[segStart[b + 1]]]; g++) {
                     int part = groupNode[g];
                     if (lastUse[part] == i) {
                         free[freeCount++] = nodeSlot[part];
                         lastUse[part] = -2;
+                    }
+                    int from = linear.linearBlockOf(part);
+                    if (from >= 0 && offsetLastUse[from] == i) {
+                        free[freeCount++] = linear.offsetSlot[from];
+                        offsetLastUse[from] = -2;
                     }
                 }
                 for (int k = sumStart[b]; k < sumStart[b + 1]; k++) {

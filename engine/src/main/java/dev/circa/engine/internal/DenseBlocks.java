@@ -33,7 +33,16 @@ import org.ejml.data.DMatrixRMaj;
  * children are read when its block is evaluated); {@code groupSlot} and {@code sumSlot} mirror
  * {@code groupNode} and {@code sumNode}. Slots are reused once their node's last reader is done, so a
  * region-graph circuit needs a small fraction of one slot per node ({@code slotCount} in all), and chunks
- * of many rows fit the evaluator's memory budget. Never modified after the analysis.
+ * of many rows fit the evaluator's memory budget.
+ *
+ * <p>Linear outputs ({@link LinearOutput}): a block whose sums are read only by other blocks, each as a part
+ * made of that block's sums alone (the usual case in a region graph: a part is a child region's K sums), holds
+ * its sums in linear form, mantissas in the sums' slots and the row's log offset in {@code offsetSlot[b]}
+ * (-1 for a block that holds log-values); {@code partOffsetSlot[p]} is the offset slot of the block a
+ * part is read from (-1 for a part of log-values) and {@code childOffsetSlot[e]} that of edge e's child
+ * (-1 for a child of log-values), for the exact path. {@code sumScale[k]} = e^(maxLogWeight(k) - logTop(b))
+ * (0 for a sum of zero weights), {@code logTop[b]} the block's largest {@code maxLogWeight}. Never modified
+ * after the analysis.
  */
 public final class DenseBlocks {
     public static final byte GENERIC = 0;
@@ -100,13 +109,18 @@ public final class DenseBlocks {
     public final int[] groupSlot;
     public final int[] sumSlot;
     public final int slotCount;
+    public final int[] offsetSlot;
+    public final int[] partOffsetSlot;
+    public final int[] childOffsetSlot;
+    public final double[] sumScale;
+    public final double[] logTop;
     /** Edges evaluated inside blocks: sum edges plus the edges of products that are not materialised. */
     public final long blockEdges;
 
     DenseBlocks(byte[] action, int[] blockAt, int[] sumStart, int[] sumNode, double[] maxLogWeight, int[] width,
             DMatrixRMaj[] weights, int[] segStart, int[] segOffset, int[] segLength, int[] partStart,
             int[] groupStart, int[] groupNode, long blockEdges, int[] nodeSlot, int[] childSlot, int slotCount,
-            CircuitData c) {
+            LinearSlots linear, CircuitData c) {
         this.action = action;
         this.blockAt = blockAt;
         this.sumStart = sumStart;
@@ -124,6 +138,11 @@ public final class DenseBlocks {
         this.nodeSlot = nodeSlot;
         this.childSlot = childSlot;
         this.slotCount = slotCount;
+        this.offsetSlot = linear.offsetSlot;
+        this.partOffsetSlot = linear.partOffsetSlot;
+        this.childOffsetSlot = linear.childOffsetSlot;
+        this.sumScale = linear.sumScale;
+        this.logTop = linear.logTop;
         this.fusedBase = new int[action.length];
         this.fusedStride = new int[action.length];
         this.fusedOut = new int[action.length];
