@@ -171,17 +171,8 @@ final class ChunkBlocks {
             final double[] ct = sums[k - k0];
             final double lw = d.maxLogWeight[k];
             for (int r = 0; r < rows; r++) {
-                double m = bm[r];
-                double sum = ct[r];
-                if (ck[r] != 0) {
-                    value[base + r] = ExactSum.value(c, d, node, rows, r, value);
-                } else if (m == neg || lw == neg) {
-                    value[base + r] = neg;
-                } else if (sum >= DenseKernel.TINY) {
-                    value[base + r] = Math.log(sum) + (lw + m);
-                } else {
-                    value[base + r] = ExactSum.value(c, d, node, rows, r, value);
-                }
+                value[base + r] = ck[r] != 0 ? ExactSum.value(c, d, node, rows, r, value)
+                        : ExactSum.fromLinear(c, d, node, rows, r, value, ct[r], lw, bm[r]);
             }
         }
     }
@@ -281,21 +272,10 @@ final class ChunkBlocks {
         final double sk = d.sumScale[k];
         final double lw = d.maxLogWeight[k];
         final double[] inv = offsets;
-        final double neg = Double.NEGATIVE_INFINITY;
         for (int r = 0; r < rows; r++) {
             double sum = ct[r];
-            double m = blockMax[r];
-            if (held[r]) {
-                value[vb + r] = sum * sk * inv[r];
-            } else if (check[r] != 0) {
-                value[vb + r] = ExactSum.value(c, d, node, rows, r, value);
-            } else if (m == neg || lw == neg) {
-                value[vb + r] = neg;
-            } else if (sum >= DenseKernel.TINY) {
-                value[vb + r] = Math.log(sum) + (lw + m);
-            } else {
-                value[vb + r] = ExactSum.value(c, d, node, rows, r, value);
-            }
+            value[vb + r] = held[r] ? sum * sk * inv[r] : check[r] != 0 ? ExactSum.value(c, d, node, rows, r, value)
+                    : ExactSum.fromLinear(c, d, node, rows, r, value, sum, lw, blockMax[r]);
         }
     }
 

@@ -10,6 +10,20 @@ final class ExactSum {
     private ExactSum() {
     }
 
+    /**
+     * The log-value of a block's sum {@code node} at row r from its linear sum {@code sum} (weights scaled by
+     * {@code maxLogWeight}, products by {@code blockMax}): -inf when either is -inf, log(sum) + maxLogWeight +
+     * blockMax when the sum is at least {@link DenseKernel#TINY}, else the exact way ({@link #value}). The one
+     * rule of the one-row and the chunk paths, so both give the same bits.
+     */
+    static double fromLinear(CircuitData c, DenseBlocks d, int node, int rows, int r, double[] value, double sum,
+            double maxLogWeight, double blockMax) {
+        if (blockMax == Double.NEGATIVE_INFINITY || maxLogWeight == Double.NEGATIVE_INFINITY) {
+            return Double.NEGATIVE_INFINITY;
+        }
+        return sum >= DenseKernel.TINY ? Math.log(sum) + (maxLogWeight + blockMax) : value(c, d, node, rows, r, value);
+    }
+
     /** Sum {@code node} at row r of slot-major {@code value} ({@code rows} rows). */
     static double value(CircuitData c, DenseBlocks d, int node, int rows, int r, double[] value) {
         final int[] cs = c.childStart;

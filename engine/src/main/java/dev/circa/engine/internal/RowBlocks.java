@@ -104,17 +104,8 @@ final class RowBlocks {
             return;
         }
         for (int k = k0; k < k1; k++) {
-            double lw = d.maxLogWeight[k];
-            double sum = ct[k - k0];
-            double v;
-            if (lw == neg) {
-                v = neg;
-            } else if (sum >= DenseKernel.TINY) {
-                v = Math.log(sum) + (lw + blockMax);
-            } else {
-                v = ExactSum.value(c, d, d.sumNode[k], 1, 0, value);
-            }
-            value[d.sumSlot[k]] = v;
+            value[d.sumSlot[k]] = ExactSum.fromLinear(c, d, d.sumNode[k], 1, 0, value, ct[k - k0], d.maxLogWeight[k],
+                    blockMax);
         }
         if (os >= 0) {
             value[os] = Double.NaN;
