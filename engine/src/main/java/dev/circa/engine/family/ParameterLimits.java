@@ -1,6 +1,7 @@
 package dev.circa.engine.family;
 
 import dev.circa.format.Family;
+import dev.circa.format.NodeTable;
 import java.util.List;
 
 /**
@@ -73,6 +74,28 @@ public final class ParameterLimits {
     /** Whether {@code f}'s parameters must be ordered: uniform's {@code low < high}. */
     public static boolean ordered(Family f) {
         return f == Family.UNIFORM;
+    }
+
+    /**
+     * Whether one-variable input {@code i} of {@code t}, of a family other than categorical and mvnormal, has,
+     * read from the table's columns, one number per parameter of its family, each finite and within its limit
+     * ({@code states} bounds a {@link Limit#STATE}), in order: what {@link #holds} and a finiteness check say of
+     * its parameters, without making a record of the node.
+     */
+    public static boolean holds(NodeTable t, int i, int states) {
+        Family f = t.family(i);
+        int a = t.valueStart(i);
+        List<Limit> limits = of(f);
+        if (f == Family.CATEGORICAL || f == Family.MVNORMAL || t.valueEnd(i) - a != limits.size()) {
+            return false;
+        }
+        for (int k = 0; k < limits.size(); k++) {
+            double x = t.value(a + k);
+            if (!Double.isFinite(x) || !limits.get(k).holds(x, states)) {
+                return false;
+            }
+        }
+        return !ordered(f) || t.value(a) < t.value(a + 1);
     }
 
     /** Whether {@code p} (one value per parameter of {@code f}) keeps {@code f}'s order, if it has one. */

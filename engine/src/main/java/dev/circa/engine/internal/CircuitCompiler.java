@@ -205,18 +205,7 @@ public final class CircuitCompiler {
         if (v < 0 || v >= variables.size() || !f.accepts(variables.get(v).type())) {
             return false;
         }
-        int a = t.valueStart(i);
-        List<ParameterLimits.Limit> limits = ParameterLimits.of(f);
-        if (t.valueEnd(i) - a != limits.size()) {
-            return false;
-        }
-        for (int q = 0; q < limits.size(); q++) {
-            double x = t.value(a + q);
-            if (!Double.isFinite(x) || !limits.get(q).holds(x, Integer.MAX_VALUE)) {
-                return false;
-            }
-        }
-        return !ParameterLimits.ordered(f) || t.value(a) < t.value(a + 1);
+        return ParameterLimits.holds(t, i, Integer.MAX_VALUE);
     }
 
     private static void checkInput(int i, InputNode in, List<Variable> variables) throws CompileException {

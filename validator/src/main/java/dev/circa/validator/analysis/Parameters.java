@@ -80,25 +80,12 @@ public final class Parameters {
      */
     private static boolean soundInput(CircuitDocument doc, NodeTable t, int i, double tol) {
         Family f = t.family(i);
-        int a = t.valueStart(i);
-        int b = t.valueEnd(i);
-        List<Limit> limits = ParameterLimits.of(f);
-        if (f == Family.CATEGORICAL || f == Family.MVNORMAL || b - a != limits.size() || t.varEnd(i) - t.varStart(i) != 1) {
+        if (f == Family.CATEGORICAL || f == Family.MVNORMAL || t.valueEnd(i) - t.valueStart(i) != ParameterLimits.of(f).size()
+                || t.varEnd(i) - t.varStart(i) != 1) {
             return sound(doc, (InputNode) t.node(i), tol);
         }
-        for (int k = a; k < b; k++) {
-            if (!Double.isFinite(t.value(k))) {
-                return false;
-            }
-        }
         int v = t.var(t.varStart(i));
-        int states = v >= 0 && v < doc.variables().size() ? states(doc.variables().get(v)) : Integer.MAX_VALUE;
-        for (int k = 0; k < limits.size(); k++) {
-            if (!limits.get(k).holds(t.value(a + k), states)) {
-                return false;
-            }
-        }
-        return !ParameterLimits.ordered(f) || t.value(a) < t.value(a + 1);
+        return ParameterLimits.holds(t, i, v >= 0 && v < doc.variables().size() ? states(doc.variables().get(v)) : Integer.MAX_VALUE);
     }
 
     private static boolean sound(CircuitDocument doc, InputNode in, double tol) {
