@@ -375,10 +375,10 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             }
             try (FileChannel ch = FileChannel.open(file, StandardOpenOption.READ)) {
                 long size = ch.size();
-                if (size < scanAtLeast || size > limits.maxBytes() || !NodeScanner.startsAsUtf8(ch)) {
+                if (!scannable(ch, size)) {
                     return 0;
                 }
-                if (tail != null && (size < splitAtLeast || tail.nodeOffset() <= at)) {
+                if (tail != null && tail.nodeOffset() <= at) {
                     // started early, at a node the reader cannot meet: before the nodes array
                     tail.close();
                     tail = null;
@@ -421,12 +421,17 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             }
             try (FileChannel ch = FileChannel.open(file, StandardOpenOption.READ)) {
                 long size = ch.size();
-                if (size >= splitAtLeast && size >= scanAtLeast && size <= limits.maxBytes() && NodeScanner.startsAsUtf8(ch)) {
+                if (size >= splitAtLeast && scannable(ch, size)) {
                     tail = NodeArrayTail.start(file, size, 0, limits);
                 }
             } catch (IOException e) {
                 // the read itself reports a file it cannot read
             }
+        }
+
+        /** Whether the nodes of a stored file of {@code size} bytes, open as {@code ch}, are read by a scanner. */
+        private boolean scannable(FileChannel ch, long size) throws IOException {
+            return size >= scanAtLeast && size <= limits.maxBytes() && NodeScanner.startsAsUtf8(ch);
         }
 
         /**
