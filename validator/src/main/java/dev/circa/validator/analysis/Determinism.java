@@ -47,6 +47,8 @@ public final class Determinism {
     private final NodeTable table;
     /** The positive children of the sum being decided, in order (reused from sum to sum). */
     private final IntList kids = new IntList();
+    /** Whether every child in {@link #kids} has the very same box object (set by {@link #sumBox}). */
+    private boolean sameBoxes;
     /** Per-kid supports on one variable (reused by {@link #separated}). */
     private Support[] per = new Support[16];
 
@@ -72,13 +74,17 @@ public final class Determinism {
             } else if (k == Graph.PRODUCT) {
                 box[i] = productBox(i);
             } else {
-                positiveChildren(i);
-                box[i] = sumBox();
-                verdict[i] = decide(i);
-                if (verdict[i] == UNKNOWN) {
-                    unknownSums++;
-                }
+                sum(i);
             }
+        }
+    }
+
+    /** Sum {@code i}'s box and verdict. */
+    private void sum(int i) {
+        box[i] = positiveChildren(i) ? sameBox() : sumBox();
+        verdict[i] = decide(i);
+        if (verdict[i] == UNKNOWN) {
+            unknownSums++;
         }
     }
 
@@ -322,24 +328,45 @@ public final class Determinism {
         return t.logForm(i) ? w > Double.NEGATIVE_INFINITY : w > 0;
     }
 
-    /** Fills {@link #kids} with the children of sum {@code i} whose weight is positive, in order. */
-    private void positiveChildren(int i) {
+    /**
+     * Fills {@link #kids} with the children of sum {@code i} whose weight is positive, in order; whether
+     * there is at least one and all have the very same box object (the common case of a sum over the
+     * products of one partition), which {@link #sameBox} then makes the sum's box without another pass.
+     */
+    private boolean positiveChildren(int i) {
         NodeTable t = table;
         int a = g.childStart(i);
         int b = g.childEnd(i);
         int w = t.valueStart(i);
         boolean log = t.logForm(i);
         kids.clear();
+        Box first = null;
+        boolean same = true;
         for (int e = a; e < b; e++) {
             double x = t.value(w + e - a);
             if (log ? x > Double.NEGATIVE_INFINITY : x > 0) {
-                kids.add(g.child(e));
+                int c = g.child(e);
+                if (kids.isEmpty()) {
+                    first = box[c];
+                } else {
+                    same &= box[c] == first;
+                }
+                kids.add(c);
             }
         }
+        return same && !kids.isEmpty();
+    }
+
+    /** What {@link #sumBox} gives when every child in {@link #kids} has one and the same box. */
+    private Box sameBox() {
+        Box first = box[kids.get(0)];
+        sameBoxes = first != null;
+        return first;
     }
 
     /** The box of the sum whose positive children are in {@link #kids}. */
     private Box sumBox() {
+        sameBoxes = false;
         Box first = null;
         boolean exact = true;
         boolean allSame = true;
@@ -352,15 +379,20 @@ public final class Determinism {
             }
             if (first == null) {
                 first = c;
-                vars = c.vars.clone();
-                sp = c.sup.clone();
+                vars = c.vars;
+                sp = c.sup;
                 exact = c.exact;
                 continue;
             }
             if (c == first) {
                 continue;
             }
-            allSame = false;
+            if (allSame) {
+                // the first child's arrays are shared: copied only when another box narrows them
+                vars = vars.clone();
+                sp = sp.clone();
+                allSame = false;
+            }
             exact &= c.exact && Arrays.equals(c.vars, first.vars);
             // children over the same variables as those kept so far (the common case) need no search
             boolean aligned = Arrays.equals(c.vars, vars);
@@ -381,6 +413,7 @@ public final class Determinism {
         if (first == null) {
             return new Box(new int[0], new Support[0], false);
         }
+        sameBoxes = allSame;
         if (allSame) {
             return first;
         }
@@ -510,6 +543,10 @@ public final class Determinism {
     /** Looks for two children with exact boxes that overlap with positive measure; records the witness. */
     private boolean overlapWitness(int sum, IntList kids) {
         int k = kids.size();
+        if (sameBoxes) {
+            // every pair has the same two boxes: the first pair, tried first below as well, decides for all
+            return tryPair(sum, kids.get(0), kids.get(1));
+        }
         // all pairs of a small sum; for a large one each child with the first and with its neighbour
         if (k <= 16) {
             for (int x = 0; x < k; x++) {
