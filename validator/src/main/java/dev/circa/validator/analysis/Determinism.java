@@ -458,7 +458,37 @@ public final class Determinism {
         if (overlapWitness(i, kids)) {
             return FALSE;
         }
-        return enumerate(i, kids);
+        int[] card = cardinalities(s.vars(i));
+        return card == null ? UNKNOWN : enumerate(i, kids, card);
+    }
+
+    /**
+     * The number of states of each variable of {@code vars} when all are discrete and their assignments
+     * are at most {@code maxEnumeration}; otherwise {@code null} (the sum stays unknown).
+     */
+    private int[] cardinalities(int[] vars) {
+        List<Variable> vs = g.document().variables();
+        long count = 1;
+        int[] card = null;
+        for (int p = 0; p < vars.length; p++) {
+            Variable v = vs.get(vars[p]);
+            if (v.type() != VariableType.BINARY && v.type() != VariableType.CATEGORICAL) {
+                return null;
+            }
+            int states = v.stateCount();
+            if (states <= 0) {
+                return null;
+            }
+            count *= states;
+            if (count > maxEnumeration) {
+                return null;
+            }
+            if (card == null) {
+                card = new int[vars.length];
+            }
+            card[p] = states;
+        }
+        return card == null ? new int[0] : card;
     }
 
     /** Whether on some variable every pair of children's supports is disjoint. */
@@ -467,7 +497,7 @@ public final class Determinism {
         if (b0 == null) {
             return false;
         }
-        for (int k = 0; k < kids.size(); k++) {
+        for (int k = 0; k < kids.size() && !sameBoxes; k++) {
             if (box[kids.get(k)] == null) {
                 return false;
             }
@@ -650,25 +680,16 @@ public final class Determinism {
         return v.name() + "=" + String.format(Locale.ROOT, "%s", value);
     }
 
-    /** Enumerates the sum's scope when it is discrete and small; all assignments at once, one bit each. */
-    private byte enumerate(int sum, IntList kids) {
+    /**
+     * Enumerates the sum's scope, discrete and small (its variables' numbers of states in {@code card});
+     * all assignments at once, one bit each.
+     */
+    private byte enumerate(int sum, IntList kids, int[] card) {
         int[] vars = s.vars(sum);
         List<Variable> vs = g.document().variables();
         long count = 1;
-        int[] card = new int[vars.length];
-        for (int p = 0; p < vars.length; p++) {
-            Variable v = vs.get(vars[p]);
-            if (v.type() != VariableType.BINARY && v.type() != VariableType.CATEGORICAL) {
-                return UNKNOWN;
-            }
-            card[p] = v.stateCount();
-            if (card[p] <= 0) {
-                return UNKNOWN;
-            }
-            count *= card[p];
-            if (count > maxEnumeration) {
-                return UNKNOWN;
-            }
+        for (int c : card) {
+            count *= c;
         }
         int bits = (int) count;
         int words = (bits + 63) >>> 6;
