@@ -325,6 +325,22 @@ public final class NodeTable {
          * blocks once copied (the source is not used afterwards).
          */
         void addAll(Ints src, int from, int shift) {
+            if (from == 0 && shift == 0 && BlockAdoption.applies(size, src.size, INTS)) {
+                blocks = BlockAdoption.append(blocks, size, src.blocks, src.size, INTS);
+                size += src.size;
+                int b = size / INTS;
+                // the block the next entry goes to, or the last full one when the next entry starts a block
+                boolean boundary = b >= blocks.length || blocks[b] == null;
+                current = boundary ? blocks[b - 1] : blocks[b];
+                start = (boundary ? b - 1 : b) * INTS;
+                end = start + current.length;
+                src.blocks = new int[][] {new int[FIRST]};
+                src.current = src.blocks[0];
+                src.start = 0;
+                src.end = FIRST;
+                src.size = 0;
+                return;
+            }
             int k = from;
             while (k < src.size) {
                 int sb = k / INTS;
@@ -405,6 +421,21 @@ public final class NodeTable {
          * blocks once copied (the source is not used afterwards).
          */
         void addAll(Doubles src, int from) {
+            if (from == 0 && BlockAdoption.applies(size, src.size, DOUBLES)) {
+                blocks = BlockAdoption.append(blocks, size, src.blocks, src.size, DOUBLES);
+                size += src.size;
+                int b = size / DOUBLES;
+                boolean boundary = b >= blocks.length || blocks[b] == null;
+                current = boundary ? blocks[b - 1] : blocks[b];
+                start = (boundary ? b - 1 : b) * DOUBLES;
+                end = start + current.length;
+                src.blocks = new double[][] {new double[FIRST]};
+                src.current = src.blocks[0];
+                src.start = 0;
+                src.end = FIRST;
+                src.size = 0;
+                return;
+            }
             int k = from;
             while (k < src.size) {
                 int sb = k / DOUBLES;

@@ -159,7 +159,7 @@ class NodeTableTest {
     void appendAll_twoHalvesAcrossBlocks_sameEntriesAsOneBuilder() {
         // the halves meet at odd places in every column (a partly filled block on both sides), labels in both
         int n = 1_100_000;
-        for (int split : new int[] {0, 1, 777_777, n}) {
+        for (int split : new int[] {0, 1, 300_000, 777_777, n}) {
             NodeTable.Builder first = new NodeTable.Builder();
             NodeTable.Builder second = new NodeTable.Builder();
             Family[] families = Family.values();
@@ -178,12 +178,25 @@ class NodeTableTest {
                         kind == NodeTable.INPUT ? families[i % families.length] : null, i % 5 == 0);
             }
             first.appendAll(second);
+            // nodes appended after the halves met go on where the last one ended
+            for (int i = n; i < n + 3; i++) {
+                for (int c = 0; c < i % 3; c++) {
+                    first.appendChild(3 * i + c);
+                }
+                first.appendValue(i + 0.25);
+                if (i % 2 == 0) {
+                    first.appendValue(-i);
+                }
+                first.appendVar(i % 11);
+                byte kind = (byte) (i % 3);
+                first.close(kind, 2 * i, null, kind == NodeTable.INPUT ? families[i % families.length] : null, i % 5 == 0);
+            }
             NodeTable t = first.build();
-            assertEquals(n, t.size());
-            for (int i = 0; i < n; i++) {
+            assertEquals(n + 3, t.size());
+            for (int i = 0; i < n + 3; i++) {
                 assertEquals((byte) (i % 3), t.kind(i));
                 assertEquals(2 * i, t.id(i));
-                assertEquals(i % 100_000 == 7 ? "valve_" + i : null, t.label(i));
+                assertEquals(i % 100_000 == 7 && i < n ? "valve_" + i : null, t.label(i));
                 assertEquals(t.kind(i) == NodeTable.INPUT ? families[i % families.length] : null, t.family(i));
                 assertEquals(i % 5 == 0, t.logForm(i));
                 assertEquals(i % 3, t.childEnd(i) - t.childStart(i));

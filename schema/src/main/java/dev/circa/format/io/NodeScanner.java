@@ -670,9 +670,14 @@ final class NodeScanner {
             i++;
         }
         int intStart = i;
-        long whole = 0;
+        // the digits as a significand w (leading zeros left out; those after the 18th only counted) and a power of ten
+        long w = 0;
+        int significant = 0;
         while (i < lim && buf[i] >= '0' && buf[i] <= '9') {
-            whole = whole * 10 + (buf[i] - '0');
+            w = w * 10 + (buf[i] - '0');
+            if (w != 0) {
+                significant++;
+            }
             i++;
         }
         int intDigits = i - intStart;
@@ -680,29 +685,41 @@ final class NodeScanner {
             return false;
         }
         boolean integer = true;
+        int q = 0;
         if (i < lim && buf[i] == '.') {
             integer = false;
             int f = ++i;
             while (i < lim && buf[i] >= '0' && buf[i] <= '9') {
+                w = w * 10 + (buf[i] - '0');
+                if (w != 0) {
+                    significant++;
+                }
                 i++;
             }
             if (i == f) {
                 return false;
             }
+            q = f - i;
         }
         if (i < lim && (buf[i] == 'e' || buf[i] == 'E')) {
             integer = false;
             i++;
+            boolean minus = false;
             if (i < lim && (buf[i] == '+' || buf[i] == '-')) {
+                minus = buf[i] == '-';
                 i++;
             }
             int e = i;
+            int power = 0;
             while (i < lim && buf[i] >= '0' && buf[i] <= '9') {
+                // beyond any double's range either way: kept bounded, decoded the general way
+                power = Math.min(power * 10 + (buf[i] - '0'), 100_000);
                 i++;
             }
             if (i == e) {
                 return false;
             }
+            q += minus ? -power : power;
         }
         int len = i - start;
         if (i == lim || !delimiter(buf[i]) || len > limits.maxNumber()) {
@@ -714,15 +731,19 @@ final class NodeScanner {
             if (intDigits > 18) {
                 return false;
             }
-            v = negative ? -whole : whole;
+            v = negative ? -w : w;
         } else {
-            if (chars.length < len) {
-                chars = new char[Math.max(len, chars.length * 2)];
+            // most decimals (up to 18 significant digits, powers of ten within 27) without a string
+            v = significant <= 18 ? DecimalToDouble.toDouble(negative, w, q) : Double.NaN;
+            if (Double.isNaN(v)) {
+                if (chars.length < len) {
+                    chars = new char[Math.max(len, chars.length * 2)];
+                }
+                for (int k = 0; k < len; k++) {
+                    chars[k] = (char) buf[start + k];
+                }
+                v = NumberInput.parseDouble(chars, 0, len, true);
             }
-            for (int k = 0; k < len; k++) {
-                chars[k] = (char) buf[start + k];
-            }
-            v = NumberInput.parseDouble(chars, 0, len, true);
             if (!Double.isFinite(v)) {
                 return false;
             }
