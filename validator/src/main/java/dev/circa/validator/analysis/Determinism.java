@@ -33,6 +33,9 @@ public final class Determinism {
 
     private final Graph g;
     private final Scopes s;
+    private final Parameters facts;
+    /** The position in the facts' sums with a zero weight of the first one not before the sum being decided. */
+    private int zeroAt;
     private final int maxEnumeration;
     private final Box[] box;
     private final byte[] verdict;
@@ -59,9 +62,10 @@ public final class Determinism {
         }
     }
 
-    private Determinism(Graph g, Scopes s, int maxEnumeration) {
+    private Determinism(Graph g, Scopes s, Parameters facts, int maxEnumeration) {
         this.g = g;
         this.s = s;
+        this.facts = facts;
         this.maxEnumeration = maxEnumeration;
         this.table = g.document().nodeTable();
         int n = g.size();
@@ -88,9 +92,12 @@ public final class Determinism {
         }
     }
 
-    /** Decides every sum of a usable graph whose parameters are valid. */
-    public static Determinism of(Graph g, Scopes s, int maxEnumeration) {
-        return new Determinism(g, s, maxEnumeration);
+    /** Decides every sum of a usable graph whose parameters are valid ({@code facts} found no defect). */
+    public static Determinism of(Graph g, Scopes s, Parameters facts, int maxEnumeration) {
+        if (facts.anyProblem()) {
+            throw new IllegalArgumentException("the circuit's parameters have defects");
+        }
+        return new Determinism(g, s, facts, maxEnumeration);
     }
 
     /** Sums proven not deterministic: pairs {sum index, first child index, second child index}. */
@@ -324,8 +331,13 @@ public final class Determinism {
     /** Whether weight {@code j} of sum {@code i} is positive. */
     private boolean positive(int i, int j) {
         NodeTable t = table;
-        double w = t.value(t.valueStart(i) + j);
-        return t.logForm(i) ? w > Double.NEGATIVE_INFINITY : w > 0;
+        return positive(t, t.valueStart(i) + j, t.logForm(i));
+    }
+
+    /** Whether the weight at position {@code k} of the table's numbers, a log-weight when {@code log}, is positive. */
+    private static boolean positive(NodeTable t, int k, boolean log) {
+        double x = t.value(k);
+        return log ? x > Double.NEGATIVE_INFINITY : x > 0;
     }
 
     /**
@@ -339,12 +351,16 @@ public final class Determinism {
         int b = g.childEnd(i);
         int w = t.valueStart(i);
         boolean log = t.logForm(i);
+        // sums are met in index order; one without a zero weight has only positive ones (no defects)
+        while (zeroAt < facts.zeroWeightCount() && facts.zeroWeight(zeroAt) < i) {
+            zeroAt++;
+        }
+        boolean allPositive = zeroAt == facts.zeroWeightCount() || facts.zeroWeight(zeroAt) != i;
         kids.clear();
         Box first = null;
         boolean same = true;
         for (int e = a; e < b; e++) {
-            double x = t.value(w + e - a);
-            if (log ? x > Double.NEGATIVE_INFINITY : x > 0) {
+            if (allPositive || positive(t, w + e - a, log)) {
                 int c = g.child(e);
                 if (kids.isEmpty()) {
                     first = box[c];

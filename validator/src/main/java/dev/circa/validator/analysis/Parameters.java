@@ -26,6 +26,8 @@ public final class Parameters {
     private final IntList offOne = new IntList();
     /** The weight total of each sum of {@link #offOne}. */
     private double[] offOneTotal = new double[16];
+    /** Sums with a linear weight of 0 (a child that adds nothing), in index order. */
+    private final IntList zeroWeight = new IntList();
 
     private Parameters(CircuitDocument doc, double tol) {
         NodeTable t = doc.nodeTable();
@@ -77,19 +79,37 @@ public final class Parameters {
     }
 
     /**
+     * The number of sums with a linear weight equal to 0. When no node has a defect, every other sum's
+     * children all have a positive weight (linear weights finite and >= 0, log-weights finite).
+     */
+    public int zeroWeightCount() {
+        return zeroWeight.size();
+    }
+
+    /** The index of the {@code k}-th sum counted by {@link #zeroWeightCount()} (in index order). */
+    public int zeroWeight(int k) {
+        return zeroWeight.get(k);
+    }
+
+    /**
      * Whether sum {@code i}'s weights are all finite (and >= 0 in linear form); records the sum when its
      * weights' total is off 1 by more than {@code tol}.
      */
     private boolean soundSum(NodeTable t, int i, double tol) {
         boolean log = t.logForm(i);
         boolean sound = true;
+        boolean zero = false;
         double total = 0;
         int a = t.valueStart(i);
         int b = t.valueEnd(i);
         for (int k = a; k < b; k++) {
             double w = t.value(k);
             sound &= Double.isFinite(w) && (log || w >= 0);
+            zero |= !log && w == 0;
             total += log ? Math.exp(w) : w;
+        }
+        if (zero) {
+            zeroWeight.add(i);
         }
         if (b > a && !(Math.abs(total - 1) <= tol || Double.isNaN(total))) {
             if (offOne.size() == offOneTotal.length) {

@@ -192,7 +192,7 @@ public final class RuleContext {
             determinismDone = true;
             determinism = scopes() != null && !parameters().anyProblem() && graph().familyTypes.isEmpty()
                     && graph().repeatedVars.isEmpty()
-                    ? Determinism.of(graph(), scopes(), options.maxEnumeration()) : null;
+                    ? Determinism.of(graph(), scopes(), parameters(), options.maxEnumeration()) : null;
         }
         return determinism;
     }
