@@ -16,11 +16,11 @@ final class BlockAdoption {
     }
 
     /**
-     * Whether {@link #append} applies: both columns hold at least one full block (so their blocks all
-     * have {@code per} entries of room).
+     * Whether {@link #append} applies: the receiving column is empty (it then takes the appended blocks
+     * as they are), or both hold at least one full block (so their blocks all have {@code per} entries of room).
      */
     static boolean applies(int size, int srcSize, int per) {
-        return size >= per && srcSize >= per;
+        return size == 0 || (size >= per && srcSize >= per);
     }
 
     /**

@@ -46,6 +46,23 @@ class BlockAdoptionTest {
     }
 
     @Test
+    void anEmptyColumnTakesTheAppendedBlocksAsTheyAre() {
+        for (int srcSize = 0; srcSize <= 20; srcSize++) {
+            int[][] blocks = {new int[2]};
+            int[][] src = column(srcSize, 8, 0);
+            int[] firstBlock = src[0];
+            assertTrue(BlockAdoption.applies(0, srcSize, 8));
+            int[][] out = BlockAdoption.append(blocks, 0, src, srcSize, 8);
+            for (int k = 0; k < srcSize; k++) {
+                assertEquals(k, out[k / 8][k % 8]);
+            }
+            if (srcSize > 0) {
+                assertTrue(out[0] == firstBlock, "the blocks are taken, not copied");
+            }
+        }
+    }
+
+    @Test
     void smallColumnsAreLeftToThePlainAppend() {
         assertFalse(BlockAdoption.applies(7, 100, 8));
         assertFalse(BlockAdoption.applies(100, 7, 8));

@@ -49,6 +49,7 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
     private final long scanAtLeast;
     private final long splitAtLeast;
     private final Consumer<Boolean> tailEvents;
+    private final Consumer<Boolean> headEvents;
 
     public CircuitReader() {
         this(ReadLimits.DEFAULT);
@@ -68,22 +69,75 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
      * the same either way.
      */
     CircuitReader(ReadLimits limits, long scanAtLeast, long splitAtLeast, Consumer<Boolean> tailEvents) {
+        this(limits, scanAtLeast, splitAtLeast, tailEvents, taken -> { });
+    }
+
+    /** The same; {@code headEvents} hears, for each read that started a first half's reader, whether it was taken. */
+    CircuitReader(ReadLimits limits, long scanAtLeast, long splitAtLeast, Consumer<Boolean> tailEvents,
+            Consumer<Boolean> headEvents) {
         super(limits);
         this.scanAtLeast = scanAtLeast;
         this.splitAtLeast = splitAtLeast;
         this.tailEvents = tailEvents;
+        this.headEvents = headEvents;
+    }
+
+    /**
+     * Reads {@code path}. For a large stored file, both halves of the nodes start to be read on two threads
+     * ({@link NodeArrayHead}, {@link NodeArrayTail}) before the parser is even set up; the parser, reading
+     * the members before the nodes meanwhile, then takes what they read when it finds the nodes array where
+     * they guessed it.
+     */
+    @Override
+    public CircuitDocument read(Path path) throws FormatException {
+        NodeArrayTail tail = null;
+        NodeArrayHead head = null;
+        if (JsonInput.isStored(path) && limits().maxDepth() >= 4) {
+            try (FileChannel ch = FileChannel.open(path, StandardOpenOption.READ)) {
+                long size = ch.size();
+                if (size >= splitAtLeast && scannable(ch, size, scanAtLeast, limits())) {
+                    // from the middle of the whole file: the nodes are most of a large circuit
+                    tail = NodeArrayTail.start(path, size, 0, limits());
+                    head = NodeArrayHead.start(path, size, tail == null ? Long.MAX_VALUE : tail.nodeOffset(), limits());
+                }
+            } catch (IOException e) {
+                // the read itself reports a file it cannot read
+            }
+        }
+        try (JsonInput in = JsonInput.openJson(path, limits())) {
+            CircuitDocument doc = read(in, null, tail, head);
+            if (head != null) {
+                headEvents.accept(head.taken());
+            }
+            return doc;
+        } finally {
+            // when the read never started, or failed, nothing is left running (closing twice is harmless)
+            if (tail != null) {
+                tail.close();
+            }
+            if (head != null) {
+                head.close();
+            }
+        }
     }
 
     @Override
     protected CircuitDocument read(JsonInput in) throws FormatException {
-        return read(in, null);
+        return read(in, null, null, null);
     }
 
-    private CircuitDocument read(JsonInput in, Path sameFile) throws FormatException {
+    private CircuitDocument read(JsonInput in, Path sameFile, NodeArrayTail tail, NodeArrayHead head) throws FormatException {
         try (Pass pass = new Pass(in, limits(), scanAtLeast, splitAtLeast, tailEvents); DeferredNumbers numbers = pass.numbers) {
             pass.sameFile = sameFile;
+            pass.tail = tail;
+            pass.head = head;
             return pass.run();
         }
+    }
+
+    /** Whether the nodes of a stored file of {@code size} bytes, open as {@code ch}, are read by a scanner. */
+    private static boolean scannable(FileChannel ch, long size, long scanAtLeast, ReadLimits limits) throws IOException {
+        return size >= scanAtLeast && size <= limits.maxBytes() && NodeScanner.startsAsUtf8(ch);
     }
 
     /**
@@ -98,7 +152,7 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
      */
     public CircuitDocument readAlongside(InputStream stream, String name, Path sameFile) throws FormatException {
         JsonInput in = JsonInput.fromStream(stream, name, limits());
-        return read(in, sameFile);
+        return read(in, sameFile, null, null);
     }
 
     /** The state of one read. */
@@ -113,6 +167,8 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         /** The document's members before {@code nodes}, in order. */
         private final List<String> membersBefore = new ArrayList<>();
         private NodeArrayTail tail;
+        /** The first half's reader, started with the tail when the file was opened (or {@code null}). */
+        private NodeArrayHead head;
         /** The regular file a stream input reads in order, when the caller says so ({@link #readAlongside}). */
         Path sameFile;
         private final Consumer<Boolean> tailEvents;
@@ -135,7 +191,6 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         }
 
         CircuitDocument run() throws FormatException {
-            startTailEarly();
             in.startDocument("a circuit document");
             // A missing member is reported at the start of the object that lacks it.
             int rootLine = in.line();
@@ -386,6 +441,15 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                 if (size >= splitAtLeast && tail == null) {
                     tail = NodeArrayTail.start(file, size, at, limits);
                 }
+                if (head != null && head.bracketOffset() != at) {
+                    // it guessed another array: dropped unheard
+                    head.close();
+                    head = null;
+                }
+                if (head != null) {
+                    head.meet(tail == null ? Long.MAX_VALUE : tail.nodeOffset());
+                    return takeHead(ch, size, line, column);
+                }
                 NodeScanner scanner = new NodeScanner(ch, at + 1, line, column + 1, limits, table, nodeLocations, size);
                 NodeScanner.End end = scanner.scan(tail == null ? Long.MAX_VALUE : tail.nodeOffset(), true);
                 if (end == NodeScanner.End.MET) {
@@ -408,30 +472,44 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         }
 
         /**
-         * For a large stored file, starts the second half's reader before the document's first member is read,
-         * from a node near the middle of the whole file (the nodes are most of a large circuit): it then reads on
-         * the second core while this thread reads what comes before the nodes, and the scanner's code is
-         * compiled for the nodes first. {@link #scanNodes} keeps it when its node lies after the nodes array's
-         * start, and otherwise drops it unheard and starts one from the middle of what is left.
+         * Takes the nodes the head read from the array's <code>[</code>, at {@code line}, {@code column}, and goes
+         * on from where it stopped as from this thread's own scanner: the tail's nodes when it stopped at
+         * the tail's node, else the parser from the node it left (or the array's end).
+         *
+         * @return as {@link #scanNodes}
          */
-        private void startTailEarly() {
-            Path file = in.storedFile();
-            if (file == null || limits.maxDepth() < 4) {
-                return;
-            }
-            try (FileChannel ch = FileChannel.open(file, StandardOpenOption.READ)) {
-                long size = ch.size();
-                if (size >= splitAtLeast && scannable(ch, size)) {
-                    tail = NodeArrayTail.start(file, size, 0, limits);
+        private int takeHead(FileChannel ch, long size, int line, int column) throws IOException, FormatException {
+            NodeScanner.End end = head.await();
+            int count = head.count();
+            long offset = head.offset();
+            int atLine = head.line(line);
+            int atColumn = head.column(column);
+            table.appendAll(head.table());
+            nodeLocations.appendAll(head.locations(), line, column);
+            head.take();
+            head.close();
+            head = null;
+            if (end == NodeScanner.End.MET) {
+                if (takeTail(count, atLine, atColumn)) {
+                    return -1;
                 }
-            } catch (IOException e) {
-                // the read itself reports a file it cannot read
+                closeTail();
+                NodeScanner scanner = new NodeScanner(ch, offset, atLine, atColumn, limits, table, nodeLocations, size);
+                scanner.countFrom(count);
+                scanner.scan(Long.MAX_VALUE, false);
+                resume(scanner.offset(), scanner.line(), scanner.column());
+                return scanner.count();
             }
+            if (tail != null && offset > tail.nodeOffset()) {
+                closeTail();
+            }
+            resume(offset, atLine, atColumn);
+            return count;
         }
 
         /** Whether the nodes of a stored file of {@code size} bytes, open as {@code ch}, are read by a scanner. */
         private boolean scannable(FileChannel ch, long size) throws IOException {
-            return size >= scanAtLeast && size <= limits.maxBytes() && NodeScanner.startsAsUtf8(ch);
+            return CircuitReader.scannable(ch, size, scanAtLeast, limits);
         }
 
         /**
@@ -568,6 +646,10 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             if (tail != null) {
                 tail.close();
                 tail = null;
+            }
+            if (head != null) {
+                head.close();
+                head = null;
             }
             if (in != first) {
                 in.close();

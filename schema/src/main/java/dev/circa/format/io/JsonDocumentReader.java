@@ -25,7 +25,7 @@ public abstract class JsonDocumentReader<T> {
     }
 
     /** Reads {@code path} ({@code .gz} decompressed, {@code -} for standard input). */
-    public final T read(Path path) throws FormatException {
+    public T read(Path path) throws FormatException {
         try (JsonInput in = JsonInput.openJson(path, limits)) {
             return read(in);
         }

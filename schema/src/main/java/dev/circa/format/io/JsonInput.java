@@ -55,11 +55,19 @@ public final class JsonInput implements AutoCloseable {
     public static JsonInput openJson(Path path, ReadLimits limits) throws FormatException {
         InputStream in = InputFiles.open(path, limits.maxBytes());
         JsonInput input = fromStream(in, InputFiles.displayName(path), limits);
-        if (!InputFiles.isReadOnce(path) && !InputFiles.isGzipName(String.valueOf(path.getFileName()))
-                && Files.isRegularFile(path)) {
+        if (isStored(path)) {
             input.storedFile = path;
         }
         return input;
+    }
+
+    /**
+     * Whether {@code path} is read as stored (a regular file, not gzip, not standard input), so that a
+     * second reader may open it at any byte offset.
+     */
+    static boolean isStored(Path path) {
+        return !InputFiles.isReadOnce(path) && !InputFiles.isGzipName(String.valueOf(path.getFileName()))
+                && Files.isRegularFile(path);
     }
 
     /**

@@ -246,8 +246,14 @@ final class NodeScanner {
      * @param first whether no element of the array has been read yet (the scan starts after its <code>[</code>)
      */
     End scan(long meet, boolean first) {
+        meetAt = meet;
+        return scan(first);
+    }
+
+    /** The same, stopping at the node last given to {@link #meet} (set before the scan starts; moved while it runs). */
+    End scan(boolean first) {
         try {
-            return scanNodes(meet, first);
+            return scanNodes(first);
         } catch (IOException e) {
             // the parser reads on from the node being read, and reports the failure where it meets it
             return back();
@@ -259,7 +265,23 @@ final class NodeScanner {
         stopped = true;
     }
 
-    private End scanNodes(long meet, boolean first) throws IOException {
+    /** The offset of the node a scan stops at ({@link End#MET}); another thread may move it ({@link #meet}). */
+    private volatile long meetAt = Long.MAX_VALUE;
+
+    /**
+     * Makes a scan in progress (on another thread) stop at the node that starts at {@code offset} instead;
+     * a scan already past it reads on to the end of what it can read.
+     */
+    void meet(long offset) {
+        meetAt = offset;
+    }
+
+    /** Counts the nodes of this scan on from {@code nodesBefore} (read by others before it), for the node limit. */
+    void countFrom(int nodesBefore) {
+        count = nodesBefore;
+    }
+
+    private End scanNodes(boolean first) throws IOException {
         boolean atStart = first;
         while (true) {
             setMark();
@@ -282,7 +304,7 @@ final class NodeScanner {
             }
             atStart = false;
             long at = bufStart + pos;
-            if (at == meet) {
+            if (at == meetAt) {
                 return stop(End.MET);
             }
             if (buf[pos] != '{' || count >= limits.maxNodes()) {

@@ -277,6 +277,45 @@ class NodeArrayTailTest {
     }
 
     @Test
+    void firstHalfStartedWhenTheFileIsOpened_takenWhereTheNodesAre_droppedUnheardWhenItGuessedAnotherArray() throws Exception {
+        // both halves start before the parser is set up: the first from the first "nodes": [ in the file
+        AtomicInteger tails = new AtomicInteger();
+        AtomicInteger heads = new AtomicInteger();
+        Path file = dir.resolve("heads.json");
+        Files.writeString(file, circuit(400, ",\n", "", ""));
+        String read = outcome(new CircuitReader(ReadLimits.DEFAULT, ALWAYS, ALWAYS, t -> tails.addAndGet(t ? 100 : 1),
+                h -> heads.addAndGet(h ? 100 : 1)), file);
+        assertEquals(outcome(parserOnly(ReadLimits.DEFAULT), file), read);
+        assertEquals(100, heads.get(), "the first half was taken");
+        assertEquals(100, tails.get(), "the second half was taken");
+        // an extension read first holds a "nodes" array of node-like objects: the first half guesses it, is
+        // dropped unheard when the parser finds the circuit's own nodes elsewhere, and the read is the same
+        String ext = "{\"extensions\": {\"pump_log\": {\"nodes\": [{\"id\": 0, \"sum\": [0], \"weights\": [1]}]}},\n";
+        Path first = dir.resolve("ext-first.json");
+        Files.writeString(first, circuit(400, ",\n", "", "").replaceFirst("\\{", java.util.regex.Matcher.quoteReplacement(ext)));
+        heads.set(0);
+        tails.set(0);
+        read = outcome(new CircuitReader(ReadLimits.DEFAULT, ALWAYS, ALWAYS, t -> tails.addAndGet(t ? 100 : 1),
+                h -> heads.addAndGet(h ? 100 : 1)), first);
+        assertEquals(outcome(parserOnly(ReadLimits.DEFAULT), first), read);
+        assertTrue(Files.readString(first).startsWith("{\"extensions\": {\"pump_log\": {\"nodes\": ["), "the extension comes first");
+        assertEquals(1, heads.get(), "the first half guessed the extension's array and was dropped");
+        assertEquals(100, tails.get(), "the second half was taken");
+        // a node the scanner leaves to the parser early in the first half: the head's nodes before it are
+        // taken, the parser reads on from it and meets the second half as before
+        Path early = dir.resolve("head-left.json");
+        Files.writeString(early, circuit(400, ",\n", "", "").replaceFirst("\"id\": 3,", "\"id\": 3, \"note\": \"checked\","));
+        heads.set(0);
+        tails.set(0);
+        read = outcome(new CircuitReader(ReadLimits.DEFAULT, ALWAYS, ALWAYS, t -> tails.addAndGet(t ? 100 : 1),
+                h -> heads.addAndGet(h ? 100 : 1)), early);
+        assertEquals(outcome(parserOnly(ReadLimits.DEFAULT), early), read);
+        assertTrue(read.contains("UNKNOWN_PROPERTY"), "the unknown property is found: " + read.substring(0, 200));
+        assertEquals(100, heads.get(), "the first half's nodes before the left node were taken");
+        assertEquals(100, tails.get(), "the second half was taken");
+    }
+
+    @Test
     void startedBeforeTheHeader_keptInsideTheNodes_droppedUnheardAndStartedAgainWhenInTheVariables() throws Exception {
         // the second half's reader starts before the first member, at a node near the middle of the whole file
         String plain = circuit(400, ",\n", "", "");
