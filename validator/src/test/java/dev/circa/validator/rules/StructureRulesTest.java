@@ -98,30 +98,29 @@ class StructureRulesTest {
     }
 
     @Test
-    void sumNotDeterministic_zeroWeightChildLeftOut_clean() {
+    void sumNotDeterministic_zeroWeightChildrenLeftOut_clean() {
         // FORMAT.md: at most one positive child at every assignment; a child of weight 0 is never positive
-        String nodes = """
-                {"id": 0, "input": "normal", "var": 0, "mean": 3.1, "sd": 0.2},
-                {"id": 1, "input": "normal", "var": 0, "mean": 2.2, "sd": 0.5},
-                {"id": 2, "sum": [0, 1], "weights": [1.0, 0.0]}""";
-        ValidationReport r = circuit("{\"name\": \"inlet_pressure\", \"type\": \"real\"}", nodes, "{\"name\": \"joint\", \"node\": 2}")
-                .options(ValidationOptions.defaults().withRequire("deterministic")).check();
+        ValidationReport r = pressureSum("[0.0, 1.0, 0.0]").check();
         assertEquals(Verdict.TRUE, r.property(Property.DETERMINISTIC));
     }
 
     @Test
     void sumNotDeterministic_zeroWeightBetweenOverlappingChildren_reported() {
         // the middle child of weight 0 is left out; the first and the last overlap on the whole line
+        ValidationReport r = pressureSum("[0.5, 0.0, 0.5]").expect("/nodes/3", "SumNotDeterministic").check();
+        assertEquals(Verdict.FALSE, r.property(Property.DETERMINISTIC));
+        assertTrue(message(r, "SumNotDeterministic").contains("children 0 and 2"), message(r, "SumNotDeterministic"));
+    }
+
+    /** Three normal inputs of one real variable under sum 3 with {@code weights}; determinism required. */
+    private static RuleTester pressureSum(String weights) {
         String nodes = """
                 {"id": 0, "input": "normal", "var": 0, "mean": 3.1, "sd": 0.2},
                 {"id": 1, "input": "normal", "var": 0, "mean": 2.2, "sd": 0.5},
                 {"id": 2, "input": "normal", "var": 0, "mean": 1.4, "sd": 0.3},
-                {"id": 3, "sum": [0, 1, 2], "weights": [0.5, 0.0, 0.5]}""";
-        ValidationReport r = circuit("{\"name\": \"inlet_pressure\", \"type\": \"real\"}", nodes, "{\"name\": \"joint\", \"node\": 3}")
-                .options(ValidationOptions.defaults().withRequire("deterministic"))
-                .expect("/nodes/3", "SumNotDeterministic").check();
-        assertEquals(Verdict.FALSE, r.property(Property.DETERMINISTIC));
-        assertTrue(message(r, "SumNotDeterministic").contains("children 0 and 2"), message(r, "SumNotDeterministic"));
+                {"id": 3, "sum": [0, 1, 2], "weights": %s}""".formatted(weights);
+        return circuit("{\"name\": \"inlet_pressure\", \"type\": \"real\"}", nodes, "{\"name\": \"joint\", \"node\": 3}")
+                .options(ValidationOptions.defaults().withRequire("deterministic"));
     }
 
     @Test
