@@ -33,6 +33,9 @@ public final class Determinism {
 
     private final Graph g;
     private final Scopes s;
+    private final Parameters facts;
+    /** The position in the facts' sums with a zero weight of the first one not before the sum being decided. */
+    private int zeroAt;
     private final int maxEnumeration;
     private final Box[] box;
     private final byte[] verdict;
@@ -47,6 +50,8 @@ public final class Determinism {
     private final NodeTable table;
     /** The positive children of the sum being decided, in order (reused from sum to sum). */
     private final IntList kids = new IntList();
+    /** Whether every child in {@link #kids} has the very same box object (set by {@link #sumBox}). */
+    private boolean sameBoxes;
     /** Per-kid supports on one variable (reused by {@link #separated}). */
     private Support[] per = new Support[16];
 
@@ -57,9 +62,10 @@ public final class Determinism {
         }
     }
 
-    private Determinism(Graph g, Scopes s, int maxEnumeration) {
+    private Determinism(Graph g, Scopes s, Parameters facts, int maxEnumeration) {
         this.g = g;
         this.s = s;
+        this.facts = facts;
         this.maxEnumeration = maxEnumeration;
         this.table = g.document().nodeTable();
         int n = g.size();
@@ -72,19 +78,26 @@ public final class Determinism {
             } else if (k == Graph.PRODUCT) {
                 box[i] = productBox(i);
             } else {
-                positiveChildren(i);
-                box[i] = sumBox();
-                verdict[i] = decide(i);
-                if (verdict[i] == UNKNOWN) {
-                    unknownSums++;
-                }
+                sum(i);
             }
         }
     }
 
-    /** Decides every sum of a usable graph whose parameters are valid. */
-    public static Determinism of(Graph g, Scopes s, int maxEnumeration) {
-        return new Determinism(g, s, maxEnumeration);
+    /** Sum {@code i}'s box and verdict. */
+    private void sum(int i) {
+        box[i] = positiveChildren(i) ? sameBox() : sumBox();
+        verdict[i] = decide(i);
+        if (verdict[i] == UNKNOWN) {
+            unknownSums++;
+        }
+    }
+
+    /** Decides every sum of a usable graph whose parameters are valid ({@code facts} found no defect). */
+    public static Determinism of(Graph g, Scopes s, Parameters facts, int maxEnumeration) {
+        if (facts.anyProblem()) {
+            throw new IllegalArgumentException("the circuit's parameters have defects");
+        }
+        return new Determinism(g, s, facts, maxEnumeration);
     }
 
     /** Sums proven not deterministic: pairs {sum index, first child index, second child index}. */
@@ -318,28 +331,58 @@ public final class Determinism {
     /** Whether weight {@code j} of sum {@code i} is positive. */
     private boolean positive(int i, int j) {
         NodeTable t = table;
-        double w = t.value(t.valueStart(i) + j);
-        return t.logForm(i) ? w > Double.NEGATIVE_INFINITY : w > 0;
+        return positive(t, t.valueStart(i) + j, t.logForm(i));
     }
 
-    /** Fills {@link #kids} with the children of sum {@code i} whose weight is positive, in order. */
-    private void positiveChildren(int i) {
+    /** Whether the weight at position {@code k} of the table's numbers, a log-weight when {@code log}, is positive. */
+    private static boolean positive(NodeTable t, int k, boolean log) {
+        double x = t.value(k);
+        return log ? x > Double.NEGATIVE_INFINITY : x > 0;
+    }
+
+    /**
+     * Fills {@link #kids} with the children of sum {@code i} whose weight is positive, in order; whether
+     * there is at least one and all have the very same box object (the common case of a sum over the
+     * products of one partition), which {@link #sameBox} then makes the sum's box without another pass.
+     */
+    private boolean positiveChildren(int i) {
         NodeTable t = table;
         int a = g.childStart(i);
         int b = g.childEnd(i);
         int w = t.valueStart(i);
         boolean log = t.logForm(i);
+        // sums are met in index order; one without a zero weight has only positive ones (no defects)
+        while (zeroAt < facts.zeroWeightCount() && facts.zeroWeight(zeroAt) < i) {
+            zeroAt++;
+        }
+        boolean allPositive = zeroAt == facts.zeroWeightCount() || facts.zeroWeight(zeroAt) != i;
         kids.clear();
+        Box first = null;
+        boolean same = true;
         for (int e = a; e < b; e++) {
-            double x = t.value(w + e - a);
-            if (log ? x > Double.NEGATIVE_INFINITY : x > 0) {
-                kids.add(g.child(e));
+            if (allPositive || positive(t, w + e - a, log)) {
+                int c = g.child(e);
+                if (kids.isEmpty()) {
+                    first = box[c];
+                } else {
+                    same &= box[c] == first;
+                }
+                kids.add(c);
             }
         }
+        return same && !kids.isEmpty();
+    }
+
+    /** What {@link #sumBox} gives when every child in {@link #kids} has one and the same box. */
+    private Box sameBox() {
+        Box first = box[kids.get(0)];
+        sameBoxes = first != null;
+        return first;
     }
 
     /** The box of the sum whose positive children are in {@link #kids}. */
     private Box sumBox() {
+        sameBoxes = false;
         Box first = null;
         boolean exact = true;
         boolean allSame = true;
@@ -352,15 +395,20 @@ public final class Determinism {
             }
             if (first == null) {
                 first = c;
-                vars = c.vars.clone();
-                sp = c.sup.clone();
+                vars = c.vars;
+                sp = c.sup;
                 exact = c.exact;
                 continue;
             }
             if (c == first) {
                 continue;
             }
-            allSame = false;
+            if (allSame) {
+                // the first child's arrays are shared: copied only when another box narrows them
+                vars = vars.clone();
+                sp = sp.clone();
+                allSame = false;
+            }
             exact &= c.exact && Arrays.equals(c.vars, first.vars);
             // children over the same variables as those kept so far (the common case) need no search
             boolean aligned = Arrays.equals(c.vars, vars);
@@ -381,6 +429,7 @@ public final class Determinism {
         if (first == null) {
             return new Box(new int[0], new Support[0], false);
         }
+        sameBoxes = allSame;
         if (allSame) {
             return first;
         }
@@ -425,7 +474,37 @@ public final class Determinism {
         if (overlapWitness(i, kids)) {
             return FALSE;
         }
-        return enumerate(i, kids);
+        int[] card = cardinalities(s.vars(i));
+        return card == null ? UNKNOWN : enumerate(i, kids, card);
+    }
+
+    /**
+     * The number of states of each variable of {@code vars} when all are discrete and their assignments
+     * are at most {@code maxEnumeration}; otherwise {@code null} (the sum stays unknown).
+     */
+    private int[] cardinalities(int[] vars) {
+        List<Variable> vs = g.document().variables();
+        long count = 1;
+        int[] card = null;
+        for (int p = 0; p < vars.length; p++) {
+            Variable v = vs.get(vars[p]);
+            if (v.type() != VariableType.BINARY && v.type() != VariableType.CATEGORICAL) {
+                return null;
+            }
+            int states = v.stateCount();
+            if (states <= 0) {
+                return null;
+            }
+            count *= states;
+            if (count > maxEnumeration) {
+                return null;
+            }
+            if (card == null) {
+                card = new int[vars.length];
+            }
+            card[p] = states;
+        }
+        return card == null ? new int[0] : card;
     }
 
     /** Whether on some variable every pair of children's supports is disjoint. */
@@ -434,7 +513,7 @@ public final class Determinism {
         if (b0 == null) {
             return false;
         }
-        for (int k = 0; k < kids.size(); k++) {
+        for (int k = 0; k < kids.size() && !sameBoxes; k++) {
             if (box[kids.get(k)] == null) {
                 return false;
             }
@@ -510,6 +589,10 @@ public final class Determinism {
     /** Looks for two children with exact boxes that overlap with positive measure; records the witness. */
     private boolean overlapWitness(int sum, IntList kids) {
         int k = kids.size();
+        if (sameBoxes) {
+            // every pair has the same two boxes: the first pair, tried first below as well, decides for all
+            return tryPair(sum, kids.get(0), kids.get(1));
+        }
         // all pairs of a small sum; for a large one each child with the first and with its neighbour
         if (k <= 16) {
             for (int x = 0; x < k; x++) {
@@ -613,25 +696,16 @@ public final class Determinism {
         return v.name() + "=" + String.format(Locale.ROOT, "%s", value);
     }
 
-    /** Enumerates the sum's scope when it is discrete and small; all assignments at once, one bit each. */
-    private byte enumerate(int sum, IntList kids) {
+    /**
+     * Enumerates the sum's scope, discrete and small (its variables' numbers of states in {@code card});
+     * all assignments at once, one bit each.
+     */
+    private byte enumerate(int sum, IntList kids, int[] card) {
         int[] vars = s.vars(sum);
         List<Variable> vs = g.document().variables();
         long count = 1;
-        int[] card = new int[vars.length];
-        for (int p = 0; p < vars.length; p++) {
-            Variable v = vs.get(vars[p]);
-            if (v.type() != VariableType.BINARY && v.type() != VariableType.CATEGORICAL) {
-                return UNKNOWN;
-            }
-            card[p] = v.stateCount();
-            if (card[p] <= 0) {
-                return UNKNOWN;
-            }
-            count *= card[p];
-            if (count > maxEnumeration) {
-                return UNKNOWN;
-            }
+        for (int c : card) {
+            count *= c;
         }
         int bits = (int) count;
         int words = (bits + 63) >>> 6;

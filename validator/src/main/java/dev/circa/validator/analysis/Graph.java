@@ -27,6 +27,7 @@ public final class Graph {
     private final byte[] kind;
     private final int[] childStart;
     private final int[] child;
+    /** Id to node index, or {@code null} when every node's id is its index. */
     private final IdIndex index;
     private final int[] outputNode;
 
@@ -62,54 +63,20 @@ public final class Graph {
             throw new IllegalArgumentException("more than 2^31 child references");
         }
         child = new int[(int) edges];
-        int[] ids = new int[n];
-        for (int i = 0; i < n; i++) {
-            ids[i] = t.id(i);
-        }
-        index = new IdIndex(ids);
-        for (int i = 0; i < n; i++) {
-            if (index.putIfAbsent(ids[i], i) >= 0) {
-                duplicateIds.add(i);
-            }
-        }
+        // ids 0..n-1 in order (what most writers produce) are their own node indices: no table needed
+        index = identityIds(t) ? null : index(t);
         int nv = doc.variables().size();
         int e = 0;
         for (int i = 0; i < n; i++) {
-            byte k = t.kind(i);
             childStart[i] = e;
-            if (k == NodeTable.INPUT) {
-                kind[i] = INPUT;
-                checkInput(i, t, nv);
-                continue;
-            }
-            kind[i] = k == NodeTable.SUM ? SUM : PRODUCT;
-            int a = t.childStart(i);
-            int b = t.childEnd(i);
-            if (a == b) {
-                childless.add(i);
-            }
-            for (int j = a; j < b; j++) {
-                int c = index.get(t.childId(j));
-                if (c < 0) {
-                    missingChildren.add(i);
-                    missingChildren.add(j - a);
-                } else if (c >= i) {
-                    laterChildren.add(i);
-                    laterChildren.add(j - a);
-                    c = -1;
-                }
-                child[e++] = c;
-            }
-            if (k == NodeTable.SUM && t.valueEnd(i) - t.valueStart(i) != b - a) {
-                weightCounts.add(i);
-            }
+            e = resolve(t, i, e, nv);
         }
         childStart[n] = e;
         List<Output> outs = doc.outputs();
         outputNode = new int[outs.size()];
         Map<String, Integer> names = new HashMap<>();
         for (int o = 0; o < outs.size(); o++) {
-            outputNode[o] = index.get(outs.get(o).node());
+            outputNode[o] = indexOfId(outs.get(o).node());
             if (outputNode[o] < 0) {
                 missingOutputs.add(o);
             }
@@ -117,6 +84,64 @@ public final class Graph {
                 duplicateOutputNames.add(o);
             }
         }
+    }
+
+    /** Whether node {@code i}'s id is {@code i} for every node. */
+    private static boolean identityIds(NodeTable t) {
+        int n = t.size();
+        for (int i = 0; i < n; i++) {
+            if (t.id(i) != i) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    /** The id to index table of ids that are not all their own index; records the repeated ones. */
+    private IdIndex index(NodeTable t) {
+        int[] ids = new int[n];
+        for (int i = 0; i < n; i++) {
+            ids[i] = t.id(i);
+        }
+        IdIndex index = new IdIndex(ids);
+        for (int i = 0; i < n; i++) {
+            if (index.putIfAbsent(ids[i], i) >= 0) {
+                duplicateIds.add(i);
+            }
+        }
+        return index;
+    }
+
+    /** Resolves node {@code i}, whose child references start at {@code e}; returns where the next node's start. */
+    private int resolve(NodeTable t, int i, int e, int nv) {
+        byte k = t.kind(i);
+        if (k == NodeTable.INPUT) {
+            kind[i] = INPUT;
+            checkInput(i, t, nv);
+            return e;
+        }
+        kind[i] = k == NodeTable.SUM ? SUM : PRODUCT;
+        int a = t.childStart(i);
+        int b = t.childEnd(i);
+        if (a == b) {
+            childless.add(i);
+        }
+        for (int j = a; j < b; j++) {
+            int c = indexOfId(t.childId(j));
+            if (c < 0) {
+                missingChildren.add(i);
+                missingChildren.add(j - a);
+            } else if (c >= i) {
+                laterChildren.add(i);
+                laterChildren.add(j - a);
+                c = -1;
+            }
+            child[e++] = c;
+        }
+        if (k == NodeTable.SUM && t.valueEnd(i) - t.valueStart(i) != b - a) {
+            weightCounts.add(i);
+        }
+        return e;
     }
 
     private void checkInput(int i, NodeTable t, int nv) {
@@ -195,6 +220,9 @@ public final class Graph {
 
     /** The node index of {@code id}, or -1. */
     public int indexOfId(int id) {
+        if (index == null) {
+            return id >= 0 && id < n ? id : -1;
+        }
         return index.get(id);
     }
 

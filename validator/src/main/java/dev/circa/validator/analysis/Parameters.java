@@ -2,6 +2,7 @@ package dev.circa.validator.analysis;
 
 import dev.circa.engine.family.ParameterLimits;
 import dev.circa.engine.family.ParameterLimits.Limit;
+import dev.circa.engine.internal.IntList;
 import dev.circa.format.CircuitDocument;
 import dev.circa.format.Family;
 import dev.circa.format.InputNode;
@@ -19,21 +20,24 @@ import org.ejml.dense.row.decomposition.chol.CholeskyDecompositionInner_DDRM;
  * about how the defects are reported: each parameter rule asks these facts and words its own diagnostics.
  */
 public final class Parameters {
-    private final boolean[] bad;
-    private final boolean anyBad;
-    private final double[] weightTotal;
+    /** Nodes with a defect, in index order. */
+    private final IntList defective = new IntList();
+    /** Sums whose weights are finite but add to a total farther than the tolerance from 1, in index order. */
+    private final IntList offOne = new IntList();
+    /** The weight total of each sum of {@link #offOne}. */
+    private double[] offOneTotal = new double[16];
+    /** Sums with a linear weight of 0 (a child that adds nothing), in index order. */
+    private final IntList zeroWeight = new IntList();
 
     private Parameters(CircuitDocument doc, double tol) {
         NodeTable t = doc.nodeTable();
-        bad = new boolean[t.size()];
-        weightTotal = new double[t.size()];
-        boolean any = false;
-        for (int i = 0; i < t.size(); i++) {
+        int n = t.size();
+        for (int i = 0; i < n; i++) {
             byte k = t.kind(i);
-            bad[i] = k == NodeTable.INPUT ? !soundInput(doc, t, i, tol) : k == NodeTable.SUM && !soundSum(t, i);
-            any |= bad[i];
+            if (k == NodeTable.INPUT ? !soundInput(doc, t, i, tol) : k == NodeTable.SUM && !soundSum(t, i, tol)) {
+                defective.add(i);
+            }
         }
-        anyBad = any;
     }
 
     /** The facts of every node of {@code doc} with tolerance {@code tol}. */
@@ -43,33 +47,77 @@ public final class Parameters {
 
     /** Whether some node has a defect (then supports and partition functions are not computed). */
     public boolean anyProblem() {
-        return anyBad;
+        return !defective.isEmpty();
     }
 
-    /** Whether node {@code i} has a defect. */
-    public boolean bad(int i) {
-        return bad[i];
+    /** The number of nodes with a defect. */
+    public int defectCount() {
+        return defective.size();
+    }
+
+    /** The index of the {@code k}-th node with a defect (in index order): rules about defects visit only these. */
+    public int defect(int k) {
+        return defective.get(k);
     }
 
     /**
-     * The total of sum {@code i}'s weights (of exp(logWeights) in log form), added in their order; NaN
-     * or infinite when one is not finite. 0 for other nodes.
+     * The number of sums with at least one weight whose total (of exp(logWeights) in log form, added
+     * in their order) is not within the tolerance of 1 and not NaN.
      */
-    public double weightTotal(int i) {
-        return weightTotal[i];
+    public int offOneCount() {
+        return offOne.size();
     }
 
-    /** Whether sum {@code i}'s weights are all finite (and >= 0 in linear form); records their total on the way. */
-    private boolean soundSum(NodeTable t, int i) {
+    /** The index of the {@code k}-th sum counted by {@link #offOneCount()} (in index order). */
+    public int offOne(int k) {
+        return offOne.get(k);
+    }
+
+    /** The weight total of the {@code k}-th sum counted by {@link #offOneCount()}. */
+    public double offOneTotal(int k) {
+        return offOneTotal[k];
+    }
+
+    /**
+     * The number of sums with a linear weight equal to 0. When no node has a defect, every other sum's
+     * children all have a positive weight (linear weights finite and >= 0, log-weights finite).
+     */
+    public int zeroWeightCount() {
+        return zeroWeight.size();
+    }
+
+    /** The index of the {@code k}-th sum counted by {@link #zeroWeightCount()} (in index order). */
+    public int zeroWeight(int k) {
+        return zeroWeight.get(k);
+    }
+
+    /**
+     * Whether sum {@code i}'s weights are all finite (and >= 0 in linear form); records the sum when its
+     * weights' total is off 1 by more than {@code tol}.
+     */
+    private boolean soundSum(NodeTable t, int i, double tol) {
         boolean log = t.logForm(i);
         boolean sound = true;
+        boolean zero = false;
         double total = 0;
-        for (int k = t.valueStart(i); k < t.valueEnd(i); k++) {
+        int a = t.valueStart(i);
+        int b = t.valueEnd(i);
+        for (int k = a; k < b; k++) {
             double w = t.value(k);
             sound &= Double.isFinite(w) && (log || w >= 0);
+            zero |= !log && w == 0;
             total += log ? Math.exp(w) : w;
         }
-        weightTotal[i] = total;
+        if (zero) {
+            zeroWeight.add(i);
+        }
+        if (b > a && !(Math.abs(total - 1) <= tol || Double.isNaN(total))) {
+            if (offOne.size() == offOneTotal.length) {
+                offOneTotal = java.util.Arrays.copyOf(offOneTotal, offOneTotal.length * 2);
+            }
+            offOneTotal[offOne.size()] = total;
+            offOne.add(i);
+        }
         return sound;
     }
 

@@ -25,6 +25,10 @@ public final class Scopes {
     private final Map<ScopeTable.Key, Decomposition> decompositions = new HashMap<>();
     private final List<Decomposition> decompositionList = new ArrayList<>();
     private final Map<ScopeTable.Key, Integer> sumUnions = new HashMap<>();
+    /** The scope id of each single variable, or -1 until first met. */
+    private final int[] single;
+    /** The children's scopes of the sum being looked at (reused from sum to sum). */
+    private int[] buf = new int[16];
     private Decomposition lastPair;
     private int lastS0;
     private int lastS1;
@@ -45,98 +49,112 @@ public final class Scopes {
         int n = g.size();
         scope = new int[n];
         depth = new int[n];
-        int nv = g.document().variables().size();
-        int[] single = new int[nv];
+        single = new int[g.document().variables().size()];
         Arrays.fill(single, -1);
-        int[] buf = new int[16];
+        NodeTable t = g.document().nodeTable();
+        // node by node in small steps (one per kind), so that each is compiled on its own early
         for (int i = 0; i < n; i++) {
             byte k = g.kind(i);
             if (k == Graph.INPUT) {
-                NodeTable t = g.document().nodeTable();
-                int va = t.varStart(i);
-                int vb = t.varEnd(i);
-                if (vb - va == 1) {
-                    int x = t.var(va);
-                    if (single[x] < 0) {
-                        single[x] = table.intern(new int[] {x});
-                    }
-                    scope[i] = single[x];
-                } else {
-                    int[] s = new int[vb - va];
-                    for (int p = va; p < vb; p++) {
-                        s[p - va] = t.var(p);
-                    }
-                    Arrays.sort(s);
-                    scope[i] = table.intern(dedupe(s));
-                }
-                continue;
-            }
-            int a = g.childStart(i);
-            int b = g.childEnd(i);
-            int d = 0;
-            for (int e = a; e < b; e++) {
-                d = Math.max(d, depth[g.child(e)] + 1);
-            }
-            depth[i] = d;
-            if (b - a == 1) {
-                scope[i] = scope[g.child(a)];
-                if (k == Graph.PRODUCT) {
-                    decomposition(i, new int[] {scope[i]});
-                }
-                continue;
-            }
-            if (k == Graph.SUM) {
-                int first = scope[g.child(a)];
-                boolean same = true;
-                for (int e = a + 1; e < b && same; e++) {
-                    same = scope[g.child(e)] == first;
-                }
-                if (same) {
-                    scope[i] = first;
-                } else {
-                    nonSmooth.add(i);
-                    if (buf.length < b - a) {
-                        buf = new int[b - a];
-                    }
-                    for (int e = a; e < b; e++) {
-                        buf[e - a] = scope[g.child(e)];
-                    }
-                    int[] key = Arrays.copyOf(buf, b - a);
-                    Arrays.sort(key);
-                    ScopeTable.Key kk = new ScopeTable.Key(key);
-                    Integer u = sumUnions.get(kk);
-                    if (u == null) {
-                        u = table.intern(union(key, false));
-                        sumUnions.put(kk, u);
-                    }
-                    scope[i] = u;
-                }
+                scope[i] = inputScope(t, i);
+            } else if (k == Graph.SUM) {
+                scope[i] = sumScope(i);
             } else {
-                Decomposition dc;
-                int s0 = scope[g.child(a)];
-                int s1 = b - a == 2 ? scope[g.child(a + 1)] : -1;
-                if (b - a == 2 && lastPair != null && s0 == lastS0 && s1 == lastS1) {
-                    // a partition's cross product: runs of products over the same pair of scopes
-                    dc = lastPair;
-                } else {
-                    int[] key = new int[b - a];
-                    for (int e = a; e < b; e++) {
-                        key[e - a] = scope[g.child(e)];
-                    }
-                    Arrays.sort(key);
-                    dc = decomposition(i, key);
-                    if (b - a == 2) {
-                        lastPair = dc;
-                        lastS0 = s0;
-                        lastS1 = s1;
-                    }
-                }
-                scope[i] = dc.scope;
-                if (dc.overlap) {
-                    overlapping.add(i);
-                }
+                scope[i] = productScope(i);
             }
         }
+    }
+
+    /** The scope of input {@code i}: its variables, sorted and without repeats. */
+    private int inputScope(NodeTable t, int i) {
+        int va = t.varStart(i);
+        int vb = t.varEnd(i);
+        if (vb - va == 1) {
+            int x = t.var(va);
+            if (single[x] < 0) {
+                single[x] = table.intern(new int[] {x});
+            }
+            return single[x];
+        }
+        int[] s = new int[vb - va];
+        for (int p = va; p < vb; p++) {
+            s[p - va] = t.var(p);
+        }
+        Arrays.sort(s);
+        return table.intern(dedupe(s));
+    }
+
+    /** The scope of sum {@code i} (its depth on the way), recording it when its children's scopes differ. */
+    private int sumScope(int i) {
+        int a = g.childStart(i);
+        int b = g.childEnd(i);
+        int first = scope[g.child(a)];
+        boolean same = true;
+        int d = 0;
+        for (int e = a; e < b; e++) {
+            int c = g.child(e);
+            d = Math.max(d, depth[c] + 1);
+            same &= scope[c] == first;
+        }
+        depth[i] = d;
+        if (same) {
+            return first;
+        }
+        nonSmooth.add(i);
+        if (buf.length < b - a) {
+            buf = new int[b - a];
+        }
+        for (int e = a; e < b; e++) {
+            buf[e - a] = scope[g.child(e)];
+        }
+        int[] key = Arrays.copyOf(buf, b - a);
+        Arrays.sort(key);
+        ScopeTable.Key kk = new ScopeTable.Key(key);
+        Integer u = sumUnions.get(kk);
+        if (u == null) {
+            u = table.intern(union(key, false));
+            sumUnions.put(kk, u);
+        }
+        return u;
+    }
+
+    /** The scope of product {@code i} (its depth on the way), recording it when its children's scopes overlap. */
+    private int productScope(int i) {
+        int a = g.childStart(i);
+        int b = g.childEnd(i);
+        int d = 0;
+        for (int e = a; e < b; e++) {
+            d = Math.max(d, depth[g.child(e)] + 1);
+        }
+        depth[i] = d;
+        if (b - a == 1) {
+            int only = scope[g.child(a)];
+            decomposition(i, new int[] {only});
+            return only;
+        }
+        Decomposition dc;
+        int s0 = scope[g.child(a)];
+        int s1 = b - a == 2 ? scope[g.child(a + 1)] : -1;
+        if (b - a == 2 && lastPair != null && s0 == lastS0 && s1 == lastS1) {
+            // a partition's cross product: runs of products over the same pair of scopes
+            dc = lastPair;
+        } else {
+            int[] key = new int[b - a];
+            for (int e = a; e < b; e++) {
+                key[e - a] = scope[g.child(e)];
+            }
+            Arrays.sort(key);
+            dc = decomposition(i, key);
+            if (b - a == 2) {
+                lastPair = dc;
+                lastS0 = s0;
+                lastS1 = s1;
+            }
+        }
+        if (dc.overlap) {
+            overlapping.add(i);
+        }
+        return dc.scope;
     }
 
     private Decomposition decomposition(int node, int[] sortedParts) {

@@ -34,7 +34,6 @@ public final class TreeFinder {
 
     /** Finds the variable tree of a decomposable circuit, or a product no tree fits. */
     public static Result find(Graph g, Scopes s) {
-        int nv = g.document().variables().size();
         ScopeTable t = s.table();
         Map<Integer, Integer> exampleOf = new HashMap<>();
         for (Scopes.Decomposition d : s.decompositions()) {
@@ -43,7 +42,31 @@ public final class TreeFinder {
             }
             exampleOf.putIfAbsent(d.scope(), d.example());
         }
-        // Tree nodes: product scopes of two or more variables, largest first.
+        List<Integer> sets = treeSets(t, exampleOf);
+        int nv = g.document().variables().size();
+        int m = sets.size();
+        // tree node numbering: 0 = root (all variables) unless a set equals it; sets 1..m; leaves after.
+        int[] owner = new int[nv];
+        int[] parent = new int[m + 1];
+        int[] nodeOfScope = new int[t.size()];
+        Arrays.fill(nodeOfScope, -1);
+        Result crossing = nest(g, t, sets, exampleOf, owner, parent, nodeOfScope);
+        if (crossing != null) {
+            return crossing;
+        }
+        IntList[] kids = kids(m, nv, owner, parent);
+        Result split = checkSplits(g, s, sets, exampleOf, nodeOfScope, kids, m + 1);
+        if (split != null) {
+            return split;
+        }
+        if (nv == 0) {
+            return new Result(null, -1, "the circuit has no variables");
+        }
+        return new Result(build(t, sets, kids, nv), -1, null);
+    }
+
+    /** Tree nodes: the product scopes of two or more variables, largest first. */
+    private static List<Integer> treeSets(ScopeTable t, Map<Integer, Integer> exampleOf) {
         List<Integer> sets = new ArrayList<>();
         for (Integer sc : exampleOf.keySet()) {
             if (t.vars(sc).length >= 2) {
@@ -54,13 +77,17 @@ public final class TreeFinder {
             int c = Integer.compare(t.vars(y).length, t.vars(x).length);
             return c != 0 ? c : Integer.compare(t.vars(x)[0], t.vars(y)[0]);
         });
-        int m = sets.size();
-        // tree node numbering: 0 = root (all variables) unless a set equals it; sets 1..m; leaves after.
-        int[] owner = new int[nv];
-        int[] parent = new int[m + 1];
-        int[] nodeOfScope = new int[t.size()];
-        Arrays.fill(nodeOfScope, -1);
-        for (int k = 0; k < m; k++) {
+        return sets;
+    }
+
+    /**
+     * Places each set under the smallest set before it that holds it (its {@code parent}; 0, the root,
+     * when none does), with {@code owner} the innermost set of each variable so far; the product of a set
+     * that crosses an earlier one, or {@code null}.
+     */
+    private static Result nest(Graph g, ScopeTable t, List<Integer> sets, Map<Integer, Integer> exampleOf, int[] owner,
+            int[] parent, int[] nodeOfScope) {
+        for (int k = 0; k < sets.size(); k++) {
             int sc = sets.get(k);
             int[] v = t.vars(sc);
             int node = k + 1;
@@ -68,14 +95,7 @@ public final class TreeFinder {
             int p = owner[v[0]];
             for (int x : v) {
                 if (owner[x] != p) {
-                    int q = owner[x];
-                    int crossing = p == 0 ? q : q == 0 ? p
-                            : t.vars(sets.get(p - 1)).length <= t.vars(sets.get(q - 1)).length ? p : q;
-                    return new Result(null, exampleOf.get(sc), String.format(java.util.Locale.ROOT,
-                            "has the scope %s, which crosses the scope %s of product %d: neither holds the other, so they "
-                                    + "cannot both be nodes of one variable tree",
-                            Arrays.toString(v), Arrays.toString(t.vars(sets.get(crossing - 1))),
-                            g.id(exampleOf.get(sets.get(crossing - 1)))));
+                    return crossing(g, t, sets, exampleOf, sc, p, owner[x]);
                 }
             }
             parent[node] = p;
@@ -83,9 +103,23 @@ public final class TreeFinder {
                 owner[x] = node;
             }
         }
-        // Children lists of inner nodes: sets by parent, variables by final owner.
+        return null;
+    }
+
+    private static Result crossing(Graph g, ScopeTable t, List<Integer> sets, Map<Integer, Integer> exampleOf, int sc, int p,
+            int q) {
+        int crossing = p == 0 ? q : q == 0 ? p
+                : t.vars(sets.get(p - 1)).length <= t.vars(sets.get(q - 1)).length ? p : q;
+        return new Result(null, exampleOf.get(sc), String.format(java.util.Locale.ROOT,
+                "has the scope %s, which crosses the scope %s of product %d: neither holds the other, so they "
+                        + "cannot both be nodes of one variable tree",
+                Arrays.toString(t.vars(sc)), Arrays.toString(t.vars(sets.get(crossing - 1))),
+                g.id(exampleOf.get(sets.get(crossing - 1)))));
+    }
+
+    /** Children lists of the root and the sets: sets by parent, variables (leaf m + 1 + x) by final owner. */
+    private static IntList[] kids(int m, int nv, int[] owner, int[] parent) {
         int leafBase = m + 1;
-        int total = leafBase + nv;
         IntList[] kids = new IntList[m + 1];
         for (int i = 0; i <= m; i++) {
             kids[i] = new IntList();
@@ -96,72 +130,91 @@ public final class TreeFinder {
         for (int x = 0; x < nv; x++) {
             kids[owner[x]].add(leafBase + x);
         }
-        // Every split must keep each child of its tree node inside one part.
-        int[] label = new int[nv];
+        return kids;
+    }
+
+    /** The first split that cuts a child of its tree node (no tree has both), or {@code null}. */
+    private static Result checkSplits(Graph g, Scopes s, List<Integer> sets, Map<Integer, Integer> exampleOf,
+            int[] nodeOfScope, IntList[] kids, int leafBase) {
+        ScopeTable t = s.table();
+        int[] label = new int[g.document().variables().size()];
         Arrays.fill(label, -1);
         for (Scopes.Decomposition d : s.decompositions()) {
-            int[] sv = t.vars(d.scope());
-            if (sv.length < 2) {
+            if (t.vars(d.scope()).length < 2) {
                 continue;
             }
-            int node = nodeOfScope[d.scope()];
-            for (int p = 0; p < d.parts().length; p++) {
-                for (int x : t.vars(d.parts()[p])) {
-                    label[x] = p;
-                }
+            int kv = cutChild(t, d, sets, kids[nodeOfScope[d.scope()]], leafBase, label);
+            if (kv >= 0) {
+                return new Result(null, d.example(), String.format(java.util.Locale.ROOT,
+                        "splits the variables %s, which product %d keeps together as its "
+                                + "scope, so no variable tree has both",
+                        Arrays.toString(t.vars(sets.get(kv - 1))), g.id(exampleOf.get(sets.get(kv - 1)))));
             }
-            IntList ks = kids[node];
-            for (int c = 0; c < ks.size(); c++) {
-                int kid = ks.get(c);
-                if (kid >= leafBase) {
-                    continue;
-                }
-                int[] kv = t.vars(sets.get(kid - 1));
-                int l = label[kv[0]];
-                for (int x : kv) {
-                    if (label[x] != l) {
-                        return new Result(null, d.example(), String.format(java.util.Locale.ROOT,
-                                "splits the variables %s, which product %d keeps together as its "
-                                        + "scope, so no variable tree has both",
-                                Arrays.toString(kv), g.id(exampleOf.get(sets.get(kid - 1)))));
-                    }
+        }
+        return null;
+    }
+
+    /** The first set among {@code ks} whose variables {@code d}'s parts do not keep in one part, or -1. */
+    private static int cutChild(ScopeTable t, Scopes.Decomposition d, List<Integer> sets, IntList ks, int leafBase, int[] label) {
+        for (int p = 0; p < d.parts().length; p++) {
+            for (int x : t.vars(d.parts()[p])) {
+                label[x] = p;
+            }
+        }
+        for (int c = 0; c < ks.size(); c++) {
+            int kid = ks.get(c);
+            if (kid >= leafBase) {
+                continue;
+            }
+            int[] kv = t.vars(sets.get(kid - 1));
+            int l = label[kv[0]];
+            for (int x : kv) {
+                if (label[x] != l) {
+                    return kid;
                 }
             }
         }
-        // Build the tree: drop a root with a single child (it is that child).
+        return -1;
+    }
+
+    /** The tree, children ordered by their smallest variable; a root with a single child is that child. */
+    private static VariableTree build(ScopeTable t, List<Integer> sets, IntList[] kids, int nv) {
+        int m = sets.size();
+        int leafBase = m + 1;
+        int total = leafBase + nv;
         int[][] children = new int[total][];
         int[] leafVar = new int[total];
         Arrays.fill(leafVar, -1);
-        int[] minVar = new int[total];
         for (int x = 0; x < nv; x++) {
             children[leafBase + x] = new int[0];
             leafVar[leafBase + x] = x;
-            minVar[leafBase + x] = x;
         }
         for (int k = 0; k <= m; k++) {
-            int[] c = kids[k].toArray();
-            children[k] = c;
-            minVar[k] = k == 0 ? 0 : t.vars(sets.get(k - 1))[0];
-        }
-        for (int k = 0; k <= m; k++) {
-            Integer[] boxed = Arrays.stream(children[k]).boxed().toArray(Integer[]::new);
-            Arrays.sort(boxed, (x, y) -> Integer.compare(minVar[x], minVar[y]));
-            for (int i = 0; i < boxed.length; i++) {
-                children[k][i] = boxed[i];
-            }
+            children[k] = byFirstVariable(t, sets, kids[k], leafBase);
         }
         int root = 0;
         while (root < total && leafVar[root] < 0 && children[root].length == 1) {
             root = children[root][0];
         }
-        if (nv == 0) {
-            return new Result(null, -1, "the circuit has no variables");
+        return new VariableTree(children, leafVar, root);
+    }
+
+    /**
+     * The tree nodes {@code ks} sorted by their smallest variable (distinct: siblings hold disjoint
+     * variables), each packed with it into one long so that a primitive sort orders them.
+     */
+    private static int[] byFirstVariable(ScopeTable t, List<Integer> sets, IntList ks, int leafBase) {
+        long[] keyed = new long[ks.size()];
+        for (int c = 0; c < keyed.length; c++) {
+            int kid = ks.get(c);
+            int first = kid >= leafBase ? kid - leafBase : t.vars(sets.get(kid - 1))[0];
+            keyed[c] = ((long) first << 32) | kid;
         }
-        for (int k = 0; k < total; k++) {
-            if (children[k] == null) {
-                children[k] = new int[0];
-            }
+        Arrays.sort(keyed);
+        int[] out = new int[keyed.length];
+        for (int c = 0; c < keyed.length; c++) {
+            out[c] = (int) keyed[c];
         }
-        return new Result(new VariableTree(children, leafVar, root), -1, null);
+        return out;
     }
 }

@@ -12,11 +12,11 @@ import java.util.Locale;
 public final class CategoricalLengthMismatch extends Rule {
     @Override
     public void check(RuleContext ctx) {
-        int count = ctx.document().nodeTable().size();
         Parameters facts = ctx.parameters();
-        for (int i = 0; i < count; i++) {
+        for (int k = 0; k < facts.defectCount(); k++) {
+            int i = facts.defect(k);
             // an input without a defect passes (the facts judged every input once, with the same tolerance)
-            if (facts.bad(i) && ctx.family(i) == Family.CATEGORICAL && ctx.input(i) instanceof InputNode in
+            if (ctx.family(i) == Family.CATEGORICAL && ctx.input(i) instanceof InputNode in
                     && Parameters.firstNonFinite(in) < 0) {
                 Variable var = Parameters.variable(ctx.document(), in);
                 if (Parameters.lengthMismatch(in, var) && !ctx.skip(this, severity())) {

@@ -11,11 +11,11 @@ import java.util.Locale;
 public final class CovarianceNotPositiveDefinite extends Rule {
     @Override
     public void check(RuleContext ctx) {
-        int count = ctx.document().nodeTable().size();
         Parameters facts = ctx.parameters();
-        for (int i = 0; i < count; i++) {
+        for (int k = 0; k < facts.defectCount(); k++) {
+            int i = facts.defect(k);
             // an input without a defect passes (the facts judged every input once, with the same tolerance)
-            if (facts.bad(i) && ctx.family(i) == Family.MVNORMAL && ctx.input(i) instanceof InputNode in && Parameters.firstNonFinite(in) < 0
+            if (ctx.family(i) == Family.MVNORMAL && ctx.input(i) instanceof InputNode in && Parameters.firstNonFinite(in) < 0
                     && Parameters.asymmetry(in, ctx.options().tolerance()) == null && !Parameters.positiveDefinite(in)
                     && !ctx.skip(this, severity())) {
                 ctx.atNode(this, severity(), i, "cov", String.format(Locale.ROOT, "covariance of mvnormal node %d is "

@@ -12,11 +12,11 @@ import java.util.Locale;
 public final class CovarianceNotSymmetric extends Rule {
     @Override
     public void check(RuleContext ctx) {
-        int count = ctx.document().nodeTable().size();
         Parameters facts = ctx.parameters();
-        for (int i = 0; i < count; i++) {
+        for (int k = 0; k < facts.defectCount(); k++) {
+            int i = facts.defect(k);
             // an input without a defect passes (the facts judged every input once, with the same tolerance)
-            if (facts.bad(i) && ctx.family(i) == Family.MVNORMAL && ctx.input(i) instanceof InputNode in && Parameters.firstNonFinite(in) < 0) {
+            if (ctx.family(i) == Family.MVNORMAL && ctx.input(i) instanceof InputNode in && Parameters.firstNonFinite(in) < 0) {
                 double tol = ctx.options().tolerance();
                 int[] rc = Parameters.asymmetry(in, tol);
                 if (rc != null && !ctx.skip(this, severity())) {

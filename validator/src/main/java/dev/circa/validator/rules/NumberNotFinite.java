@@ -13,11 +13,9 @@ public final class NumberNotFinite extends Rule {
     public void check(RuleContext ctx) {
         NodeTable t = ctx.document().nodeTable();
         Parameters facts = ctx.parameters();
-        for (int i = 0; i < t.size(); i++) {
-            if (!facts.bad(i)) {
-                // every number of a node without a defect is finite
-                continue;
-            }
+        // every number of a node without a defect is finite
+        for (int d = 0; d < facts.defectCount(); d++) {
+            int i = facts.defect(d);
             if (t.kind(i) == NodeTable.INPUT && ctx.input(i) instanceof InputNode in) {
                 int k = Parameters.firstNonFinite(in);
                 if (k >= 0) {

@@ -15,11 +15,11 @@ import java.util.Locale;
 public final class ParameterOutOfRange extends Rule {
     @Override
     public void check(RuleContext ctx) {
-        int count = ctx.document().nodeTable().size();
         Parameters facts = ctx.parameters();
-        for (int i = 0; i < count; i++) {
+        for (int k = 0; k < facts.defectCount(); k++) {
+            int i = facts.defect(k);
             // an input without a defect has every parameter in range
-            if (facts.bad(i) && ctx.family(i) != null && ctx.family(i) != Family.MVNORMAL && ctx.input(i) instanceof InputNode in && Parameters.firstNonFinite(in) < 0) {
+            if (ctx.family(i) != null && ctx.family(i) != Family.MVNORMAL && ctx.input(i) instanceof InputNode in && Parameters.firstNonFinite(in) < 0) {
                 if (in.family() == Family.CATEGORICAL) {
                     negativeProbabilities(ctx, i, in);
                 } else {

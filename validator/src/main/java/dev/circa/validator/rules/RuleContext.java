@@ -131,13 +131,15 @@ public final class RuleContext {
             return;
         }
         prepared = true;
-        // on two cores: the parameter facts beside the references and scopes, then the variable tree
-        // and log Z beside determinism (each analysis only reads those it depends on, all computed before)
+        // on two cores: the parameter facts beside the references, then reachability beside the scopes,
+        // then the variable tree and log Z beside determinism (each analysis only reads those it depends
+        // on, all computed before its task is handed over)
         CompletableFuture<Void> facts = CompletableFuture.runAsync(this::parameters);
         graph();
+        CompletableFuture<Void> reach = facts.thenRunAsync(this::reachable);
         scopes();
         join(facts);
-        CompletableFuture<Void> treeAndZ = CompletableFuture.runAsync(() -> {
+        CompletableFuture<Void> treeAndZ = reach.thenRunAsync(() -> {
             tree();
             logPartition();
         });
@@ -190,7 +192,7 @@ public final class RuleContext {
             determinismDone = true;
             determinism = scopes() != null && !parameters().anyProblem() && graph().familyTypes.isEmpty()
                     && graph().repeatedVars.isEmpty()
-                    ? Determinism.of(graph(), scopes(), options.maxEnumeration()) : null;
+                    ? Determinism.of(graph(), scopes(), parameters(), options.maxEnumeration()) : null;
         }
         return determinism;
     }

@@ -13,9 +13,10 @@ public final class WeightNegative extends Rule {
     public void check(RuleContext ctx) {
         NodeTable t = ctx.document().nodeTable();
         Parameters facts = ctx.parameters();
-        for (int i = 0; i < t.size(); i++) {
-            // a sum without a defect has no negative weight
-            if (t.kind(i) == NodeTable.SUM && !t.logForm(i) && facts.bad(i)) {
+        // a sum without a defect has no negative weight
+        for (int d = 0; d < facts.defectCount(); d++) {
+            int i = facts.defect(d);
+            if (t.kind(i) == NodeTable.SUM && !t.logForm(i)) {
                 int a = t.valueStart(i);
                 for (int k = a; k < t.valueEnd(i); k++) {
                     double w = t.value(k);

@@ -2,7 +2,6 @@ package dev.circa.validator.rules;
 
 import dev.circa.format.NodeTable;
 import dev.circa.validator.Severity;
-import dev.circa.validator.analysis.Graph;
 import dev.circa.validator.analysis.Numbers;
 import dev.circa.validator.analysis.Parameters;
 import java.util.Locale;
@@ -12,20 +11,15 @@ import java.util.Locale;
 public final class WeightsNotNormalized extends Rule {
     @Override
     public void check(RuleContext ctx) {
-        Graph g = ctx.graph();
         double tol = ctx.options().tolerance();
         Severity sev = null;
         NodeTable t = ctx.document().nodeTable();
         Parameters facts = ctx.parameters();
-        for (int i = 0; i < g.size(); i++) {
-            if (t.kind(i) != NodeTable.SUM || t.valueEnd(i) == t.valueStart(i)) {
-                continue;
-            }
+        // the facts recorded, once and with the same tolerance, the sums whose total is off 1
+        for (int k = 0; k < facts.offOneCount(); k++) {
+            int i = facts.offOne(k);
             boolean log = t.logForm(i);
-            double sum = facts.weightTotal(i);
-            if (Math.abs(sum - 1) <= tol || Double.isNaN(sum)) {
-                continue;
-            }
+            double sum = facts.offOneTotal(k);
             if (sev == null) {
                 // CLI.md: a warning when every output's |log Z| is within the tolerance, else an error.
                 sev = ctx.outputsNormalized() ? Severity.WARNING : Severity.ERROR;

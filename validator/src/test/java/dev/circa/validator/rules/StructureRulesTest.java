@@ -98,6 +98,32 @@ class StructureRulesTest {
     }
 
     @Test
+    void sumNotDeterministic_zeroWeightChildrenLeftOut_clean() {
+        // FORMAT.md: at most one positive child at every assignment; a child of weight 0 is never positive
+        ValidationReport r = pressureSum("[0.0, 1.0, 0.0]").check();
+        assertEquals(Verdict.TRUE, r.property(Property.DETERMINISTIC));
+    }
+
+    @Test
+    void sumNotDeterministic_zeroWeightBetweenOverlappingChildren_reported() {
+        // the middle child of weight 0 is left out; the first and the last overlap on the whole line
+        ValidationReport r = pressureSum("[0.5, 0.0, 0.5]").expect("/nodes/3", "SumNotDeterministic").check();
+        assertEquals(Verdict.FALSE, r.property(Property.DETERMINISTIC));
+        assertTrue(message(r, "SumNotDeterministic").contains("children 0 and 2"), message(r, "SumNotDeterministic"));
+    }
+
+    /** Three normal inputs of one real variable under sum 3 with {@code weights}; determinism required. */
+    private static RuleTester pressureSum(String weights) {
+        String nodes = """
+                {"id": 0, "input": "normal", "var": 0, "mean": 3.1, "sd": 0.2},
+                {"id": 1, "input": "normal", "var": 0, "mean": 2.2, "sd": 0.5},
+                {"id": 2, "input": "normal", "var": 0, "mean": 1.4, "sd": 0.3},
+                {"id": 3, "sum": [0, 1, 2], "weights": %s}""".formatted(weights);
+        return circuit("{\"name\": \"inlet_pressure\", \"type\": \"real\"}", nodes, "{\"name\": \"joint\", \"node\": 3}")
+                .options(ValidationOptions.defaults().withRequire("deterministic"));
+    }
+
+    @Test
     void sumNotDeterministic_enumerationFindsOverlap_infoWithWitness() {
         // child 8 (alarm == pump_on) and child 11 (alarm = 0, pump_on free) are both positive at alarm=0, pump_on=0
         String nodes = XOR + """
