@@ -155,6 +155,21 @@ class NodeTableTest {
         }
     }
 
+    /** Node {@code i} of the two-halves test: i % 3 children, one or two numbers, one variable. */
+    private static void appendNode(NodeTable.Builder b, int i, String label) {
+        Family[] families = Family.values();
+        for (int c = 0; c < i % 3; c++) {
+            b.appendChild(3 * i + c);
+        }
+        b.appendValue(i + 0.25);
+        if (i % 2 == 0) {
+            b.appendValue(-i);
+        }
+        b.appendVar(i % 11);
+        byte kind = (byte) (i % 3);
+        b.close(kind, 2 * i, label, kind == NodeTable.INPUT ? families[i % families.length] : null, i % 5 == 0);
+    }
+
     @Test
     void appendAll_twoHalvesAcrossBlocks_sameEntriesAsOneBuilder() {
         // the halves meet at odd places in every column (a partly filled block on both sides), labels in both
@@ -164,32 +179,12 @@ class NodeTableTest {
             NodeTable.Builder second = new NodeTable.Builder();
             Family[] families = Family.values();
             for (int i = 0; i < n; i++) {
-                NodeTable.Builder b = i < split ? first : second;
-                for (int c = 0; c < i % 3; c++) {
-                    b.appendChild(3 * i + c);
-                }
-                b.appendValue(i + 0.25);
-                if (i % 2 == 0) {
-                    b.appendValue(-i);
-                }
-                b.appendVar(i % 11);
-                byte kind = (byte) (i % 3);
-                b.close(kind, 2 * i, i % 100_000 == 7 ? "valve_" + i : null,
-                        kind == NodeTable.INPUT ? families[i % families.length] : null, i % 5 == 0);
+                appendNode(i < split ? first : second, i, i % 100_000 == 7 ? "valve_" + i : null);
             }
             first.appendAll(second);
             // nodes appended after the halves met go on where the last one ended
             for (int i = n; i < n + 3; i++) {
-                for (int c = 0; c < i % 3; c++) {
-                    first.appendChild(3 * i + c);
-                }
-                first.appendValue(i + 0.25);
-                if (i % 2 == 0) {
-                    first.appendValue(-i);
-                }
-                first.appendVar(i % 11);
-                byte kind = (byte) (i % 3);
-                first.close(kind, 2 * i, null, kind == NodeTable.INPUT ? families[i % families.length] : null, i % 5 == 0);
+                appendNode(first, i, null);
             }
             NodeTable t = first.build();
             assertEquals(n + 3, t.size());

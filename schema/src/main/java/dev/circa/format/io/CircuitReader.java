@@ -482,8 +482,8 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             NodeScanner.End end = head.await();
             int count = head.count();
             long offset = head.offset();
-            int atLine = head.line(line);
-            int atColumn = head.column(column);
+            int atLine = head.stopLine(line);
+            int atColumn = head.stopColumn(column);
             table.appendAll(head.table());
             nodeLocations.appendAll(head.locations(), line, column);
             head.take();

@@ -1,13 +1,10 @@
 package dev.circa.format.io;
 
-import dev.circa.format.NodeLocations;
-import dev.circa.format.NodeTable;
 import java.io.IOException;
 import java.nio.ByteBuffer;
 import java.nio.channels.FileChannel;
 import java.nio.file.Path;
 import java.nio.file.StandardOpenOption;
-import java.util.concurrent.CountDownLatch;
 
 /**
  * Reads the first half of a large circuit's {@code nodes} array on another thread from the moment the
@@ -24,29 +21,19 @@ import java.util.concurrent.CountDownLatch;
  * it then goes on from where the head stopped as it would have from its own scanner. Otherwise the head
  * is dropped unheard. Used by one reading thread.
  */
-final class NodeArrayHead implements AutoCloseable {
+final class NodeArrayHead extends NodeScanThread {
     /** How far into the file the nodes array's start is looked for. */
     static final int SEARCH_BYTES = 4 << 20;
 
     private final long bracketOffset;
-    private final FileChannel channel;
-    private final NodeTable.Builder table = new NodeTable.Builder();
-    private final NodeLocations.Recorder locations = new NodeLocations.Recorder();
-    private final NodeScanner scanner;
-    private final CountDownLatch done = new CountDownLatch(1);
-    private final Thread thread;
     private volatile NodeScanner.End end;
-    private volatile Error error;
     private boolean taken;
 
     private NodeArrayHead(long bracketOffset, FileChannel channel, ReadLimits limits, long size, long meet) {
-        this.bracketOffset = bracketOffset;
-        this.channel = channel;
         // lines counted from the bracket as line 2, column 1 (the line after a first line of its own)
-        this.scanner = new NodeScanner(channel, bracketOffset + 1, 2, 2, limits, table, locations, size);
+        super(channel, bracketOffset + 1, 2, limits, size, "circa-read-head");
+        this.bracketOffset = bracketOffset;
         scanner.meet(meet);
-        this.thread = new Thread(this::run, "circa-read-head");
-        thread.setDaemon(true);
     }
 
     /**
@@ -60,7 +47,7 @@ final class NodeArrayHead implements AutoCloseable {
                 return null;
             }
             NodeArrayHead head = new NodeArrayHead(bracket, FileChannel.open(file, StandardOpenOption.READ), limits, size, meet);
-            head.thread.start();
+            head.startThread();
             return head;
         } catch (IOException e) {
             // the file cannot be opened a second time: the reader reads it alone
@@ -90,68 +77,13 @@ final class NodeArrayHead implements AutoCloseable {
 
     /** Waits for the head: how its scan ended. */
     NodeScanner.End await() {
-        try {
-            done.await();
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            throw new IllegalStateException("interrupted while the first half of the nodes was read", e);
-        }
-        Error e = error;
-        if (e != null) {
-            throw e;
-        }
+        await("the first half");
         return end;
     }
 
-    /** The nodes read (after {@link #await}). */
-    NodeTable.Builder table() {
-        return table;
-    }
-
-    /** Where the nodes read start, as the head counted them (line 2, column 1 at the bracket). */
-    NodeLocations.Recorder locations() {
-        return locations;
-    }
-
-    int count() {
-        return scanner.count();
-    }
-
-    /** The file offset where the scan stopped (after {@link #await}). */
-    long offset() {
-        return scanner.offset();
-    }
-
-    /** The file's line where the scan stopped, the bracket standing at {@code line}. */
-    int line(int line) {
-        return scanner.line() - 2 + line;
-    }
-
-    /** The file's column where the scan stopped, the bracket standing at {@code line}, {@code column}. */
-    int column(int column) {
-        return scanner.line() == 2 ? scanner.column() - 1 + column : scanner.column();
-    }
-
-    /** Stops the head (if it still runs) and waits for it. */
     @Override
-    public void close() {
-        scanner.stop();
-        Workers.stop(thread);
-        try {
-            channel.close();
-        } catch (IOException ignored) {
-            // nothing read from it is kept
-        }
-    }
-
-    private void run() {
-        try {
-            end = scanner.scan(true);
-        } catch (Error e) {
-            error = e;
-        } finally {
-            done.countDown();
-        }
+    protected void scan() {
+        end = scanner.scan(true);
     }
 
     /**

@@ -1,13 +1,10 @@
 package dev.circa.format.io;
 
-import dev.circa.format.NodeLocations;
-import dev.circa.format.NodeTable;
 import java.io.IOException;
 import java.nio.ByteBuffer;
 import java.nio.channels.FileChannel;
 import java.nio.file.Path;
 import java.nio.file.StandardOpenOption;
-import java.util.concurrent.CountDownLatch;
 
 /**
  * Reads the second half of a large circuit's {@code nodes} array on another thread, while the
@@ -24,22 +21,15 @@ import java.util.concurrent.CountDownLatch;
  * before the end of the array (a node left to the parser: something to report, or a form the scanner
  * does not read), since what the reader reports must not depend on the split. Used by one reading thread.
  */
-final class NodeArrayTail implements AutoCloseable {
+final class NodeArrayTail extends NodeScanThread {
     /** Files smaller than this are read by one thread (a second thread costs more than it saves). */
     static final long MIN_BYTES = 8L << 20;
     /** How far past the middle the start of a node is looked for. */
     private static final int SCAN_BYTES = 1 << 16;
 
     private final long braceOffset;
-    private final FileChannel channel;
-    private final NodeTable.Builder table = new NodeTable.Builder();
-    private final NodeLocations.Recorder locations = new NodeLocations.Recorder();
-    private final NodeScanner scanner;
-    private final CountDownLatch done = new CountDownLatch(1);
-    private final Thread thread;
     /** Whether the tail read its nodes up to the end of the array. */
     private volatile boolean clean;
-    private volatile Error error;
     /** SHA-256 of the bytes read, when the tail hashes ({@link #digest()}). */
     private volatile byte[] digest;
     /** Where the array ends, in the file's lines and columns (after {@link #handOver}). */
@@ -47,12 +37,9 @@ final class NodeArrayTail implements AutoCloseable {
     private int endColumn;
 
     private NodeArrayTail(long braceOffset, FileChannel channel, ReadLimits limits, long size) {
+        // the tail counts lines from its brace, as line 2 (the line after a first line of its own), column 1
+        super(channel, braceOffset, 1, limits, size, "circa-read-tail");
         this.braceOffset = braceOffset;
-        this.channel = channel;
-        // the tail counts lines from its brace, as line 2 (the line after a first line of its own)
-        this.scanner = new NodeScanner(channel, braceOffset, 2, 1, limits, table, locations, size);
-        this.thread = new Thread(this::run, "circa-read-tail");
-        thread.setDaemon(true);
     }
 
     /**
@@ -80,7 +67,7 @@ final class NodeArrayTail implements AutoCloseable {
             if (hash) {
                 tail.scanner.hashTaken(dev.circa.format.certificate.CertificateWriter.newSha256());
             }
-            tail.thread.start();
+            tail.startThread();
             return tail;
         } catch (IOException e) {
             // the file cannot be opened a second time: the reader reads it alone
@@ -102,38 +89,14 @@ final class NodeArrayTail implements AutoCloseable {
      * @return whether the tail holds (its table and locations are then the reader's to take)
      */
     boolean handOver(int line, int column, int nodesBefore, long maxNodes) {
-        try {
-            done.await();
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            throw new IllegalStateException("interrupted while the second half of the nodes was read", e);
-        }
-        Error e = error;
-        if (e != null) {
-            throw e;
-        }
+        await("the second half");
         if (!clean || (long) nodesBefore + scanner.count() > maxNodes) {
             return false;
         }
         // the tail counted lines from its brace as line 2, column 1
-        endLine = scanner.line() - 2 + line;
-        endColumn = scanner.line() == 2 ? scanner.column() - 1 + column : scanner.column();
+        endLine = stopLine(line);
+        endColumn = stopColumn(column);
         return true;
-    }
-
-    /** The nodes read (after {@link #handOver}). */
-    NodeTable.Builder table() {
-        return table;
-    }
-
-    /** Where the nodes read start, as the tail counted them (line 2, column 1 at its brace). */
-    NodeLocations.Recorder locations() {
-        return locations;
-    }
-
-    /** The number of nodes read. */
-    int count() {
-        return scanner.count();
     }
 
     /** The file offset of the nodes array's <code>]</code> (after {@link #handOver}). */
@@ -151,33 +114,16 @@ final class NodeArrayTail implements AutoCloseable {
         return endColumn;
     }
 
-    /** Stops the tail (if it still runs) and waits for it. */
-    @Override
-    public void close() {
-        scanner.stop();
-        Workers.stop(thread);
-        try {
-            channel.close();
-        } catch (IOException ignored) {
-            // nothing read from it is kept
-        }
-    }
-
     /** The digest of the bytes read, from the brace to the array's end (after a clean {@link #handOver}, with hashing). */
     byte[] digest() {
         return digest;
     }
 
-    private void run() {
-        try {
-            clean = scanner.scan(Long.MAX_VALUE, false) == NodeScanner.End.ARRAY_END;
-            if (clean) {
-                digest = scanner.takenDigest();
-            }
-        } catch (Error e) {
-            error = e;
-        } finally {
-            done.countDown();
+    @Override
+    protected void scan() {
+        clean = scanner.scan(Long.MAX_VALUE, false) == NodeScanner.End.ARRAY_END;
+        if (clean) {
+            digest = scanner.takenDigest();
         }
     }
 
