@@ -337,6 +337,23 @@ public final class RuleContext {
         return true;
     }
 
+    /**
+     * Counts {@code more} diagnostics of {@code rule} with severity {@code s} as dropped, as that many
+     * further calls of {@link #skip} would once it has returned true (it then returns true for the rest of
+     * the rule's findings): a rule with many findings counts the ones after the first dropped at once.
+     */
+    public void skipAlso(Rule rule, Severity s, int more) {
+        RuleSetting setting = options.ruleSettings().get(rule.id());
+        int[] c = counts.get(rule.id());
+        if (setting == RuleSetting.OFF || more <= 0 || c == null) {
+            return;
+        }
+        Severity eff = setting == RuleSetting.WARN ? Severity.WARNING : setting == RuleSetting.ERROR ? Severity.ERROR : s;
+        c[0] += more;
+        c[1] = Math.min(c[1], eff.ordinal() + 1);
+        c[2] = 1;
+    }
+
     private void emit(Rule rule, Diagnostic d) {
         RuleSetting setting = options.ruleSettings().get(rule.id());
         if (setting == RuleSetting.OFF) {

@@ -17,10 +17,13 @@ public final class SumNotDeterministic extends Rule {
         }
         Graph g = ctx.graph();
         Severity sev = ctx.propertySeverity(Property.DETERMINISTIC);
-        for (int k = 0; k < d.falseSums().size(); k++) {
+        int n = d.falseSums().size();
+        for (int k = 0; k < n; k++) {
             int[] f = d.falseSums().get(k);
             if (ctx.skip(this, sev)) {
-                continue;
+                // every later one is dropped as well
+                ctx.skipAlso(this, sev, n - k - 1);
+                break;
             }
             ctx.atNode(this, sev, f[0], null, String.format(Locale.ROOT,
                     "sum %d is not deterministic: children %d and %d are both positive at %s; "

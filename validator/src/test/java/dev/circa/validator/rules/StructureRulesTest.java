@@ -8,11 +8,17 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import dev.circa.format.CircuitDocument;
+import dev.circa.format.io.CircuitReader;
+import dev.circa.validator.Diagnostic;
 import dev.circa.validator.Property;
+import dev.circa.validator.RuleSetting;
 import dev.circa.validator.Severity;
 import dev.circa.validator.ValidationOptions;
 import dev.circa.validator.ValidationReport;
+import dev.circa.validator.Validator;
 import dev.circa.validator.Verdict;
+import java.util.List;
 import org.junit.jupiter.api.Test;
 
 /** Structural properties: smoothness, decomposability, determinism, structured decomposability. */
@@ -110,6 +116,44 @@ class StructureRulesTest {
         ValidationReport r = pressureSum("[0.5, 0.0, 0.5]").expect("/nodes/3", "SumNotDeterministic").check();
         assertEquals(Verdict.FALSE, r.property(Property.DETERMINISTIC));
         assertTrue(message(r, "SumNotDeterministic").contains("children 0 and 2"), message(r, "SumNotDeterministic"));
+    }
+
+    @Test
+    void sumNotDeterministic_manyRequired_hundredKeptRestCounted() throws Exception {
+        // 150 sums over the same two overlapping inputs and one sum over them all: 151 findings, errors as required
+        StringBuilder nodes = new StringBuilder("""
+                {"id": 0, "input": "normal", "var": 0, "mean": 3.1, "sd": 0.2},
+                {"id": 1, "input": "normal", "var": 0, "mean": 2.2, "sd": 0.5}""");
+        StringBuilder top = new StringBuilder();
+        StringBuilder weights = new StringBuilder();
+        for (int k = 2; k < 152; k++) {
+            nodes.append(",\n{\"id\": ").append(k).append(", \"sum\": [0, 1], \"weights\": [0.5, 0.5]}");
+            top.append(k == 2 ? "" : ", ").append(k);
+            weights.append(k == 2 ? "" : ", ").append(1.0 / 150);
+        }
+        nodes.append(",\n{\"id\": 152, \"sum\": [").append(top).append("], \"weights\": [").append(weights).append("]}");
+        String json = "{\"format\": \"circa.circuit\", \"version\": \"1.0\", \"variables\": [{\"name\": \"inlet_pressure\", "
+                + "\"type\": \"real\"}], \"nodes\": [" + nodes + "], \"outputs\": [{\"name\": \"joint\", \"node\": 152}]}";
+        CircuitDocument doc = new CircuitReader().readString(json, "many.json");
+        for (String setting : new String[] {null, "warn", "off"}) {
+            ValidationOptions o = ValidationOptions.defaults().withRequire("deterministic");
+            if (setting != null) {
+                o = o.withRule("SumNotDeterministic", RuleSetting.valueOf(setting.toUpperCase(java.util.Locale.ROOT)));
+            }
+            List<Diagnostic> det = new Validator(o).validate(doc).diagnostics().stream()
+                    .filter(d -> d.code().equals("SumNotDeterministic")).toList();
+            if ("off".equals(setting)) {
+                assertEquals(0, det.size());
+                continue;
+            }
+            // RuleContext.MAX_PER_RULE kept, then one line counting the rest (CLI.md)
+            Severity sev = setting == null ? Severity.ERROR : Severity.WARNING;
+            assertEquals(101, det.size());
+            assertEquals("51 more diagnostics of this rule not shown (151 in all)", det.get(100).message());
+            assertEquals(sev, det.get(100).severity());
+            assertEquals("/nodes/2", det.get(0).pointer());
+            assertEquals("/nodes/101", det.get(99).pointer());
+        }
     }
 
     /** Three normal inputs of one real variable under sum 3 with {@code weights}; determinism required. */
