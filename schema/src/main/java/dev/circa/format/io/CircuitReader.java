@@ -430,7 +430,7 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             }
             try (FileChannel ch = FileChannel.open(file, StandardOpenOption.READ)) {
                 long size = ch.size();
-                if (!scannable(ch, size)) {
+                if (!scannable(ch, size, scanAtLeast, limits)) {
                     return 0;
                 }
                 if (tail != null && tail.nodeOffset() <= at) {
@@ -452,18 +452,7 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
                 }
                 NodeScanner scanner = new NodeScanner(ch, at + 1, line, column + 1, limits, table, nodeLocations, size);
                 NodeScanner.End end = scanner.scan(tail == null ? Long.MAX_VALUE : tail.nodeOffset(), true);
-                if (end == NodeScanner.End.MET) {
-                    if (takeTail(scanner.count(), scanner.line(), scanner.column())) {
-                        return -1;
-                    }
-                    closeTail();
-                    end = scanner.scan(Long.MAX_VALUE, false);
-                }
-                if (tail != null && scanner.offset() > tail.nodeOffset()) {
-                    closeTail();
-                }
-                resume(scanner.offset(), scanner.line(), scanner.column());
-                return scanner.count();
+                return readOn(ch, size, end, scanner.count(), scanner.offset(), scanner.line(), scanner.column());
             } catch (FormatException e) {
                 throw e;
             } catch (IOException e) {
@@ -472,9 +461,8 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
         }
 
         /**
-         * Takes the nodes the head read from the array's <code>[</code>, at {@code line}, {@code column}, and goes
-         * on from where it stopped as from this thread's own scanner: the tail's nodes when it stopped at
-         * the tail's node, else the parser from the node it left (or the array's end).
+         * Takes the nodes the head read from the array's <code>[</code>, at {@code line}, {@code column}, and reads
+         * on from where it stopped as from this thread's own scanner ({@link #readOn}).
          *
          * @return as {@link #scanNodes}
          */
@@ -489,12 +477,24 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             head.take();
             head.close();
             head = null;
+            return readOn(ch, size, end, count, offset, atLine, atColumn);
+        }
+
+        /**
+         * Reads on from where the first half's scan stopped, as {@code end} says, after {@code count} nodes, at
+         * {@code offset}, {@code line}, {@code column}: at the tail's node the tail's nodes are taken when the
+         * tail holds, else a scanner reads on from that node; then the parser reads on from where the scan stopped.
+         *
+         * @return as {@link #scanNodes}
+         */
+        private int readOn(FileChannel ch, long size, NodeScanner.End end, int count, long offset, int line, int column)
+                throws IOException, FormatException {
             if (end == NodeScanner.End.MET) {
-                if (takeTail(count, atLine, atColumn)) {
+                if (takeTail(count, line, column)) {
                     return -1;
                 }
                 closeTail();
-                NodeScanner scanner = new NodeScanner(ch, offset, atLine, atColumn, limits, table, nodeLocations, size);
+                NodeScanner scanner = new NodeScanner(ch, offset, line, column, limits, table, nodeLocations, size);
                 scanner.countFrom(count);
                 scanner.scan(Long.MAX_VALUE, false);
                 resume(scanner.offset(), scanner.line(), scanner.column());
@@ -503,13 +503,8 @@ public final class CircuitReader extends JsonDocumentReader<CircuitDocument> {
             if (tail != null && offset > tail.nodeOffset()) {
                 closeTail();
             }
-            resume(offset, atLine, atColumn);
+            resume(offset, line, column);
             return count;
-        }
-
-        /** Whether the nodes of a stored file of {@code size} bytes, open as {@code ch}, are read by a scanner. */
-        private boolean scannable(FileChannel ch, long size) throws IOException {
-            return CircuitReader.scannable(ch, size, scanAtLeast, limits);
         }
 
         /**

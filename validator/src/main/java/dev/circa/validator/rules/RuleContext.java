@@ -327,13 +327,11 @@ public final class RuleContext {
             return true;
         }
         int[] c = counts.get(rule.id());
-        Severity eff = setting == RuleSetting.WARN ? Severity.WARNING : setting == RuleSetting.ERROR ? Severity.ERROR : s;
+        Severity eff = effective(setting, s);
         if (c == null || c[0] < cap(eff)) {
             return false;
         }
-        c[0]++;
-        c[1] = Math.min(c[1], eff.ordinal() + 1);
-        c[2] = 1;
+        countDropped(c, eff, 1);
         return true;
     }
 
@@ -348,8 +346,17 @@ public final class RuleContext {
         if (setting == RuleSetting.OFF || more <= 0 || c == null) {
             return;
         }
-        Severity eff = setting == RuleSetting.WARN ? Severity.WARNING : setting == RuleSetting.ERROR ? Severity.ERROR : s;
-        c[0] += more;
+        countDropped(c, effective(setting, s), more);
+    }
+
+    /** The severity a finding of severity {@code s} is reported with under the rule's {@code --rule} setting. */
+    private static Severity effective(RuleSetting setting, Severity s) {
+        return setting == RuleSetting.WARN ? Severity.WARNING : setting == RuleSetting.ERROR ? Severity.ERROR : s;
+    }
+
+    /** Counts {@code n} dropped diagnostics of severity {@code eff} in a rule's counts. */
+    private static void countDropped(int[] c, Severity eff, int n) {
+        c[0] += n;
         c[1] = Math.min(c[1], eff.ordinal() + 1);
         c[2] = 1;
     }
@@ -359,10 +366,9 @@ public final class RuleContext {
         if (setting == RuleSetting.OFF) {
             return;
         }
-        if (setting == RuleSetting.WARN) {
-            d = d.withSeverity(Severity.WARNING);
-        } else if (setting == RuleSetting.ERROR) {
-            d = d.withSeverity(Severity.ERROR);
+        Severity eff = effective(setting, d.severity());
+        if (eff != d.severity()) {
+            d = d.withSeverity(eff);
         }
         int[] c = counts.computeIfAbsent(rule.id(), k -> new int[3]);
         c[0]++;
